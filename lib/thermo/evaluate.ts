@@ -1,0 +1,232 @@
+/**
+ * Reaction properties, corrected (Kirchhoff, numerically integrated) against naive
+ * (ΔrH(Tref) − T·ΔrS(Tref)), crossovers and the sign case: the engine's main door.
+ */
+import { ENGINE_VERSION, HIGH_PRESSURE_BAR, R, T298 } from "./constants";
+import { refuse } from "./errors";
+import { checkBalance, parseReaction } from "./formula";
+import { parseTemperatureGrid } from "./grid";
+import { brent } from "./roots";
+import { describeIssue, evaluateRequestSchema } from "./schema";
+import {
+  buildSpeciesModel,
+  fmt,
+  termAt,
+  termOnGrid,
+  termWarnings,
+  type EngineWarning,
+  type SpeciesModel,
+  type SpeciesRow,
+  type TermGrid,
+} from "./species";
+import { parsePressureBar, parseTemperatureK } from "./units";
+
+export interface EvaluatePoint {
+  tK: number;
+  dCpJ: number;
+  dHkJ: number;
+  dSJ: number;
+  dGkJ: number;
+  lnK: number;
+  log10K: number;
+  K: number | null;
+  naiveDGkJ: number;
+  naiveLnK: number;
+  naiveLog10K: number;
+  diffKJ: number;
+  exceedsTolerance: boolean;
+}
+
+export type SignCaseCode = "favourable-always" | "favourable-above" | "favourable-below" | "favourable-never";
+
+export interface EvaluateResult {
+  points: EvaluatePoint[];
+  reference: { tK: number; dCpJ: number; dHkJ: number; dSJ: number; dGkJ: number; lnK: number; log10K: number };
+  crossover: { naiveK: number | null; naiveInSpan: boolean; correctedK: number[] };
+  signCase: { code: SignCaseCode; text: string; correctedAgrees: boolean };
+  species?: Record<string, SpeciesRow[]>;
+  warnings: EngineWarning[];
+  engine: { version: string };
+}
+
+export const SIGN_CASES: Record<SignCaseCode, string> = {
+  "favourable-always": "K > 1 at all T",
+  "favourable-above": "K > 1 only above the crossover temperature",
+  "favourable-below": "K > 1 only below the crossover temperature",
+  "favourable-never": "K > 1 at no T",
+};
+
+const LN10 = Math.LN10;
+
+interface Term {
+  key: string;
+  nu: number;
+  phase?: string;
+  model: SpeciesModel;
+}
+
+/** ΔrX at one temperature (J units), with the lowest-G phase chosen per term where unmarked. */
+function reactionAt(terms: Term[], T: number): { dCp: number; dH: number; dS: number; dG: number } {
+  let dCp = 0;
+  let dH = 0;
+  let dS = 0;
+  for (const t of terms) {
+    const v = termAt(t.model, t.phase, T);
+    dCp += t.nu * v.cpJ;
+    dH += t.nu * v.hJ;
+    dS += t.nu * v.sJ;
+  }
+  return { dCp, dH, dS, dG: dH - T * dS };
+}
+
+/**
+ * Evaluate a request (EVALUATE.md). Validates with `evaluateRequestSchema`; every refusal is
+ * an EngineRefusal with a stable code and an exact message. Units: kJ/mol for H and G,
+ * J/(mol·K) for S and Cp, K for temperatures.
+ */
+export function evaluate(request: unknown): EvaluateResult {
+  const parsed = evaluateRequestSchema.safeParse(request);
+  if (!parsed.success) {
+    const issue = parsed.error.issues[0];
+    refuse("invalid-request", `invalid request: ${describeIssue(issue)}`, {
+      issues: parsed.error.issues.map((i) => ({ path: i.path.map(String), message: i.message })),
+    });
+  }
+  const req = parsed.data!;
+  const reaction = parseReaction(req.reaction);
+  for (const t of reaction.terms) {
+    if (!Object.prototype.hasOwnProperty.call(req.species, t.key)) {
+      refuse("missing-species", `species "${t.key}" is used in the reaction but has no entry in species`, { species: t.key });
+    }
+  }
+  checkBalance(reaction.terms);
+  const referenceK = parseTemperatureK(req.referenceK ?? T298, "referenceK");
+  if (!(referenceK > 0)) refuse("nonpositive-temperature", `referenceK: temperatures must be above 0 K (got ${referenceK} K)`);
+  const T = parseTemperatureGrid(req.temperatures);
+  const n = T.length;
+
+  const terms: Term[] = reaction.terms.map((t) => ({
+    key: t.key, nu: t.nu, phase: t.phase, model: buildSpeciesModel(t.key, req.species[t.key], referenceK),
+  }));
+
+  const dCp = new Float64Array(n);
+  const dH = new Float64Array(n);
+  const dS = new Float64Array(n);
+  const grids: TermGrid[] = [];
+  const warnings: EngineWarning[] = [];
+  for (const term of terms) {
+    const g = termOnGrid(term.model, term.phase, T, term.model.chains.size > 1);
+    grids.push(g);
+    for (let i = 0; i < n; i++) {
+      dCp[i] += term.nu * g.cp[i];
+      dH[i] += term.nu * g.h[i];
+      dS[i] += term.nu * g.s[i];
+    }
+    warnings.push(...termWarnings(term.model, term.phase, T, g, referenceK));
+  }
+
+  const ref = reactionAt(terms, referenceK);
+  const tolJ = req.toleranceKJ === undefined ? Infinity : req.toleranceKJ * 1000;
+  const tolLn = req.toleranceKFactor === undefined ? Infinity : Math.log(req.toleranceKFactor);
+  const dG = new Float64Array(n);
+  const naive = new Float64Array(n);
+  const points: EvaluatePoint[] = new Array(n);
+  for (let i = 0; i < n; i++) {
+    const t = T[i];
+    const g = dH[i] - t * dS[i];
+    const gn = ref.dH - t * ref.dS;
+    dG[i] = g;
+    naive[i] = gn;
+    const lnK = -g / (R * t);
+    const naiveLnK = -gn / (R * t);
+    const K = Math.exp(lnK);
+    points[i] = {
+      tK: t,
+      dCpJ: dCp[i],
+      dHkJ: dH[i] / 1000,
+      dSJ: dS[i],
+      dGkJ: g / 1000,
+      lnK,
+      log10K: lnK / LN10,
+      K: Number.isFinite(K) && K > 0 ? K : null,
+      naiveDGkJ: gn / 1000,
+      naiveLnK,
+      naiveLog10K: naiveLnK / LN10,
+      diffKJ: (gn - g) / 1000,
+      exceedsTolerance: Math.abs(gn - g) > tolJ || Math.abs(naiveLnK - lnK) > tolLn,
+    };
+  }
+
+  // Corrected crossovers: bracket on the grid and at the extrema of ΔrG (ΔrS = 0).
+  const dGAt = (t: number) => reactionAt(terms, t).dG;
+  const dSAt = (t: number) => reactionAt(terms, t).dS;
+  const nodes: { t: number; g: number }[] = [];
+  for (let i = 0; i < n; i++) {
+    nodes.push({ t: T[i], g: dG[i] });
+    if (i + 1 < n && dS[i] * dS[i + 1] < 0) {
+      const te = brent(dSAt, T[i], T[i + 1], dS[i], dS[i + 1]);
+      if (te > T[i] && te < T[i + 1]) nodes.push({ t: te, g: dGAt(te) });
+    }
+  }
+  const roots: number[] = [];
+  for (let i = 0; i < nodes.length; i++) {
+    const a = nodes[i];
+    if (a.g === 0) {
+      roots.push(a.t);
+      continue;
+    }
+    const b = nodes[i + 1];
+    if (b && b.g !== 0 && a.g * b.g < 0) roots.push(brent(dGAt, a.t, b.t, a.g, b.g, 1e-9));
+  }
+
+  const naiveK = ref.dH * ref.dS > 0 ? ref.dH / ref.dS : null;
+  const naiveInSpan = naiveK !== null && naiveK >= T[0] && naiveK <= T[n - 1];
+  const code: SignCaseCode =
+    ref.dH <= 0 ? (ref.dS >= 0 ? "favourable-always" : "favourable-below") : ref.dS > 0 ? "favourable-above" : "favourable-never";
+  let agrees = roots.length === (naiveInSpan ? 1 : 0);
+  for (let i = 0; i < n && agrees; i++) if (dG[i] < 0 !== naive[i] < 0) agrees = false;
+
+  const pressureBar =
+    req.pressureBar !== undefined
+      ? parsePressureBar(req.pressureBar, "pressureBar")
+      : req.equilibrium?.pressureBar !== undefined
+        ? parsePressureBar(req.equilibrium.pressureBar, "equilibrium.pressureBar")
+        : undefined;
+  if (pressureBar !== undefined && pressureBar > HIGH_PRESSURE_BAR) {
+    warnings.push({
+      code: "high-pressure", pressureBar,
+      message: `K is the ideal-gas constant for a 1 bar standard state; at ${fmt(pressureBar)} bar non-ideal (fugacity) corrections may matter`,
+    });
+  }
+
+  const result: EvaluateResult = {
+    points,
+    reference: {
+      tK: referenceK, dCpJ: ref.dCp, dHkJ: ref.dH / 1000, dSJ: ref.dS, dGkJ: ref.dG / 1000,
+      lnK: -ref.dG / (R * referenceK), log10K: -ref.dG / (R * referenceK) / LN10,
+    },
+    crossover: { naiveK, naiveInSpan, correctedK: roots },
+    signCase: { code, text: SIGN_CASES[code], correctedAgrees: agrees },
+    warnings,
+    engine: { version: ENGINE_VERSION },
+  };
+  if (req.include?.includes("species")) {
+    const species: Record<string, SpeciesRow[]> = {};
+    terms.forEach((term, k) => {
+      const g = grids[k];
+      const rows: SpeciesRow[] = new Array(n);
+      for (let i = 0; i < n; i++) {
+        const hkJ = g.h[i] / 1000;
+        rows[i] = { tK: T[i], phase: g.phases[g.phaseIndex[i]], cpJ: g.cp[i], hkJ, sJ: g.s[i], gkJ: hkJ - (T[i] * g.s[i]) / 1000 };
+      }
+      species[term.key] = rows;
+    });
+    const { warnings: w, engine } = result;
+    delete (result as Partial<EvaluateResult>).warnings;
+    delete (result as Partial<EvaluateResult>).engine;
+    result.species = species;
+    result.warnings = w;
+    result.engine = engine;
+  }
+  return result;
+}

@@ -1,0 +1,27 @@
+/** Heatpath's computation engine. Pure: no I/O, no framework imports. */
+export { ENGINE_VERSION, R, STANDARD_PRESSURE_PA, ATM_PA, MAX_POINTS, HIGH_PRESSURE_BAR } from "./constants";
+export { EngineRefusal } from "./errors";
+export { evaluate, SIGN_CASES, type EvaluateResult, type EvaluatePoint, type SignCaseCode } from "./evaluate";
+export { speciesProperties, type SpeciesRow, type EngineWarning } from "./species";
+export { parseFormula, parseReaction, parseSpeciesKey, checkBalance, ATOMIC_WEIGHTS } from "./formula";
+export { parseTemperatureGrid } from "./grid";
+export {
+  parseQuantity,
+  parseTemperatureK,
+  parseTemperatureDifferenceK,
+  parseMolarEnergyKJ,
+  parseMolarEntropyJ,
+  parsePressureBar,
+} from "./units";
+export { fitCp, type FitResult } from "./fit";
+export {
+  evaluateRequestSchema,
+  speciesSchema,
+  segmentSchema,
+  fitRequestSchema,
+  CP_FORMS,
+  type EvaluateRequest,
+  type SpeciesInput,
+  type SegmentInput,
+  type FitRequest,
+} from "./schema";
