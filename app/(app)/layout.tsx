@@ -1,0 +1,22 @@
+import { redirect } from "next/navigation";
+import { AppHeader } from "@/components/shell/app-header";
+import { getActor } from "@/lib/auth/session";
+
+const NAV = [
+  { href: "/", label: "Home" },
+  { href: "/library", label: "Library" },
+  { href: "/cases", label: "Cases" },
+  { href: "/reviews", label: "Reviews" },
+  { href: "/team", label: "Team" },
+];
+
+export default async function AppLayout({ children }: { children: React.ReactNode }) {
+  const actor = await getActor();
+  if (!actor) redirect("/sign-in");
+  return (
+    <>
+      <AppHeader actor={actor} items={NAV} />
+      <main className="mx-auto max-w-6xl px-4 py-8">{children}</main>
+    </>
+  );
+}

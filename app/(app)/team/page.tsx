@@ -1,0 +1,63 @@
+import { InviteForm } from "@/components/team/invite-form";
+import { MemberControls } from "@/components/team/member-row";
+import { RevokeInvitationButton } from "@/components/team/revoke-button";
+import { Badge } from "@/components/ui/badge";
+import { Card, PageHeader } from "@/components/ui/card";
+import { ROLE_LABELS, can } from "@/lib/auth/permissions";
+import { requireUser } from "@/lib/auth/guards";
+import { getActor } from "@/lib/auth/session";
+import { listInvitations, listMembers } from "@/lib/services/team";
+
+export const metadata = { title: "Team" };
+
+const statusTone = { pending: "frost", accepted: "moss", revoked: "neutral", expired: "neutral" } as const;
+
+export default async function TeamPage() {
+  const actor = requireUser(await getActor());
+  const manage = can(actor.role, "members.manage");
+  const [members, invitations] = await Promise.all([listMembers(actor), manage ? listInvitations(actor) : Promise.resolve([])]);
+  return (
+    <>
+      <PageHeader title={actor.teamName} lead={manage ? "Members, roles and invitations. Every change is written to the audit trail." : "The people in your team and their roles."} />
+      <div className="space-y-6">
+        <Card title={`Members (${members.length})`}>
+          <ul className="divide-y divide-ink-line">
+            {members.map((m) => (
+              <li key={m.id} className="flex flex-wrap items-center justify-between gap-3 py-3" data-testid="member-row">
+                <div>
+                  <p className="text-sm font-medium">{m.name}{m.userId === actor.userId && <span className="text-ink-muted"> (you)</span>}</p>
+                  <p className="text-xs text-ink-muted">{m.email}</p>
+                </div>
+                {manage ? <MemberControls membershipId={m.id} role={m.role} name={m.name} /> : <Badge>{ROLE_LABELS[m.role]}</Badge>}
+              </li>
+            ))}
+          </ul>
+        </Card>
+        {manage && (
+          <Card title="Invite someone">
+            <InviteForm />
+            {invitations.length > 0 && (
+              <table className="mt-6 w-full text-left text-sm">
+                <caption className="mb-2 text-left text-xs font-semibold uppercase tracking-wide text-ink-muted">Invitations</caption>
+                <thead className="text-xs text-ink-muted">
+                  <tr><th className="py-1 font-medium">E-mail</th><th className="font-medium">Role</th><th className="font-medium">Status</th><th className="font-medium">Expires</th><th /></tr>
+                </thead>
+                <tbody className="divide-y divide-ink-line">
+                  {invitations.map((i) => (
+                    <tr key={i.id}>
+                      <td className="py-2">{i.email}</td>
+                      <td>{ROLE_LABELS[i.role]}</td>
+                      <td><Badge tone={statusTone[i.status]}>{i.status}</Badge></td>
+                      <td className="tabular text-ink-muted">{i.expiresAt.slice(0, 10)}</td>
+                      <td className="text-right">{i.status === "pending" && <RevokeInvitationButton invitationId={i.id} />}</td>
+                    </tr>
+                  ))}
+                </tbody>
+              </table>
+            )}
+          </Card>
+        )}
+      </div>
+    </>
+  );
+}

@@ -1,0 +1,19 @@
+"use server";
+
+import { redirect } from "next/navigation";
+import { actionFailure, formObject, type ActionState } from "@/lib/actions";
+import { startSession } from "@/lib/auth/session";
+import { parseWith } from "@/lib/http";
+import { acceptInvitation } from "@/lib/services/team";
+import { acceptInvitationSchema } from "@/lib/validation/team";
+
+export async function acceptInvitationAction(_prev: ActionState, formData: FormData): Promise<ActionState> {
+  try {
+    const input = parseWith(acceptInvitationSchema, formObject(formData));
+    const { userId, teamId } = await acceptInvitation(input);
+    await startSession(userId, teamId);
+  } catch (error) {
+    return actionFailure(error);
+  }
+  redirect("/");
+}

@@ -1,0 +1,26 @@
+"use server";
+
+import { redirect } from "next/navigation";
+import { actionFailure, formObject, type ActionState } from "@/lib/actions";
+import { startSession } from "@/lib/auth/session";
+import { fieldErrors } from "@/lib/http";
+import { authenticate } from "@/lib/services/auth";
+import { signInSchema } from "@/lib/validation/auth";
+
+/** A local path to return to after sign-in; anything else goes home. */
+function safeNext(value: string | undefined): string {
+  return value && value.startsWith("/") && !value.startsWith("//") ? value : "/";
+}
+
+export async function signInAction(_prev: ActionState, formData: FormData): Promise<ActionState> {
+  const input = formObject(formData);
+  const parsed = signInSchema.safeParse(input);
+  if (!parsed.success) return { ok: false, fieldErrors: fieldErrors(parsed.error) };
+  try {
+    const { userId, teamId } = await authenticate(parsed.data);
+    await startSession(userId, teamId);
+  } catch (error) {
+    return actionFailure(error);
+  }
+  redirect(safeNext(input.next));
+}

@@ -1,0 +1,32 @@
+import { signOutAction } from "@/app/(app)/actions";
+import { ROLE_LABELS } from "@/lib/auth/permissions";
+import type { Actor } from "@/lib/auth/guards";
+import { NavLinks, type NavItem } from "./nav-links";
+import { Wordmark } from "./wordmark";
+
+export function AppHeader({ actor, items }: { actor: Actor; items: NavItem[] }) {
+  return (
+    <header className="no-print bg-ink text-paper">
+      <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-6 gap-y-2 px-4 py-3">
+        <Wordmark className="text-lg" />
+        <div className="order-3 w-full sm:order-none sm:w-auto sm:flex-1">
+          <NavLinks items={items} />
+        </div>
+        <div className="ml-auto flex items-center gap-3 text-sm">
+          <span className="hidden text-right leading-tight sm:block">
+            <span className="block font-medium" data-testid="user-name">{actor.name}</span>
+            <span className="block text-xs text-paper/70">{actor.teamName}</span>
+          </span>
+          <span data-testid="user-role" className="rounded-full bg-ember-500 px-2.5 py-0.5 text-xs font-semibold text-white">
+            {ROLE_LABELS[actor.role]}
+          </span>
+          <form action={signOutAction}>
+            <button type="submit" className="rounded-md px-2 py-1 text-paper/80 hover:bg-white/10 hover:text-paper">
+              Sign out
+            </button>
+          </form>
+        </div>
+      </div>
+    </header>
+  );
+}

@@ -1,0 +1,41 @@
+"use client";
+
+import { useActionState } from "react";
+import { changeRoleAction, removeMemberAction } from "@/app/(app)/team/actions";
+import { Button } from "@/components/ui/button";
+import { inputClass } from "@/components/ui/field";
+import { initialActionState } from "@/lib/actions";
+import { ROLES, ROLE_LABELS, type Role } from "@/lib/auth/permissions";
+
+export function MemberControls({ membershipId, role, name }: { membershipId: number; role: Role; name: string }) {
+  const [roleState, roleAction, rolePending] = useActionState(changeRoleAction, initialActionState);
+  const [removeState, removeAction, removePending] = useActionState(removeMemberAction, initialActionState);
+  const message = removeState.message ?? roleState.message;
+  const failed = (removeState.message && !removeState.ok) || (roleState.message && !roleState.ok);
+  return (
+    <div className="flex flex-wrap items-center justify-end gap-2">
+      <form action={roleAction} className="flex items-center gap-2">
+        <input type="hidden" name="membershipId" value={membershipId} />
+        <label className="sr-only" htmlFor={`role-${membershipId}`}>Role of {name}</label>
+        <select id={`role-${membershipId}`} name="role" defaultValue={role} className={`${inputClass} w-36 py-1.5`}>
+          {ROLES.map((r) => (
+            <option key={r} value={r}>{ROLE_LABELS[r]}</option>
+          ))}
+        </select>
+        <Button type="submit" variant="secondary" disabled={rolePending}>Save role</Button>
+      </form>
+      <form
+        action={removeAction}
+        onSubmit={(e) => {
+          if (!window.confirm(`Remove ${name} from the team?`)) e.preventDefault();
+        }}
+      >
+        <input type="hidden" name="membershipId" value={membershipId} />
+        <Button type="submit" variant="danger" disabled={removePending}>Remove</Button>
+      </form>
+      {message && (
+        <p role="status" className={`w-full text-right text-xs ${failed ? "text-flag-700" : "text-moss-700"}`}>{message}</p>
+      )}
+    </div>
+  );
+}

@@ -1,0 +1,17 @@
+"use client";
+
+import { useActionState } from "react";
+import { revokeInvitationAction } from "@/app/(app)/team/actions";
+import { Button } from "@/components/ui/button";
+import { initialActionState } from "@/lib/actions";
+
+export function RevokeInvitationButton({ invitationId }: { invitationId: number }) {
+  const [state, action, pending] = useActionState(revokeInvitationAction, initialActionState);
+  return (
+    <form action={action} className="inline-flex items-center gap-2">
+      <input type="hidden" name="invitationId" value={invitationId} />
+      <Button type="submit" variant="ghost" disabled={pending}>Revoke</Button>
+      {state.message && !state.ok && <span className="text-xs text-flag-700">{state.message}</span>}
+    </form>
+  );
+}

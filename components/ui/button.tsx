@@ -1,0 +1,18 @@
+import type { ButtonHTMLAttributes } from "react";
+
+type Variant = "primary" | "secondary" | "danger" | "ghost";
+
+const styles: Record<Variant, string> = {
+  primary: "bg-ink text-paper hover:bg-ink-soft disabled:bg-ink-muted",
+  secondary: "border border-ink-line bg-white text-ink hover:bg-paper-deep",
+  danger: "border border-flag-600 bg-white text-flag-700 hover:bg-flag-50",
+  ghost: "text-ink-soft hover:bg-paper-deep",
+};
+
+export function buttonClass(variant: Variant = "primary", extra = ""): string {
+  return `inline-flex items-center justify-center gap-2 rounded-md px-3.5 py-2 text-sm font-medium transition-colors disabled:cursor-not-allowed ${styles[variant]} ${extra}`;
+}
+
+export function Button({ variant = "primary", className = "", ...props }: ButtonHTMLAttributes<HTMLButtonElement> & { variant?: Variant }) {
+  return <button className={buttonClass(variant, className)} {...props} />;
+}

@@ -1,0 +1,117 @@
+import { ZodError, type ZodType } from "zod";
+import { env } from "@/lib/env";
+import { AppError } from "@/lib/errors";
+
+export type ErrorBody = { error: { code: string; message: string; details?: unknown } };
+
+export function errorResponse(status: number, code: string, message: string, details?: unknown, headers?: HeadersInit): Response {
+  const body: ErrorBody = { error: details === undefined ? { code, message } : { code, message, details } };
+  return Response.json(body, { status, headers });
+}
+
+export function json(data: unknown, status = 200, headers?: HeadersInit): Response {
+  return Response.json(data, { status, headers });
+}
+
+/** zod issues as `{ path: message }`, the shape forms and API clients both read. */
+export function fieldErrors(error: ZodError): Record<string, string> {
+  const out: Record<string, string> = {};
+  for (const issue of error.issues) {
+    const key = issue.path.join(".") || "_";
+    if (!(key in out)) out[key] = issue.message;
+  }
+  return out;
+}
+
+export function validationError(error: ZodError): AppError {
+  const fields = fieldErrors(error);
+  const [firstKey, firstMessage] = Object.entries(fields)[0] ?? ["_", "Invalid request."];
+  const message = firstKey === "_" ? firstMessage : `${firstKey}: ${firstMessage}`;
+  return new AppError(422, "invalid-request", message, { fields });
+}
+
+/**
+ * Read a JSON body, stopping at the size limit: route handlers have no cap of
+ * their own, and a streamed body may not say its length.
+ */
+export async function readJson<T>(request: Request, schema: ZodType<T>, limitBytes = env.BODY_LIMIT_BYTES): Promise<T> {
+  const type = request.headers.get("content-type") ?? "";
+  if (!/^application\/json\b/i.test(type)) {
+    throw new AppError(415, "unsupported-media-type", "Send the body as application/json.");
+  }
+  const declared = Number(request.headers.get("content-length"));
+  if (Number.isFinite(declared) && declared > limitBytes) throw tooLarge(limitBytes);
+  const text = await readText(request, limitBytes);
+  let data: unknown;
+  try {
+    data = JSON.parse(text);
+  } catch {
+    throw new AppError(400, "malformed-json", "The body is not valid JSON.");
+  }
+  const parsed = schema.safeParse(data);
+  if (!parsed.success) throw validationError(parsed.error);
+  return parsed.data;
+}
+
+const tooLarge = (limit: number) =>
+  new AppError(413, "body-too-large", `The body is larger than the ${Math.round(limit / 1024)} KiB limit.`);
+
+async function readText(request: Request, limitBytes: number): Promise<string> {
+  if (!request.body) return "";
+  const reader = request.body.getReader();
+  const chunks: Uint8Array[] = [];
+  let size = 0;
+  for (;;) {
+    const { done, value } = await reader.read();
+    if (done) break;
+    size += value.byteLength;
+    if (size > limitBytes) {
+      await reader.cancel().catch(() => undefined);
+      throw tooLarge(limitBytes);
+    }
+    chunks.push(value);
+  }
+  try {
+    return new TextDecoder("utf-8", { fatal: true }).decode(Buffer.concat(chunks));
+  } catch {
+    throw new AppError(400, "malformed-json", "The body is not valid UTF-8.");
+  }
+}
+
+/** Parse a query string (or route params) with a schema; 422 on failure. */
+export function parseWith<T>(schema: ZodType<T>, value: unknown): T {
+  const parsed = schema.safeParse(value);
+  if (!parsed.success) throw validationError(parsed.error);
+  return parsed.data;
+}
+
+export function queryObject(request: Request): Record<string, string> {
+  return Object.fromEntries(new URL(request.url).searchParams.entries());
+}
+
+type Refusal = { name: string; code: string; message: string; details?: unknown };
+const isEngineRefusal = (e: unknown): e is Refusal =>
+  e instanceof Error && e.name === "EngineRefusal" && typeof (e as unknown as Refusal).code === "string";
+
+/** Turn any thrown value into the error shape. Unexpected errors say nothing about internals. */
+export function toErrorResponse(error: unknown): Response {
+  if (error instanceof AppError) return errorResponse(error.status, error.code, error.message, error.details);
+  if (isEngineRefusal(error)) return errorResponse(422, error.code, error.message, error.details);
+  if (error instanceof ZodError) {
+    const e = validationError(error);
+    return errorResponse(e.status, e.code, e.message, e.details);
+  }
+  console.error("[heatpath] unexpected error", error instanceof Error ? error.message : String(error));
+  return errorResponse(500, "internal", "Something went wrong on our side; the request was not completed.");
+}
+
+/** Wrap a route handler so that every failure leaves in the error shape. */
+export function route<C = unknown>(handler: (request: Request, context: C) => Promise<Response>) {
+  return async (request: Request, context: C): Promise<Response> => {
+    try {
+      return await handler(request, context);
+    } catch (error) {
+      return toErrorResponse(error);
+    }
+  };
+}

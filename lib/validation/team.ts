@@ -1,0 +1,19 @@
+import { z } from "zod";
+import { ROLES } from "@/lib/auth/permissions";
+import { emailSchema, newPasswordSchema } from "./auth";
+
+export const roleSchema = z.enum(ROLES, { error: "Choose one of: engineer, steward, reviewer, admin." });
+
+export const idParamSchema = z.coerce.number({ error: "Expected a numeric id." }).int().positive("Expected a numeric id.");
+
+export const changeRoleSchema = z.object({ role: roleSchema });
+
+export const inviteSchema = z.object({ email: emailSchema, role: roleSchema });
+export type InviteInput = z.infer<typeof inviteSchema>;
+
+export const acceptInvitationSchema = z.object({
+  token: z.string().min(20, "This invitation link is incomplete.").max(200, "This invitation link is malformed."),
+  name: z.string({ error: "Enter your name." }).trim().min(1, "Enter your name.").max(120, "Use at most 120 characters."),
+  password: newPasswordSchema,
+});
+export type AcceptInvitationInput = z.infer<typeof acceptInvitationSchema>;

@@ -1,0 +1,3 @@
+const config = { plugins: { tailwindcss: {}, autoprefixer: {} } };
+
+export default config;

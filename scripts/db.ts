@@ -1,0 +1,56 @@
+/**
+ * Database chores: `tsx scripts/db.ts migrate|rollback|seed|reset|check-production`.
+ * The same migrations and seeders the tests use.
+ */
+import { closeDb, registry } from "@/lib/db";
+import { env, isProduction, productionConfigProblems } from "@/lib/env";
+import { migrateDownAll, migrator } from "@/lib/migrate";
+import { runSeeders } from "@/seeders";
+
+async function main(command: string | undefined) {
+  const { sequelize, models } = registry();
+  switch (command) {
+    case "migrate": {
+      const done = await migrator(sequelize).up();
+      console.log(done.length ? `migrated: ${done.map((m) => m.name).join(", ")}` : "migrations: up to date");
+      break;
+    }
+    case "rollback": {
+      const undone = await migrator(sequelize).down();
+      console.log(undone.length ? `rolled back: ${undone.map((m) => m.name).join(", ")}` : "nothing to roll back");
+      break;
+    }
+    case "seed": {
+      const ran = await runSeeders({ sequelize, models }, { demo: !isProduction });
+      console.log(`seeded: ${ran.join(", ") || "nothing"}${isProduction ? " (production mode: no demo data)" : ""}`);
+      break;
+    }
+    case "reset": {
+      if (isProduction) throw new Error("db:reset is refused in production mode.");
+      await migrateDownAll(sequelize);
+      await migrator(sequelize).up();
+      const ran = await runSeeders({ sequelize, models }, { demo: true });
+      console.log(`reset ${env.DATABASE_PATH}; seeded: ${ran.join(", ")}`);
+      break;
+    }
+    case "check-production": {
+      const problems = productionConfigProblems();
+      if (isProduction) {
+        const demo = await models.User.count({ where: { isDemo: true } });
+        if (demo > 0) problems.push(`${demo} demo account(s) are present; remove them before running in production mode`);
+      }
+      if (problems.length) throw new Error(`Production mode refused: ${problems.join("; ")}.`);
+      break;
+    }
+    default:
+      throw new Error("usage: tsx scripts/db.ts migrate|rollback|seed|reset|check-production");
+  }
+}
+
+main(process.argv[2])
+  .then(() => closeDb())
+  .catch(async (error: unknown) => {
+    console.error(error instanceof Error ? error.message : String(error));
+    await closeDb().catch(() => undefined);
+    process.exit(1);
+  });

@@ -1,0 +1,15 @@
+import crypto from "node:crypto";
+import os from "node:os";
+import path from "node:path";
+import { vi } from "vitest";
+import { cookieJar } from "./helpers/cookies";
+
+// Each test file gets its own SQLite file, set before lib/env is first imported.
+process.env.DATABASE_PATH ??= path.join(os.tmpdir(), `heatpath-test-${process.pid}-${crypto.randomBytes(4).toString("hex")}.sqlite`);
+process.env.HEATPATH_MODE ??= "demo";
+
+// Route handlers and services read the session through next/headers; tests give them a cookie jar.
+vi.mock("next/headers", () => ({
+  cookies: async () => cookieJar,
+  headers: async () => new Headers(),
+}));

@@ -1,0 +1,2 @@
+// vitest runs outside the react-server condition; the real package would throw.
+export {};
