@@ -7,7 +7,7 @@ import { refuse } from "./errors";
 import { checkBalance, parseReaction } from "./formula";
 import { parseTemperatureGrid } from "./grid";
 import { brent } from "./roots";
-import { describeIssue, evaluateRequestSchema } from "./schema";
+import { describeIssue, evaluateRequestSchema, missingIsRequired } from "./schema";
 import {
   buildSpeciesModel,
   fmt,
@@ -85,7 +85,7 @@ function reactionAt(terms: Term[], T: number): { dCp: number; dH: number; dS: nu
  * J/(mol·K) for S and Cp, K for temperatures.
  */
 export function evaluate(request: unknown): EvaluateResult {
-  const parsed = evaluateRequestSchema.safeParse(request);
+  const parsed = evaluateRequestSchema.safeParse(request, { error: missingIsRequired });
   if (!parsed.success) {
     const issue = parsed.error.issues[0];
     refuse("invalid-request", `invalid request: ${describeIssue(issue)}`, {

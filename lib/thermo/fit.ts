@@ -6,7 +6,7 @@
 import numeric from "numeric";
 import { R, T298 } from "./constants";
 import { refuse } from "./errors";
-import { describeIssue, fitRequestSchema, type FitRequest, type SegmentInput } from "./schema";
+import { describeIssue, fitRequestSchema, missingIsRequired, type FitRequest, type SegmentInput } from "./schema";
 
 export interface FitResult {
   form: "shomate" | "nasa7" | "maier-kelley" | "power";
@@ -60,7 +60,7 @@ function basisFor(form: FitResult["form"], exponents: number[] | undefined): Bas
  * non-finite values, temperatures at or below 0 K.
  */
 export function fitCp(request: FitRequest): FitResult {
-  const parsed = fitRequestSchema.safeParse(request);
+  const parsed = fitRequestSchema.safeParse(request, { error: missingIsRequired });
   if (!parsed.success) refuse("invalid-request", `invalid fit request: ${describeIssue(parsed.error.issues[0])}`);
   const req = parsed.data!;
   const basis = basisFor(req.form, req.exponents);

@@ -7,7 +7,7 @@ import { z } from "zod";
 
 /** A number in the unit its field name carries (…K kelvin, …kJ kJ/mol, …J J/(mol·K)), or a string with a unit. */
 export const quantitySchema = z.union([z.number(), z.string().trim().min(1)], {
-  error: "expected a number or a string with a unit",
+  error: (issue) => (issue.input === undefined ? "required" : "expected a number or a string with a unit"),
 });
 
 /** `cr`, `l`, `g` or a named solid form `cr-name`. */
@@ -99,7 +99,7 @@ export const temperaturesSchema = z.union(
     z.object({ fromK: quantitySchema, toK: quantitySchema, stepK: quantitySchema }),
     z.object({ listK: z.array(quantitySchema).min(1, { error: "expected at least one temperature" }) }),
   ],
-  { error: "expected {fromK, toK, stepK} or {listK: [...]}" },
+  { error: (issue) => (issue.input === undefined ? "required" : "expected {fromK, toK, stepK} or {listK: [...]}") },
 );
 
 export const evaluateRequestSchema = z.object({
@@ -136,6 +136,10 @@ export const fitRequestSchema = z.object({
   reference: z.object({ tK: z.number().positive().optional(), hkJ: z.number(), sJ: z.number() }).optional(),
 });
 export type FitRequest = z.input<typeof fitRequestSchema>;
+
+/** Per-parse error map: a missing field says so plainly. */
+export const missingIsRequired = (issue: { code?: string; input?: unknown }): string | undefined =>
+  issue.code === "invalid_type" && issue.input === undefined ? "required" : undefined;
 
 /** One-line description of the first problem zod found, naming the field path. */
 export function describeIssue(issue: { path: PropertyKey[]; message: string }): string {

@@ -7,7 +7,7 @@ import { refuse } from "./errors";
 import { compileSegment, type CompiledSegment } from "./forms";
 import { integrateCp, quad } from "./integrate";
 import { brent } from "./roots";
-import { formatPath, speciesSchema, type ParsedSpecies, type SpeciesInput } from "./schema";
+import { formatPath, missingIsRequired, speciesSchema, type ParsedSpecies, type SpeciesInput } from "./schema";
 import { parseMolarEnergyKJ, parseMolarEntropyJ, parseTemperatureK } from "./units";
 import { EngineRefusal } from "./errors";
 
@@ -182,9 +182,9 @@ export function covers(chain: Chain, T: number): boolean {
  * Compile and anchor a species entry. Refuses (EngineRefusal) a gap or overlap in a chain,
  * a phase without an anchor, and malformed references or transitions.
  */
-export function buildSpeciesModel(key: string, entry: ParsedSpecies, referenceK: number): SpeciesModel {
+export function buildSpeciesModel(key: string, entry: ParsedSpecies, referenceK: number, fieldPrefix?: string): SpeciesModel {
   const label = `species "${key}"`;
-  const field = (rest: string) => `${formatPath(["species", key])}${rest}`;
+  const field = (rest: string) => `${fieldPrefix ?? formatPath(["species", key])}${rest}`;
   const warnings: EngineWarning[] = [];
   const p0 = entry.standardPressurePa ?? STANDARD_PRESSURE_PA;
   // S°(1 bar) = S°(p0) + R ln(p0 / 1 bar) for an ideal gas; condensed phases are left alone.
@@ -640,7 +640,7 @@ export function speciesProperties(
   temperaturesK: number[],
   options: { phase?: string; referenceK?: number; key?: string } = {},
 ): { rows: SpeciesRow[]; warnings: EngineWarning[] } {
-  const parsed = speciesSchema.safeParse(species);
+  const parsed = speciesSchema.safeParse(species, { error: missingIsRequired });
   if (!parsed.success) {
     const issue = parsed.error.issues[0];
     refuse("invalid-request", `${formatPath(["species", ...issue.path])}: ${issue.message}`, { issues: parsed.error.issues });
@@ -650,7 +650,7 @@ export function speciesProperties(
     if (!(t > 0) || !Number.isFinite(t)) refuse("nonpositive-temperature", `temperaturesK: temperatures must be finite and above 0 K (got ${t} K)`);
   }
   const key = options.key ?? "species";
-  const model = buildSpeciesModel(key, parsed.data!, referenceK);
+  const model = buildSpeciesModel(key, parsed.data!, referenceK, "species");
   const order = temperaturesK.map((t, i) => i).sort((a, b) => temperaturesK[a] - temperaturesK[b]);
   const T = Float64Array.from(order, (i) => temperaturesK[i]);
   const grid = termOnGrid(model, options.phase, T, options.phase !== undefined);
