@@ -1,7 +1,8 @@
 /**
  * Weighted linear least squares of measured Cp points to a Cp form (server side: pulls in
  * numeric). The design matrix is built on the scaled variable u = T/Ts (Ts the geometric
- * mean of the temperature range), its columns equilibrated, and solved by SVD.
+ * mean of the temperature range), its columns equilibrated, reduced by Householder QR and
+ * solved through numeric's SVD of the small triangular factor.
  */
 import numeric from "numeric";
 import { R, T298 } from "./constants";
@@ -36,6 +37,35 @@ interface Basis {
   t0: number;
   mult: number;
   names: string[];
+}
+
+/** In-place Householder QR of the column-major n×p matrix A; applies Qᵀ to b. R ends up in A's upper triangle. */
+function householderQR(A: Float64Array, b: Float64Array, n: number, p: number): void {
+  for (let k = 0; k < p; k++) {
+    const col = k * n;
+    let norm = 0;
+    for (let i = k; i < n; i++) norm += A[col + i] * A[col + i];
+    norm = Math.sqrt(norm);
+    if (norm === 0) continue;
+    const alpha = A[col + k] > 0 ? -norm : norm;
+    A[col + k] -= alpha;
+    let vv = 0;
+    for (let i = k; i < n; i++) vv += A[col + i] * A[col + i];
+    // Reflect the remaining columns and b with v = A[k.., k].
+    for (let j = k + 1; j < p; j++) {
+      const cj = j * n;
+      let dot = 0;
+      for (let i = k; i < n; i++) dot += A[col + i] * A[cj + i];
+      const f = (2 * dot) / vv;
+      for (let i = k; i < n; i++) A[cj + i] -= f * A[col + i];
+    }
+    let dot = 0;
+    for (let i = k; i < n; i++) dot += A[col + i] * b[i];
+    const f = (2 * dot) / vv;
+    for (let i = k; i < n; i++) b[i] -= f * A[col + i];
+    A[col + k] = alpha;
+    for (let i = k + 1; i < n; i++) A[col + i] = 0;
+  }
 }
 
 function basisFor(form: FitResult["form"], exponents: number[] | undefined): Basis {
@@ -97,33 +127,37 @@ export function fitCp(request: FitRequest): FitResult {
     if (pt.tK > tmax) tmax = pt.tK;
   }
   const ts = Math.sqrt(tmin * tmax);
-  const A: number[][] = new Array(n);
-  const b: number[] = new Array(n);
+  // Column-major design matrix (weighted, on u = T/ts), then column equilibration.
+  const A = new Float64Array(n * p);
+  const b = new Float64Array(n);
   const norms = new Float64Array(p);
   for (let i = 0; i < n; i++) {
     const u = pts[i].tK / ts;
     const w = pts[i].sigmaJ === undefined ? 1 : 1 / pts[i].sigmaJ!;
-    const row = new Array<number>(p);
     for (let j = 0; j < p; j++) {
-      row[j] = w * u ** basis.k[j];
-      norms[j] += row[j] * row[j];
+      const v = w * u ** basis.k[j];
+      A[j * n + i] = v;
+      norms[j] += v * v;
     }
-    A[i] = row;
     b[i] = w * pts[i].cpJ;
   }
-  for (let j = 0; j < p; j++) norms[j] = Math.sqrt(norms[j]);
-  for (let i = 0; i < n; i++) for (let j = 0; j < p; j++) A[i][j] /= norms[j];
-
-  const { U, S, V } = numeric.svd(A);
+  for (let j = 0; j < p; j++) {
+    norms[j] = Math.sqrt(norms[j]);
+    for (let i = 0; i < n; i++) A[j * n + i] /= norms[j];
+  }
+  // Householder QR reduces the n×p problem to p×p (R x = Qᵀb); numeric's SVD of R then
+  // gives the singular values of the design matrix and the solution x = V Σ⁻¹ Uᵀ Qᵀb.
+  householderQR(A, b, n, p);
+  const Rm: number[][] = Array.from({ length: p }, (_, i) => Array.from({ length: p }, (_, j) => (j >= i ? A[j * n + i] : 0)));
+  const { U, S, V } = numeric.svd(Rm);
   const smax = Math.max(...S);
   const smin = Math.min(...S);
   const conditionNumber = smax / smin;
   if (!(smin > smax * 1e-13)) {
     refuse("fit-singular", `fit: the ${req.form} coefficients cannot be separated by these points (condition number ${conditionNumber.toExponential(2)})`);
   }
-  // x = V Σ⁻¹ Uᵀ b, then undo the column equilibration and the scaling of T.
   const utb = new Float64Array(p);
-  for (let i = 0; i < n; i++) for (let j = 0; j < p; j++) utb[j] += U[i][j] * b[i];
+  for (let i = 0; i < p; i++) for (let j = 0; j < p; j++) utb[j] += U[i][j] * b[i];
   const coefficients: Record<string, number> = {};
   const c = new Float64Array(p);
   for (let j = 0; j < p; j++) {
