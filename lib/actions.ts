@@ -3,15 +3,31 @@ import { AppError } from "@/lib/errors";
 import { fieldErrors } from "@/lib/http";
 
 /** What every server action returns to useActionState. */
-export type ActionState<T = undefined> = { ok: boolean; message?: string; fieldErrors?: Record<string, string>; data?: T };
+export type ActionState<T = undefined> = {
+  ok: boolean;
+  message?: string;
+  fieldErrors?: Record<string, string>;
+  /** What was typed, so a refused form shows it again (React resets forms after an action). Never passwords. */
+  values?: Record<string, string>;
+  data?: T;
+};
 
 export const initialActionState: ActionState = { ok: false };
 
 /** Expected failures become a message for the form; anything else is rethrown to the error page. */
-export function actionFailure(error: unknown): ActionState<never> {
-  if (error instanceof AppError) return { ok: false, message: error.message, fieldErrors: (error.details as { fields?: Record<string, string> })?.fields };
-  if (error instanceof ZodError) return { ok: false, message: "Some fields need attention.", fieldErrors: fieldErrors(error) };
+export function actionFailure(error: unknown, values?: Record<string, string>): ActionState<never> {
+  const kept = values ? keepable(values) : undefined;
+  if (error instanceof AppError) {
+    const fields = (error.details as { fields?: Record<string, string> } | undefined)?.fields;
+    // A form shows validation failures beside their fields, not again in a banner.
+    return fields ? { ok: false, fieldErrors: fields, values: kept } : { ok: false, message: error.message, values: kept };
+  }
+  if (error instanceof ZodError) return { ok: false, fieldErrors: fieldErrors(error), values: kept };
   throw error;
+}
+
+function keepable(values: Record<string, string>): Record<string, string> {
+  return Object.fromEntries(Object.entries(values).filter(([k]) => !/password|token/i.test(k)));
 }
 
 export function formObject(formData: FormData): Record<string, string> {

@@ -66,7 +66,7 @@ export function createSequelize(options: { storage?: string; url?: string } = {}
   if (url) {
     return new Sequelize(url, { logging, define: { underscored: true } });
   }
-  const storage = path.resolve(options.storage ?? env.DATABASE_PATH);
+  const storage = path.resolve(/*turbopackIgnore: true*/ options.storage ?? env.DATABASE_PATH);
   const sequelize = new Sequelize({
     dialect: "sqlite",
     storage,

@@ -15,7 +15,7 @@ export function AcceptInvitationForm({ token, email }: { token: string; email: s
         <TextInput name="email-shown" value={email} readOnly disabled />
       </Field>
       <Field label="Your name" name="name" error={state.fieldErrors?.name}>
-        <TextInput name="name" autoComplete="name" error={state.fieldErrors?.name} />
+        <TextInput name="name" autoComplete="name" defaultValue={state.values?.name} error={state.fieldErrors?.name} />
       </Field>
       <Field label="Choose a password" name="password" error={state.fieldErrors?.password} hint="At least 10 characters, with a digit or symbol.">
         <TextInput name="password" type="password" autoComplete="new-password" error={state.fieldErrors?.password} />

@@ -12,7 +12,7 @@ export function SignInForm({ next }: { next?: string }) {
     <form action={action} className="space-y-4" noValidate>
       {next && <input type="hidden" name="next" value={next} />}
       <Field label="E-mail" name="email" error={state.fieldErrors?.email}>
-        <TextInput name="email" type="email" autoComplete="username" required error={state.fieldErrors?.email} />
+        <TextInput name="email" type="email" autoComplete="username" required defaultValue={state.values?.email} error={state.fieldErrors?.email} />
       </Field>
       <Field label="Password" name="password" error={state.fieldErrors?.password}>
         <TextInput name="password" type="password" autoComplete="current-password" required error={state.fieldErrors?.password} />

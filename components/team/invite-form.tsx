@@ -15,10 +15,10 @@ export function InviteForm() {
     <div className="space-y-4">
       <form action={action} className="grid gap-3 sm:grid-cols-[1fr_12rem_auto] sm:items-end" noValidate>
         <Field label="E-mail address" name="email" error={state.fieldErrors?.email}>
-          <TextInput name="email" type="email" placeholder="name@example.test" error={state.fieldErrors?.email} />
+          <TextInput name="email" type="email" placeholder="name@example.test" defaultValue={state.ok ? "" : state.values?.email} error={state.fieldErrors?.email} />
         </Field>
         <Field label="Role" name="role" error={state.fieldErrors?.role}>
-          <Select name="role" defaultValue="engineer">
+          <Select name="role" defaultValue={state.values?.role ?? "engineer"} key={state.values?.role ?? "engineer"}>
             {ROLES.map((r) => (
               <option key={r} value={r}>{ROLE_LABELS[r]}</option>
             ))}

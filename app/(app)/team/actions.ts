@@ -32,13 +32,14 @@ export async function removeMemberAction(_prev: ActionState, formData: FormData)
 }
 
 export async function inviteAction(_prev: ActionState<{ link: string; email: string }>, formData: FormData): Promise<ActionState<{ link: string; email: string }>> {
+  const raw = formObject(formData);
   try {
-    const input = parseWith(inviteSchema, formObject(formData));
+    const input = parseWith(inviteSchema, raw);
     const created = await team.invite(await getActor(), input);
     revalidatePath("/team");
     return { ok: true, message: `Invitation created for ${created.invitation.email}.`, data: { link: created.link, email: created.invitation.email } };
   } catch (error) {
-    return actionFailure(error);
+    return actionFailure(error, raw);
   }
 }
 

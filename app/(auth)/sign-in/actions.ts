@@ -15,12 +15,12 @@ function safeNext(value: string | undefined): string {
 export async function signInAction(_prev: ActionState, formData: FormData): Promise<ActionState> {
   const input = formObject(formData);
   const parsed = signInSchema.safeParse(input);
-  if (!parsed.success) return { ok: false, fieldErrors: fieldErrors(parsed.error) };
+  if (!parsed.success) return { ok: false, fieldErrors: fieldErrors(parsed.error), values: { email: input.email ?? "" } };
   try {
     const { userId, teamId } = await authenticate(parsed.data);
     await startSession(userId, teamId);
   } catch (error) {
-    return actionFailure(error);
+    return actionFailure(error, { email: input.email ?? "" });
   }
   redirect(safeNext(input.next));
 }

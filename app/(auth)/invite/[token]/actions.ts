@@ -8,12 +8,13 @@ import { acceptInvitation } from "@/lib/services/team";
 import { acceptInvitationSchema } from "@/lib/validation/team";
 
 export async function acceptInvitationAction(_prev: ActionState, formData: FormData): Promise<ActionState> {
+  const raw = formObject(formData);
   try {
-    const input = parseWith(acceptInvitationSchema, formObject(formData));
+    const input = parseWith(acceptInvitationSchema, raw);
     const { userId, teamId } = await acceptInvitation(input);
     await startSession(userId, teamId);
   } catch (error) {
-    return actionFailure(error);
+    return actionFailure(error, raw);
   }
   redirect("/");
 }
