@@ -1,5 +1,9 @@
 import type { Sequelize } from "sequelize";
 import { AuditEvent } from "./audit-event";
+import { CpModel } from "./cp-model";
+import { Dataset } from "./dataset";
+import { ModelVersion } from "./model-version";
+import { Species } from "./species";
 import { Invitation } from "./invitation";
 import { Membership } from "./membership";
 import { Team } from "./team";
@@ -12,6 +16,10 @@ export function defineModels(sequelize: Sequelize) {
   Membership.initModel(sequelize);
   Invitation.initModel(sequelize);
   AuditEvent.initModel(sequelize);
+  Species.initModel(sequelize);
+  CpModel.initModel(sequelize);
+  Dataset.initModel(sequelize);
+  ModelVersion.initModel(sequelize);
 
   Team.hasMany(Membership, { foreignKey: "teamId", as: "memberships" });
   Membership.belongsTo(Team, { foreignKey: "teamId", as: "team" });
@@ -20,8 +28,15 @@ export function defineModels(sequelize: Sequelize) {
   Invitation.belongsTo(Team, { foreignKey: "teamId", as: "team" });
   Invitation.belongsTo(User, { foreignKey: "invitedById", as: "invitedBy" });
 
-  return { User, Team, Membership, Invitation, AuditEvent };
+  Species.hasMany(CpModel, { foreignKey: "speciesId", as: "models" });
+  CpModel.belongsTo(Species, { foreignKey: "speciesId", as: "species" });
+  CpModel.hasMany(ModelVersion, { foreignKey: "modelId", as: "versions" });
+  ModelVersion.belongsTo(CpModel, { foreignKey: "modelId", as: "model" });
+  ModelVersion.belongsTo(Dataset, { foreignKey: "datasetId", as: "dataset" });
+  Dataset.belongsTo(Species, { foreignKey: "speciesId", as: "species" });
+
+  return { User, Team, Membership, Invitation, AuditEvent, Species, CpModel, Dataset, ModelVersion };
 }
 
 export type Models = ReturnType<typeof defineModels>;
-export type { AuditEvent, Invitation, Membership, Team, User };
+export type { AuditEvent, CpModel, Dataset, Invitation, Membership, ModelVersion, Species, Team, User };

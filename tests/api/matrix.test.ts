@@ -162,7 +162,7 @@ describe.each(ROUTES)("$method $file ($name)", (row) => {
     await signInAs(who);
     const request = jsonRequest(row.method, `/api/v1/${row.file}`, prepared.body);
     const response = await row.handler(request, ctx(prepared.params ?? {}));
-    expect(response.status).toBe(row.expect[who]);
+    expect(response.status).toBe(row.expect[who as keyof Expect]);
     if (response.status >= 400) {
       expect(await bodyOf(response)).toEqual({ error: { code: expect.any(String), message: expect.any(String) } });
     }

@@ -66,3 +66,48 @@ describe("SQLite connections", () => {
     await expect(models.Membership.create({ teamId: 99999, userId: 99999, role: "engineer" })).rejects.toThrow(/FOREIGN KEY/);
   });
 });
+
+describe("model version immutability in the database", () => {
+  async function version(status: string) {
+    const { models } = registry();
+    const species = await models.Species.create({ teamId: null, formula: "N2", displayName: "Nitrogen", elements: { N: 2 }, molarMassGPerMol: 28.0134, identifiers: null });
+    const model = await models.CpModel.create({ speciesId: species.id, teamId: null, name: "N2, constant", family: "test", copiedFromId: null, createdById: null });
+    return models.ModelVersion.create({
+      modelId: model.id,
+      teamId: null,
+      versionNumber: 1,
+      status: status as "approved",
+      data: { segments: [{ phase: "g", form: "constant", tminK: 200, tmaxK: 1000, coeffs: { cpJ: 29.1 } }] },
+      citation: "test",
+      uncertainty: null,
+      changeNote: null,
+      decisionReason: null,
+      datasetId: null,
+      authorId: null,
+      decidedById: null,
+      proposedAt: null,
+      decidedAt: null,
+    });
+  }
+
+  // Sequelize reports RAISE(ABORT) as a constraint error; the trigger's words are on the driver's error.
+  const refusal = (pattern: RegExp) => (e: unknown) => pattern.test(String((e as { parent?: Error }).parent?.message ?? e));
+
+  it("refuses any change to an approved version but approved → superseded", async () => {
+    const { sequelize } = registry();
+    const v = await version("approved");
+    await expect(sequelize.query(`UPDATE model_versions SET citation = 'changed' WHERE id = ${v.id}`)).rejects.toSatisfy(refusal(/immutable/));
+    await expect(sequelize.query(`UPDATE model_versions SET status = 'draft' WHERE id = ${v.id}`)).rejects.toSatisfy(refusal(/immutable/));
+    await expect(sequelize.query(`UPDATE model_versions SET status = 'superseded', citation = 'sneaky' WHERE id = ${v.id}`)).rejects.toSatisfy(refusal(/immutable/));
+    await expect(sequelize.query(`DELETE FROM model_versions WHERE id = ${v.id}`)).rejects.toSatisfy(refusal(/cannot be deleted/));
+    await sequelize.query(`UPDATE model_versions SET status = 'superseded', updated_at = CURRENT_TIMESTAMP WHERE id = ${v.id}`);
+    await expect(sequelize.query(`UPDATE model_versions SET status = 'approved' WHERE id = ${v.id}`)).rejects.toSatisfy(refusal(/immutable/));
+  });
+
+  it("lets a draft change freely", async () => {
+    const { sequelize } = registry();
+    const v = await version("draft");
+    await sequelize.query(`UPDATE model_versions SET citation = 'edited', lock_version = lock_version + 1 WHERE id = ${v.id}`);
+    await sequelize.query(`DELETE FROM model_versions WHERE id = ${v.id}`);
+  });
+});
