@@ -1,0 +1,21 @@
+import type { Who } from "../../helpers/actors";
+
+export type Handler = (request: Request, context: { params: Promise<Record<string, string>> }) => Promise<Response>;
+/** Expected status for each caller; `other` is a member (admin) of another team. */
+export type Expect = Record<Exclude<Who, "steward2">, number>;
+
+/** One route handler × method, with what each caller must get. */
+export type Row = {
+  name: string;
+  /** Path under app/api/v1, as the folder is named: `team/members/[id]`. */
+  file: string;
+  method: "GET" | "POST" | "PUT" | "PATCH" | "DELETE";
+  handler: Handler;
+  /** Fresh params and body for each call, since some calls consume records. Runs before signing in. */
+  prepare?: () => Promise<{ params?: Record<string, string>; body?: unknown; headers?: Record<string, string> }>;
+  expect: Expect;
+};
+
+export const allowAll = (status: number): Expect => ({ anonymous: 401, engineer: status, steward: status, reviewer: status, admin: status, other: status });
+export const adminOnly = (status: number, other = 404): Expect => ({ anonymous: 401, engineer: 403, steward: 403, reviewer: 403, admin: status, other });
+export const everyoneGets = (status: number): Expect => ({ anonymous: status, engineer: status, steward: status, reviewer: status, admin: status, other: status });
