@@ -3,11 +3,17 @@
  * forms that publish integration constants (shomate, nasa7, nasa9) also give H and S from
  * those constants, which the engine uses only to anchor a segment at one temperature.
  * To add a form: extend `segmentSchema` in schema.ts, add a case here, and (if it carries
- * constants) a `constants` pair — the integrator needs nothing else.
+ * constants) a `constants` pair; `cpBatch` is optional (a loop over `cp` is the default) —
+ * the integrator needs nothing else.
  */
-import { R } from "./constants";
+import { R as GAS_CONSTANT } from "./constants";
+
+// A module-local copy: an imported binding is read through an accessor in some transpiled
+// builds, which costs more than the polynomial itself in the integrator's inner loop.
+const R = GAS_CONSTANT + 0;
 import { refuse } from "./errors";
 import { compileCpExpression } from "./expression";
+import { batchOf, type CpBatch } from "./integrate";
 import type { CpForm, ParsedSegment } from "./schema";
 import { makeTableInterpolant } from "./table";
 import { parseMolarEntropyJ, parseTemperatureK } from "./units";
@@ -19,6 +25,8 @@ export interface CompiledSegment {
   tmaxK: number;
   /** Cp in J/(mol·K). */
   cp: (tK: number) => number;
+  /** Cp at many temperatures in one call (the integrator's batch path); same values as `cp`. */
+  cpBatch: CpBatch;
   /** Temperatures inside the range where Cp has a kink (table points): integration break points. */
   breaks?: Float64Array;
   /** H (J/mol, formation basis) and S (J/(mol·K), at the source's standard pressure) from the published constants. */
@@ -29,6 +37,11 @@ export const FORMS_WITH_CONSTANTS: ReadonlySet<CpForm> = new Set(["shomate", "na
 
 /** Compile one validated segment; `label` names it in messages (e.g. `species "CO(g)" segment 1`). */
 export function compileSegment(seg: ParsedSegment, label: string): CompiledSegment {
+  const compiled = compileForm(seg, label);
+  return { ...compiled, cpBatch: compiled.cpBatch ?? batchOf(compiled.cp) };
+}
+
+function compileForm(seg: ParsedSegment, label: string): Omit<CompiledSegment, "cpBatch"> & { cpBatch?: CpBatch } {
   const tminK = parseTemperatureK(seg.tminK, `${label}.tminK`);
   const tmaxK = parseTemperatureK(seg.tmaxK, `${label}.tmaxK`);
   if (!(tminK > 0)) refuse("nonpositive-temperature", `${label}.tminK: temperatures must be above 0 K (got ${tminK} K)`);
@@ -37,7 +50,13 @@ export function compileSegment(seg: ParsedSegment, label: string): CompiledSegme
   switch (seg.form) {
     case "constant": {
       const c = parseMolarEntropyJ(seg.coeffs.cpJ, `${label}.coeffs.cpJ`);
-      return { ...base, cp: () => c };
+      return {
+        ...base,
+        cp: () => c,
+        cpBatch: (_x, f, n) => {
+          for (let i = 0; i < n; i++) f[i] = c;
+        },
+      };
     }
     case "shomate": {
       const { A, B, C, D, E, F, G } = seg.coeffs;
@@ -46,6 +65,12 @@ export function compileSegment(seg: ParsedSegment, label: string): CompiledSegme
         cp: (T) => {
           const t = T * 1e-3;
           return A + t * (B + t * (C + t * D)) + E / (t * t);
+        },
+        cpBatch: (x, f, n) => {
+          for (let i = 0; i < n; i++) {
+            const t = x[i] * 1e-3;
+            f[i] = A + t * (B + t * (C + t * D)) + E / (t * t);
+          }
         },
         constants: {
           // H on the formation basis: (H − H298) + H = A t + B t²/2 + C t³/3 + D t⁴/4 − E/t + F  [kJ/mol]
@@ -65,6 +90,12 @@ export function compileSegment(seg: ParsedSegment, label: string): CompiledSegme
       return {
         ...base,
         cp: (T) => R * (a1 + T * (a2 + T * (a3 + T * (a4 + T * a5)))),
+        cpBatch: (x, f, n) => {
+          for (let i = 0; i < n; i++) {
+            const T = x[i];
+            f[i] = R * (a1 + T * (a2 + T * (a3 + T * (a4 + T * a5))));
+          }
+        },
         constants: {
           hJ: (T) => R * (T * (a1 + T * (a2 / 2 + T * (a3 / 3 + T * (a4 / 4 + T * (a5 / 5))))) + a6),
           sJ: (T) => R * (a1 * Math.log(T) + T * (a2 + T * (a3 / 2 + T * (a4 / 3 + T * (a5 / 4)))) + a7),
@@ -76,6 +107,12 @@ export function compileSegment(seg: ParsedSegment, label: string): CompiledSegme
       return {
         ...base,
         cp: (T) => R * (a1 / (T * T) + a2 / T + a3 + T * (a4 + T * (a5 + T * (a6 + T * a7)))),
+        cpBatch: (x, f, n) => {
+          for (let i = 0; i < n; i++) {
+            const T = x[i];
+            f[i] = R * (a1 / (T * T) + a2 / T + a3 + T * (a4 + T * (a5 + T * (a6 + T * a7))));
+          }
+        },
         constants: {
           hJ: (T) =>
             R * (-a1 / T + a2 * Math.log(T) + T * (a3 + T * (a4 / 2 + T * (a5 / 3 + T * (a6 / 4 + T * (a7 / 5))))) + b1),
@@ -86,7 +123,16 @@ export function compileSegment(seg: ParsedSegment, label: string): CompiledSegme
     }
     case "maier-kelley": {
       const { a, b, c } = seg.coeffs;
-      return { ...base, cp: (T) => a + b * T + c / (T * T) };
+      return {
+        ...base,
+        cp: (T) => a + b * T + c / (T * T),
+        cpBatch: (x, f, n) => {
+          for (let i = 0; i < n; i++) {
+            const T = x[i];
+            f[i] = a + b * T + c / (T * T);
+          }
+        },
+      };
     }
     case "power": {
       const ks = Int32Array.from(seg.coeffs.terms.map((t) => t.k));

@@ -1,6 +1,7 @@
 /**
- * Adaptive Gauss–Kronrod (G7/K15) quadrature of Cp dT and Cp/T dT together: both
- * integrals share the same Cp evaluations. Results are left in `quad.h` and `quad.s`
+ * Adaptive Gauss–Kronrod quadrature of Cp dT and Cp/T dT together: both integrals share
+ * the same Cp evaluations. Single intervals use adaptive G7/K15; a pass along a grid uses
+ * a batched G3/K7 rule per interval with the same error check, falling back to G7/K15. Results are left in `quad.h` and `quad.s`
  * (J/mol and J/(mol·K)) to avoid an allocation per grid interval.
  */
 
@@ -118,4 +119,97 @@ export function integrateCp(cp: CpFunction, a: number, b: number): boolean {
   quad.h = h;
   quad.s = s;
   return ok;
+}
+
+export interface CpBatch {
+  /** f[i] = Cp(x[i]) for i < n. */
+  (x: Float64Array, f: Float64Array, n: number): void;
+}
+
+// Kronrod 7-point extension of the 3-point Gauss rule (abscissae and weights on [−1, 1]).
+const X7 = new Float64Array([0.9604912687080202834235071, 0.7745966692414833770358531, 0.4342437493468025580020715]);
+const W7 = new Float64Array([0.1046562260264672651938239, 0.2684880898683334407285692, 0.4013974147759622229050518]);
+const W7_CENTER = 0.4509165386584741423451498;
+const W3 = 5 / 9; // Gauss 3-point weight at ±X7[1]
+const W3_CENTER = 8 / 9;
+
+let scratchX = new Float64Array(0);
+let scratchF = new Float64Array(0);
+
+/**
+ * ∫ Cp dT and ∫ Cp/T dT over many intervals [a[k], b[k]] (a[k] ≤ b[k]) at once, for a
+ * cumulative pass along a grid. First pass: the 7 Kronrod (G3/K7) nodes of every interval
+ * are evaluated in one batch call; each interval whose K7 − G3 difference is above the
+ * tolerance (for either integral) is redone by the adaptive G7/K15 routine. Results go to
+ * outH[k], outS[k].
+ */
+export function integrateIntervals(
+  cpBatch: CpBatch,
+  cp: CpFunction,
+  a: Float64Array,
+  b: Float64Array,
+  m: number,
+  outH: Float64Array,
+  outS: Float64Array,
+): void {
+  const need = 7 * m;
+  if (scratchX.length < need) {
+    scratchX = new Float64Array(need);
+    scratchF = new Float64Array(need);
+  }
+  const X = scratchX;
+  const F = scratchF;
+  for (let k = 0; k < m; k++) {
+    const c = 0.5 * (a[k] + b[k]);
+    const half = 0.5 * (b[k] - a[k]);
+    const o = 7 * k;
+    X[o] = c;
+    for (let j = 0; j < 3; j++) {
+      const dx = half * X7[j];
+      X[o + 1 + 2 * j] = c - dx;
+      X[o + 2 + 2 * j] = c + dx;
+    }
+  }
+  cpBatch(X, F, need);
+  quad.evaluations += need;
+  for (let k = 0; k < m; k++) {
+    const half = 0.5 * (b[k] - a[k]);
+    if (half === 0) {
+      outH[k] = 0;
+      outS[k] = 0;
+      continue;
+    }
+    const o = 7 * k;
+    const fc = F[o];
+    const gc = fc / X[o];
+    const f1 = F[o + 1] + F[o + 2];
+    const s1 = F[o + 1] / X[o + 1] + F[o + 2] / X[o + 2];
+    const f2 = F[o + 3] + F[o + 4];
+    const s2 = F[o + 3] / X[o + 3] + F[o + 4] / X[o + 4];
+    const f3 = F[o + 5] + F[o + 6];
+    const s3 = F[o + 5] / X[o + 5] + F[o + 6] / X[o + 6];
+    const kh = W7_CENTER * fc + W7[0] * f1 + W7[1] * f2 + W7[2] * f3;
+    const ks = W7_CENTER * gc + W7[0] * s1 + W7[1] * s2 + W7[2] * s3;
+    const gh = W3_CENTER * fc + W3 * f2;
+    const gs = W3_CENTER * gc + W3 * s2;
+    const h = kh * half;
+    const s = ks * half;
+    const good =
+      Math.abs((kh - gh) * half) <= REL_TOL * Math.abs(h) + 1e-300 && Math.abs((ks - gs) * half) <= REL_TOL * Math.abs(s) + 1e-300;
+    if (good) {
+      outH[k] = h;
+      outS[k] = s;
+    } else {
+      integrateCp(cp, a[k], b[k]);
+      outH[k] = quad.h;
+      outS[k] = quad.s;
+    }
+  }
+}
+
+/** The batch form of a pointwise Cp, for forms without their own. */
+export function batchOf(cp: CpFunction): CpBatch {
+  return (x, f, n) => {
+    for (let i = 0; i < n; i++) f[i] = cp(x[i]);
+  };
 }

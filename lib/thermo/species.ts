@@ -5,7 +5,7 @@
 import { R, STANDARD_PRESSURE_PA, T298 } from "./constants";
 import { refuse } from "./errors";
 import { compileSegment, type CompiledSegment } from "./forms";
-import { integrateCp, quad } from "./integrate";
+import { integrateCp, integrateIntervals, quad } from "./integrate";
 import { brent } from "./roots";
 import { formatPath, missingIsRequired, speciesSchema, type ParsedSpecies, type SpeciesInput } from "./schema";
 import { parseMolarEnergyKJ, parseMolarEntropyJ, parseTemperatureK } from "./units";
@@ -124,6 +124,20 @@ export function chainAt(chain: Chain, T: number): { cpJ: number; hJ: number; sJ:
  * Cp, H, S of a chain on an ascending grid, one pass: within each segment the engine walks
  * outward from the anchor, integrating between neighbouring grid temperatures.
  */
+let bufA = new Float64Array(0);
+let bufB = new Float64Array(0);
+let bufH = new Float64Array(0);
+let bufS = new Float64Array(0);
+
+function ensure(n: number): void {
+  if (bufA.length < n) {
+    bufA = new Float64Array(n);
+    bufB = new Float64Array(n);
+    bufH = new Float64Array(n);
+    bufS = new Float64Array(n);
+  }
+}
+
 export function chainOnGrid(chain: Chain, T: Float64Array, cp: Float64Array, h: Float64Array, s: Float64Array): void {
   const n = T.length;
   const segs = chain.segs;
@@ -137,37 +151,77 @@ export function chainOnGrid(chain: Chain, T: Float64Array, cp: Float64Array, h: 
     const a = seg.anchor!;
     let split = i0;
     while (split < i1 && T[split] < a.tK) split++;
-    let prev = a.tK;
-    let hh = a.hJ;
-    let ss = a.sJ;
-    for (let j = split; j < i1; j++) {
-      const t = T[j];
-      if (t > prev) {
-        integrateSeg(seg, prev, t);
-        hh += quad.h;
-        ss += quad.s;
-        prev = t;
+    const m = i1 - i0;
+    if (seg.breaks) {
+      walkPointwise(seg, T, i0, i1, split, h, s);
+    } else {
+      // Interval j covers [T[j-1], T[j]] going up from the anchor, [T[j], T[j+1]] going down.
+      ensure(m);
+      for (let j = i0; j < i1; j++) {
+        const q = j - i0;
+        if (j >= split) {
+          bufA[q] = j === split ? a.tK : T[j - 1];
+          bufB[q] = T[j];
+        } else {
+          bufA[q] = T[j];
+          bufB[q] = j === split - 1 ? a.tK : T[j + 1];
+        }
       }
-      cp[j] = seg.cp(t);
-      h[j] = hh;
-      s[j] = ss;
-    }
-    prev = a.tK;
-    hh = a.hJ;
-    ss = a.sJ;
-    for (let j = split - 1; j >= i0; j--) {
-      const t = T[j];
-      if (t < prev) {
-        integrateSeg(seg, t, prev);
-        hh -= quad.h;
-        ss -= quad.s;
-        prev = t;
+      integrateIntervals(seg.cpBatch, seg.cp, bufA, bufB, m, bufH, bufS);
+      let hh = a.hJ;
+      let ss = a.sJ;
+      for (let j = split; j < i1; j++) {
+        hh += bufH[j - i0];
+        ss += bufS[j - i0];
+        h[j] = hh;
+        s[j] = ss;
       }
-      cp[j] = seg.cp(t);
-      h[j] = hh;
-      s[j] = ss;
+      hh = a.hJ;
+      ss = a.sJ;
+      for (let j = split - 1; j >= i0; j--) {
+        hh -= bufH[j - i0];
+        ss -= bufS[j - i0];
+        h[j] = hh;
+        s[j] = ss;
+      }
     }
+    for (let j = i0; j < i1; j++) bufA[j - i0] = T[j];
+    seg.cpBatch(bufA.subarray(0, m), cp.subarray(i0, i1), m);
     i0 = i1;
+  }
+}
+
+/** Segments with kinks (tables) integrate interval by interval, split at their knots. */
+function walkPointwise(seg: Segment, T: Float64Array, i0: number, i1: number, split: number, h: Float64Array, s: Float64Array): void {
+  ensure(i1 - i0);
+  const a = seg.anchor!;
+  let prev = a.tK;
+  let hh = a.hJ;
+  let ss = a.sJ;
+  for (let j = split; j < i1; j++) {
+    const t = T[j];
+    if (t > prev) {
+      integrateSeg(seg, prev, t);
+      hh += quad.h;
+      ss += quad.s;
+      prev = t;
+    }
+    h[j] = hh;
+    s[j] = ss;
+  }
+  prev = a.tK;
+  hh = a.hJ;
+  ss = a.sJ;
+  for (let j = split - 1; j >= i0; j--) {
+    const t = T[j];
+    if (t < prev) {
+      integrateSeg(seg, t, prev);
+      hh -= quad.h;
+      ss -= quad.s;
+      prev = t;
+    }
+    h[j] = hh;
+    s[j] = ss;
   }
 }
 

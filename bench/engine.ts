@@ -1,0 +1,153 @@
+/**
+ * npm run bench — speed of the engine against its targets (issue 3, item 9):
+ *   numeric Kirchhoff pass ≤ 2× the closed form, ≥ 20× faster than scipy.integrate.quad,
+ *   a 10 000-point fit ≤ 100 ms. Reports the figures whether or not they meet the targets.
+ * Reads the published NASA-7 sets from ../shared/reference/ (relative to the repo root).
+ */
+import { spawnSync } from "node:child_process";
+import fs from "node:fs";
+import os from "node:os";
+import path from "node:path";
+import { fileURLToPath } from "node:url";
+import { evaluate, fitCp, R, speciesSchema, type SegmentInput, type SpeciesInput } from "@/lib/thermo";
+import { buildSpeciesModel, termOnGrid } from "@/lib/thermo/species";
+
+const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
+const refFile = path.resolve(root, "../shared/reference/cp-coefficients.json");
+if (!fs.existsSync(refFile)) {
+  console.error(`missing reference file ${refFile}`);
+  process.exit(1);
+}
+type Rec = { species: string; phase: string; form: string; tmin: number; tmid?: number; tmax: number; coeffs: { low: number[]; high: number[] }; source: string };
+const recs = JSON.parse(fs.readFileSync(refFile, "utf8")) as Rec[];
+const burcat = (sp: string): SpeciesInput => {
+  const r = recs.find((x) => x.species === sp && x.phase === "g" && x.form === "nasa7" && x.source.startsWith("Goos"))!;
+  return {
+    segments: [
+      { phase: "g", form: "nasa7", tminK: r.tmin, tmaxK: r.tmid!, coeffs: r.coeffs.low },
+      { phase: "g", form: "nasa7", tminK: r.tmid!, tmaxK: r.tmax, coeffs: r.coeffs.high },
+    ],
+  };
+};
+
+const KEYS = ["CH4(g)", "H2O(g)", "CO(g)", "H2(g)"];
+const species: Record<string, SpeciesInput> = Object.fromEntries(KEYS.map((k) => [k, burcat(k.replace("(g)", ""))]));
+const N = 10000;
+const grid = Float64Array.from({ length: N }, (_, i) => 300 + (1200 * i) / (N - 1));
+const referenceK = 298.15;
+
+function median(fn: () => void, runs = 31): number {
+  for (let i = 0; i < 10; i++) fn(); // let the JIT settle first
+
+  const times: number[] = [];
+  for (let i = 0; i < runs; i++) {
+    const t = performance.now();
+    fn();
+    times.push(performance.now() - t);
+  }
+  times.sort((a, b) => a - b);
+  return times[Math.floor(runs / 2)];
+}
+
+// The engine's own path: build each model and integrate Cp dT and Cp/T dT along the grid.
+let sink = 0;
+const models = KEYS.map((k) => buildSpeciesModel(k, speciesSchema.parse(species[k]), referenceK));
+const numericMs = median(() => {
+  for (const m of models) {
+    const g = termOnGrid(m, "g", grid);
+    sink += g.h[N - 1] + g.s[N - 1];
+  }
+});
+
+// The closed form of the same NASA-7 sets (the benchmark's limit; the engine never uses it).
+const RL = R + 0; // local copy, as in the engine's forms (an imported binding may be an accessor)
+const closedSegs = KEYS.map((k) => species[k].segments as Extract<SegmentInput, { form: "nasa7" }>[]);
+const closedMs = median(() => {
+  for (const segs of closedSegs) {
+    const h = new Float64Array(N);
+    const s = new Float64Array(N);
+    for (let i = 0; i < N; i++) {
+      const T = grid[i];
+      const [a1, a2, a3, a4, a5, a6, a7] = (T <= 1000 ? segs[0] : segs[1]).coeffs;
+      h[i] = RL * (T * (a1 + T * (a2 / 2 + T * (a3 / 3 + T * (a4 / 4 + T * (a5 / 5))))) + a6);
+      s[i] = RL * (a1 * Math.log(T) + T * (a2 + T * (a3 / 2 + T * (a4 / 3 + T * (a5 / 4)))) + a7);
+    }
+    sink += h[N - 1] + s[N - 1];
+  }
+});
+
+const request = { reaction: "CH4(g) + H2O(g) -> CO(g) + 3 H2(g)", species, temperatures: { fromK: 300, toK: 1500, stepK: 1200 / (N - 1) } };
+const evaluateMs = median(() => {
+  sink += evaluate(request).points.length;
+}, 7);
+
+const normal = (() => {
+  let a = 12345;
+  return () => {
+    a = (a * 16807) % 2147483647;
+    const u = a / 2147483647;
+    a = (a * 16807) % 2147483647;
+    const v = a / 2147483647;
+    return Math.sqrt(-2 * Math.log(u)) * Math.cos(2 * Math.PI * v);
+  };
+})();
+const fitPoints = Array.from({ length: N }, (_, i) => {
+  const T = 300 + (1000 * i) / (N - 1);
+  const t = T / 1000;
+  // Synthetic points from the CO Shomate set (Chase 1998 fit), noise 0.05 J/(mol·K).
+  return { tK: T, cpJ: 25.56759 + 6.09613 * t + 4.054656 * t * t - 2.671301 * t ** 3 + 0.131021 / (t * t) + 0.05 * normal() };
+});
+const fitMs = median(() => {
+  sink += fitCp({ form: "shomate", points: fitPoints }).rmsJ;
+}, 9);
+
+// scipy.integrate.quad over the same grid and anchors.
+const scipyInput = {
+  grid: Array.from(grid),
+  species: models.map((m) => ({
+    segments: m.chains.get("g")!.segs.map((seg, k, all) => ({
+      coeffs: (closedSegs[models.indexOf(m)][k].coeffs as number[]).slice(0, 5),
+      lo: k === 0 ? -1e308 : seg.tminK + 1e-12,
+      hi: k === all.length - 1 ? 1e308 : seg.tmaxK,
+      anchorK: seg.anchor!.tK,
+      hJ: seg.anchor!.hJ,
+      sJ: seg.anchor!.sJ,
+    })),
+  })),
+};
+const tmp = path.join(os.tmpdir(), `heatpath-bench-${process.pid}.json`);
+fs.writeFileSync(tmp, JSON.stringify(scipyInput));
+const py = spawnSync("python3", [path.join(root, "bench/scipy_curve.py"), tmp], { encoding: "utf8" });
+fs.rmSync(tmp, { force: true });
+let scipyLine: string;
+let scipyMs: number | null = null;
+if (py.error || py.status !== 0) scipyLine = `skipped: python3 not runnable (${py.error?.message ?? py.stderr.trim()})`;
+else {
+  const out = JSON.parse(py.stdout.trim().split("\n").pop()!);
+  if (out.skip) scipyLine = `skipped: ${out.skip}`;
+  else {
+    scipyMs = out.ms as number;
+    const engineH = termOnGrid(models[0], "g", grid).h;
+    const step = Math.max(1, Math.floor(N / 10));
+    const maxDiff = Math.max(...(out.samples[0].h as number[]).map((v: number, i: number) => Math.abs(v - engineH[i * step])));
+    scipyLine = `${scipyMs.toFixed(1)} ms (max |ΔH| vs engine ${maxDiff.toExponential(1)} J/mol)`;
+  }
+}
+
+const ratio = numericMs / closedMs;
+const rows: [string, string, string, string][] = [
+  ["4-species Kirchhoff pass, 10 000 T, numeric (G3/K7 batch, G7/K15 fallback)", `${numericMs.toFixed(2)} ms`, "", ""],
+  ["same curves, closed form", `${closedMs.toFixed(2)} ms`, `numeric/closed ${ratio.toFixed(2)}×`, `≤ 2× ${ratio <= 2 ? "met" : "NOT met"}`],
+  ["full evaluate() of the reaction, 10 000 T", `${evaluateMs.toFixed(2)} ms`, `numeric share ${((100 * numericMs) / evaluateMs).toFixed(0)}%`, ""],
+  [
+    "same curves, scipy.integrate.quad",
+    scipyLine,
+    scipyMs === null ? "" : `engine ${(scipyMs / numericMs).toFixed(0)}× faster`,
+    scipyMs === null ? "" : `≥ 20× ${scipyMs / numericMs >= 20 ? "met" : "NOT met"}`,
+  ],
+  ["least-squares fit, 10 000 points (shomate)", `${fitMs.toFixed(2)} ms`, "", `≤ 100 ms ${fitMs <= 100 ? "met" : "NOT met"}`],
+];
+const w = [0, 1, 2, 3].map((c) => Math.max(...rows.map((r) => r[c].length)));
+console.log(`Heatpath engine benchmark (node ${process.version}, median of repeated runs)`);
+for (const r of rows) console.log(r.map((c, i) => c.padEnd(w[i])).join("  |  "));
+if (!Number.isFinite(sink)) console.log("(sink)");
