@@ -1,5 +1,7 @@
 import type { Sequelize } from "sequelize";
 import { AuditEvent } from "./audit-event";
+import { CaughtMail } from "./caught-mail";
+import { MailMessage } from "./mail-message";
 import { CpModel } from "./cp-model";
 import { Dataset } from "./dataset";
 import { ModelVersion } from "./model-version";
@@ -20,6 +22,8 @@ export function defineModels(sequelize: Sequelize) {
   CpModel.initModel(sequelize);
   Dataset.initModel(sequelize);
   ModelVersion.initModel(sequelize);
+  MailMessage.initModel(sequelize);
+  CaughtMail.initModel(sequelize);
 
   Team.hasMany(Membership, { foreignKey: "teamId", as: "memberships" });
   Membership.belongsTo(Team, { foreignKey: "teamId", as: "team" });
@@ -35,8 +39,8 @@ export function defineModels(sequelize: Sequelize) {
   ModelVersion.belongsTo(Dataset, { foreignKey: "datasetId", as: "dataset" });
   Dataset.belongsTo(Species, { foreignKey: "speciesId", as: "species" });
 
-  return { User, Team, Membership, Invitation, AuditEvent, Species, CpModel, Dataset, ModelVersion };
+  return { User, Team, Membership, Invitation, AuditEvent, Species, CpModel, Dataset, ModelVersion, MailMessage, CaughtMail };
 }
 
 export type Models = ReturnType<typeof defineModels>;
-export type { AuditEvent, CpModel, Dataset, Invitation, Membership, ModelVersion, Species, Team, User };
+export type { AuditEvent, CaughtMail, MailMessage, CpModel, Dataset, Invitation, Membership, ModelVersion, Species, Team, User };
