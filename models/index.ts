@@ -1,5 +1,9 @@
 import type { Sequelize } from "sequelize";
 import { AuditEvent } from "./audit-event";
+import { Case } from "./case";
+import { CaseSnapshot } from "./case-snapshot";
+import { Comment } from "./comment";
+import { Review } from "./review";
 import { CaughtMail } from "./caught-mail";
 import { MailMessage } from "./mail-message";
 import { CpModel } from "./cp-model";
@@ -24,6 +28,10 @@ export function defineModels(sequelize: Sequelize) {
   ModelVersion.initModel(sequelize);
   MailMessage.initModel(sequelize);
   CaughtMail.initModel(sequelize);
+  Case.initModel(sequelize);
+  CaseSnapshot.initModel(sequelize);
+  Review.initModel(sequelize);
+  Comment.initModel(sequelize);
 
   Team.hasMany(Membership, { foreignKey: "teamId", as: "memberships" });
   Membership.belongsTo(Team, { foreignKey: "teamId", as: "team" });
@@ -39,8 +47,16 @@ export function defineModels(sequelize: Sequelize) {
   ModelVersion.belongsTo(Dataset, { foreignKey: "datasetId", as: "dataset" });
   Dataset.belongsTo(Species, { foreignKey: "speciesId", as: "species" });
 
-  return { User, Team, Membership, Invitation, AuditEvent, Species, CpModel, Dataset, ModelVersion, MailMessage, CaughtMail };
+  Case.belongsTo(User, { foreignKey: "authorId", as: "author" });
+  Case.hasMany(CaseSnapshot, { foreignKey: "caseId", as: "snapshots" });
+  CaseSnapshot.belongsTo(Case, { foreignKey: "caseId", as: "case" });
+  Case.hasMany(Review, { foreignKey: "caseId", as: "reviews" });
+  Review.belongsTo(User, { foreignKey: "reviewerId", as: "reviewer" });
+  Case.hasMany(Comment, { foreignKey: "caseId", as: "comments" });
+  Comment.belongsTo(User, { foreignKey: "authorId", as: "author" });
+
+  return { User, Team, Membership, Invitation, AuditEvent, Species, CpModel, Dataset, ModelVersion, MailMessage, CaughtMail, Case, CaseSnapshot, Review, Comment };
 }
 
 export type Models = ReturnType<typeof defineModels>;
-export type { AuditEvent, CaughtMail, MailMessage, CpModel, Dataset, Invitation, Membership, ModelVersion, Species, Team, User };
+export type { AuditEvent, Case, CaseSnapshot, Comment, Review, CaughtMail, MailMessage, CpModel, Dataset, Invitation, Membership, ModelVersion, Species, Team, User };

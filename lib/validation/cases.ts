@@ -1,0 +1,116 @@
+/** Case, review and comment shapes, shared by the builder form, the route handlers and the services. zod only. */
+import { z } from "zod";
+import { elementBalance, termKey } from "@/lib/cases/balance";
+import { splitQuantity, toKelvin, toKelvinDifference, type Quantity } from "@/lib/cases/temperature";
+
+export const CASE_STATUSES = ["draft", "submitted", "approved", "returned"] as const;
+export type CaseStatus = (typeof CASE_STATUSES)[number];
+export const DECISIONS = ["approved", "returned"] as const;
+export type Decision = (typeof DECISIONS)[number];
+
+/** Largest grid a case may ask for (the engine's own limit). */
+export const MAX_CASE_POINTS = 100_000;
+
+const quantity = z.union([z.number({ error: "Enter a number." }), z.string().trim().min(1, "Enter a temperature.")], {
+  error: "Enter a temperature.",
+}).refine((q) => splitQuantity(q as Quantity) !== null, { error: "Use a number with K, degC or degF." });
+
+export const termSchema = z.object({
+  formula: z.string({ error: "Pick a species." }).trim().min(1, "Pick a species.").max(60, "Use at most 60 characters."),
+  phase: z
+    .string()
+    .regex(/^(cr(-[A-Za-z0-9_.]+)?|l|g)$/, { error: 'Use a phase of "cr", "l" or "g", or none for the stable phase.' })
+    .nullable(),
+  coefficient: z
+    .number({ error: "Enter a coefficient." })
+    .refine((n) => n !== 0, { error: "A coefficient cannot be zero; remove the row instead." })
+    .refine((n) => Math.abs(n) <= 1000, { error: "Use a coefficient between −1000 and 1000." }),
+  versionId: z.number({ error: "Pick a model version." }).int({ error: "Pick a model version." }).positive({ error: "Pick a model version." }),
+});
+export type CaseTerm = z.infer<typeof termSchema>;
+
+const spanSchema = z.object({ fromK: quantity, toK: quantity, stepK: quantity });
+const listSchema = z.object({ listK: z.array(quantity).min(1, "Enter at least one temperature.").max(MAX_CASE_POINTS, `Use at most ${MAX_CASE_POINTS} temperatures.`) });
+export const caseTemperaturesSchema = z.union([spanSchema, listSchema], { error: "Give a span (from, to, step) or a list of temperatures." });
+export type CaseTemperatures = z.infer<typeof caseTemperaturesSchema>;
+
+export const caseInputSchema = z
+  .object({
+    title: z.string({ error: "Give the case a title." }).trim().min(1, "Give the case a title.").max(160, "Use at most 160 characters."),
+    notes: z.string().trim().max(5000, "Use at most 5000 characters.").default(""),
+    terms: z.array(termSchema).min(2, "A reaction needs at least two species.").max(20, "Use at most 20 species."),
+    temperatures: caseTemperaturesSchema,
+    referenceK: quantity.default(298.15),
+    toleranceKJ: z.number({ error: "Enter a tolerance in kJ/mol." }).min(0, "The tolerance cannot be negative.").max(1000, "Use at most 1000 kJ/mol.").default(1),
+    toleranceKFactor: z.number({ error: "Enter a factor above 1." }).gt(1, "A factor on K must be above 1.").max(1e6, "Use at most 1e6.").nullable().default(null),
+  })
+  .superRefine((v, ctx) => {
+    const keys = new Set<string>();
+    v.terms.forEach((t, i) => {
+      const key = termKey(t);
+      if (keys.has(key)) ctx.addIssue({ code: "custom", path: ["terms", i, "formula"], message: `${key} appears twice; combine the coefficients.` });
+      keys.add(key);
+    });
+    if (v.terms.length >= 2 && !v.terms.some((t) => t.coefficient < 0)) ctx.addIssue({ code: "custom", path: ["terms"], message: "Give at least one reactant a negative coefficient." });
+    if (v.terms.length >= 2 && !v.terms.some((t) => t.coefficient > 0)) ctx.addIssue({ code: "custom", path: ["terms"], message: "Give at least one product a positive coefficient." });
+    const balance = elementBalance(v.terms);
+    if (!balance.ok) ctx.addIssue({ code: "custom", path: ["terms"], message: balance.message });
+
+    const positive = (q: Quantity, path: (string | number)[]) => {
+      const k = toKelvin(q);
+      if (!(k > 0)) ctx.addIssue({ code: "custom", path, message: `Temperatures must be above 0 K (this is ${Number(k.toFixed(6))} K).` });
+      return k;
+    };
+    positive(v.referenceK, ["referenceK"]);
+    const temps = v.temperatures;
+    if ("listK" in temps) {
+      temps.listK.forEach((q, i) => positive(q, ["temperatures", "listK", i]));
+    } else {
+      const from = positive(temps.fromK, ["temperatures", "fromK"]);
+      const to = positive(temps.toK, ["temperatures", "toK"]);
+      const step = toKelvinDifference(temps.stepK);
+      if (to < from) ctx.addIssue({ code: "custom", path: ["temperatures", "toK"], message: "The span must end above where it starts." });
+      if (!(step > 0)) ctx.addIssue({ code: "custom", path: ["temperatures", "stepK"], message: "The step must be positive." });
+      else if (to >= from && (to - from) / step + 2 > MAX_CASE_POINTS) {
+        ctx.addIssue({ code: "custom", path: ["temperatures", "stepK"], message: `That gives more than ${MAX_CASE_POINTS} points; use a larger step.` });
+      }
+    }
+  });
+export type CaseInput = z.infer<typeof caseInputSchema>;
+/** What a case stores as its inputs (title and notes live on the case row). */
+export type CaseInputs = Omit<CaseInput, "title" | "notes">;
+
+export const lockSchema = z.object({ lockVersion: z.number({ error: "Send the lockVersion you loaded." }).int().min(0) });
+
+export const caseUpdateSchema = z.intersection(caseInputSchema, lockSchema);
+export type CaseUpdate = z.infer<typeof caseUpdateSchema>;
+
+export const caseListQuerySchema = z.object({
+  status: z.enum(CASE_STATUSES, { error: "Use a status of draft, submitted, approved or returned." }).optional(),
+  mine: z.enum(["1", "0"]).optional(),
+});
+
+export const decisionSchema = z
+  .object({
+    decision: z.enum(DECISIONS, { error: "Decide approved or returned." }),
+    reason: z.string().trim().max(2000, "Use at most 2000 characters.").default(""),
+    /** The revision the reviewer looked at; a newer submission makes the decision stale. */
+    revision: z.number().int().positive().optional(),
+  })
+  .superRefine((v, ctx) => {
+    if (v.decision === "returned" && v.reason.length < 5) {
+      ctx.addIssue({ code: "custom", path: ["reason"], message: "Say what needs to change (at least 5 characters)." });
+    }
+  });
+export type DecisionInput = z.infer<typeof decisionSchema>;
+
+export const commentSchema = z.object({
+  body: z.string({ error: "Write a comment." }).trim().min(1, "Write a comment.").max(4000, "Use at most 4000 characters."),
+  revision: z.number().int().positive().optional(),
+});
+export type CommentInput = z.infer<typeof commentSchema>;
+
+export const revisionParamSchema = z.coerce.number({ error: "Expected a revision number." }).int().positive("Expected a revision number.");
+export const diffQuerySchema = z.object({ from: revisionParamSchema, to: revisionParamSchema });
+export const exportQuerySchema = z.object({ revision: revisionParamSchema.optional() });
+export const pinQuerySchema = z.object({ formula: z.string().trim().min(1).max(60).optional() });
