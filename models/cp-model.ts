@@ -9,6 +9,8 @@ export class CpModel extends Model<InferAttributes<CpModel>, InferCreationAttrib
   declare teamId: number | null;
   declare name: string;
   declare family: string;
+  /** Distinguishes sets of one family for one species ("anharmonic", "rrho", "liquid"); null when there is one. */
+  declare variant: CreationOptional<string | null>;
   declare copiedFromId: number | null;
   declare createdById: number | null;
   declare createdAt: CreationOptional<Date>;
@@ -23,6 +25,7 @@ export class CpModel extends Model<InferAttributes<CpModel>, InferCreationAttrib
         teamId: { type: DataTypes.INTEGER, allowNull: true },
         name: { type: DataTypes.STRING(160), allowNull: false },
         family: { type: DataTypes.STRING(40), allowNull: false },
+        variant: { type: DataTypes.STRING(40), allowNull: true, defaultValue: null },
         copiedFromId: { type: DataTypes.INTEGER, allowNull: true },
         createdById: { type: DataTypes.INTEGER, allowNull: true },
         createdAt: DataTypes.DATE,
