@@ -1,5 +1,6 @@
 import crypto from "node:crypto";
 import os from "node:os";
+import net from "node:net";
 import path from "node:path";
 import { vi } from "vitest";
 import { cookieJar } from "./helpers/cookies";
@@ -7,6 +8,16 @@ import { cookieJar } from "./helpers/cookies";
 // Each test file gets its own SQLite file, set before lib/env is first imported.
 process.env.DATABASE_PATH ??= path.join(os.tmpdir(), `heatpath-test-${process.pid}-${crypto.randomBytes(4).toString("hex")}.sqlite`);
 process.env.HEATPATH_MODE ??= "demo";
+
+// A free loopback port for this file's mail catcher, should a test start one.
+process.env.MAIL_CATCHER_PORT ??= String(
+  await new Promise<number>((resolve) => {
+    const s = net.createServer().listen(0, "127.0.0.1", () => {
+      const { port } = s.address() as net.AddressInfo;
+      s.close(() => resolve(port));
+    });
+  }),
+);
 
 // Route handlers and services read the session through next/headers; tests give them a cookie jar.
 vi.mock("next/headers", () => ({

@@ -1,5 +1,6 @@
 import { redirect } from "next/navigation";
 import { AppHeader } from "@/components/shell/app-header";
+import { can } from "@/lib/auth/permissions";
 import { getActor } from "@/lib/auth/session";
 
 const NAV = [
@@ -15,7 +16,7 @@ export default async function AppLayout({ children }: { children: React.ReactNod
   if (!actor) redirect("/sign-in");
   return (
     <>
-      <AppHeader actor={actor} items={NAV} />
+      <AppHeader actor={actor} items={can(actor.role, "outbox.view") ? [...NAV, { href: "/outbox", label: "Outbox" }] : NAV} />
       <main className="mx-auto max-w-6xl px-4 py-8">{children}</main>
     </>
   );

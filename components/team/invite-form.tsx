@@ -1,5 +1,6 @@
 "use client";
 
+import Link from "next/link";
 import { useActionState } from "react";
 import { inviteAction } from "@/app/(app)/team/actions";
 import { Button } from "@/components/ui/button";
@@ -7,9 +8,9 @@ import { Field, Select, TextInput } from "@/components/ui/field";
 import type { ActionState } from "@/lib/actions";
 import { ROLES, ROLE_LABELS } from "@/lib/auth/permissions";
 
-const initial: ActionState<{ link: string; email: string }> = { ok: false };
+const initial: ActionState<{ email: string }> = { ok: false };
 
-export function InviteForm() {
+export function InviteForm({ demo }: { demo: boolean }) {
   const [state, action, pending] = useActionState(inviteAction, initial);
   return (
     <div className="space-y-4">
@@ -30,8 +31,14 @@ export function InviteForm() {
       {state.ok && state.data && (
         <div role="status" className="rounded-md border border-moss-600/30 bg-moss-50 p-3 text-sm">
           <p className="font-medium text-moss-700">{state.message}</p>
-          <p className="mt-1 text-ink-soft">Send this one-time link to {state.data.email}; it expires in 7 days:</p>
-          <p className="mt-1 break-all font-mono text-xs" data-testid="invitation-link">{state.data.link}</p>
+          <p className="mt-1 text-ink-soft">
+            The message holds a one-time link that expires in 7 days.
+            {demo && (
+              <>
+                {" "}Demo mode: mail goes to the local catcher; read it in the <Link className="font-medium text-frost-600 underline" href="/outbox">Outbox</Link>.
+              </>
+            )}
+          </p>
         </div>
       )}
     </div>

@@ -9,6 +9,7 @@ import { env } from "@/lib/env";
 import { AppError, conflict, notFound } from "@/lib/errors";
 import type { AcceptInvitationInput, InviteInput } from "@/lib/validation/team";
 import { recordAudit } from "./audit";
+import { enqueueMail } from "./mail";
 
 const INVITATION_DAYS = 7;
 
@@ -112,7 +113,19 @@ export async function listInvitations(actor: Actor | null): Promise<InvitationDt
   }));
 }
 
-export type CreatedInvitation = { invitation: InvitationDto; link: string };
+/** The link itself is only ever in the mail to the invitee. */
+export type CreatedInvitation = { invitation: InvitationDto; mailedTo: string };
+
+function invitationText(teamName: string, inviter: string, role: Role, link: string): string {
+  return [
+    `${inviter} has invited you to join ${teamName} on Heatpath as ${role}.`,
+    "",
+    "Open this link to choose your password and join the team (it works once and expires in 7 days):",
+    link,
+    "",
+    "If you did not expect this message, you can ignore it.",
+  ].join("\n");
+}
 
 export async function invite(actor: Actor | null, input: InviteInput): Promise<CreatedInvitation> {
   const me = requirePermission(actor, "invitations.manage");
@@ -149,6 +162,14 @@ export async function invite(actor: Actor | null, input: InviteInput): Promise<C
       actorId: me.userId,
       after: { email: input.email, role: input.role },
     });
+    const link = `${env.APP_URL.replace(/\/$/, "")}/invite/${token}`;
+    await enqueueMail(transaction, {
+      kind: "invitation",
+      teamId: me.teamId,
+      to: input.email,
+      subject: `Join ${me.teamName} on Heatpath`,
+      text: invitationText(me.teamName, me.name, input.role, link),
+    });
     return invitation;
   });
   return {
@@ -160,7 +181,7 @@ export async function invite(actor: Actor | null, input: InviteInput): Promise<C
       expiresAt: created.expiresAt.toISOString(),
       status: "pending",
     },
-    link: `${env.APP_URL.replace(/\/$/, "")}/invite/${token}`,
+    mailedTo: created.email,
   };
 }
 

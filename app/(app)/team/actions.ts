@@ -31,13 +31,13 @@ export async function removeMemberAction(_prev: ActionState, formData: FormData)
   }
 }
 
-export async function inviteAction(_prev: ActionState<{ link: string; email: string }>, formData: FormData): Promise<ActionState<{ link: string; email: string }>> {
+export async function inviteAction(_prev: ActionState<{ email: string }>, formData: FormData): Promise<ActionState<{ email: string }>> {
   const raw = formObject(formData);
   try {
     const input = parseWith(inviteSchema, raw);
     const created = await team.invite(await getActor(), input);
     revalidatePath("/team");
-    return { ok: true, message: `Invitation created for ${created.invitation.email}.`, data: { link: created.link, email: created.invitation.email } };
+    return { ok: true, message: `Invitation mailed to ${created.mailedTo}.`, data: { email: created.mailedTo } };
   } catch (error) {
     return actionFailure(error, raw);
   }

@@ -6,6 +6,7 @@ import { Card, PageHeader } from "@/components/ui/card";
 import { ROLE_LABELS, can } from "@/lib/auth/permissions";
 import { requireUser } from "@/lib/auth/guards";
 import { getActor } from "@/lib/auth/session";
+import { isProduction } from "@/lib/env";
 import { listInvitations, listMembers } from "@/lib/services/team";
 
 export const metadata = { title: "Team" };
@@ -35,7 +36,7 @@ export default async function TeamPage() {
         </Card>
         {manage && (
           <Card title="Invite someone">
-            <InviteForm />
+            <InviteForm demo={!isProduction} />
             {invitations.length > 0 && (
               <table className="mt-6 w-full text-left text-sm">
                 <caption className="mb-2 text-left text-xs font-semibold uppercase tracking-wide text-ink-muted">Invitations</caption>

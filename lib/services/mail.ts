@@ -1,0 +1,127 @@
+import "server-only";
+import crypto from "node:crypto";
+import { Op, QueryTypes, type Transaction } from "sequelize";
+import type { Transporter } from "nodemailer";
+import { requirePermission, type Actor } from "@/lib/auth/guards";
+import type { Role } from "@/lib/auth/permissions";
+import { db, models } from "@/lib/db";
+import { env } from "@/lib/env";
+import type { MailKind } from "@/models/mail-message";
+
+export type MailInput = { to: string | string[]; subject: string; text: string; kind: MailKind; teamId?: number | null };
+
+const MAX_ATTEMPTS = 6;
+/** A claim older than this is taken to belong to a worker that died mid-send. */
+const STALE_CLAIM_MS = 120_000;
+const KICK = Symbol.for("heatpath.mail.kick");
+
+/**
+ * Queue messages inside the caller's transaction: they exist exactly when the
+ * action committed, and a mail failure can neither lose nor block the action.
+ * One row per recipient, so one bad address does not hold up the others.
+ */
+export async function enqueueMail(transaction: Transaction, input: MailInput): Promise<void> {
+  const recipients = [...new Set(Array.isArray(input.to) ? input.to : [input.to])];
+  for (const to of recipients) {
+    await models().MailMessage.create(
+      { teamId: input.teamId ?? null, kind: input.kind, recipients: [to], subject: input.subject, body: input.text, nextAttemptAt: new Date(), claimToken: null, claimedAt: null, sentAt: null, lastError: null },
+      { transaction },
+    );
+  }
+  transaction.afterCommit(() => (globalThis as { [KICK]?: () => void })[KICK]?.());
+}
+
+/** Mail every member of a team holding one of `roles`, optionally leaving one user out. */
+export async function enqueueMailToRoles(
+  transaction: Transaction,
+  teamId: number,
+  roles: Role[],
+  message: Omit<MailInput, "to" | "teamId">,
+  options: { exceptUserId?: number } = {},
+): Promise<number> {
+  const { Membership, User } = models();
+  const members = await Membership.findAll({ where: { teamId, role: roles }, include: [{ model: User, as: "user" }], transaction });
+  const to = members.filter((m) => m.userId !== options.exceptUserId).map((m) => m.user!.email);
+  if (to.length) await enqueueMail(transaction, { ...message, to, teamId });
+  return to.length;
+}
+
+/** The worker's wake-up call; set by startMailWorker in the same process. */
+export function setMailKick(kick: (() => void) | undefined): void {
+  (globalThis as { [KICK]?: () => void })[KICK] = kick;
+}
+
+/**
+ * Claim due rows atomically (one UPDATE), so several workers — one per app
+ * server — never send the same message twice.
+ */
+export async function claimDueMail(limit = 20): Promise<number[]> {
+  const token = crypto.randomBytes(12).toString("hex");
+  const now = new Date();
+  const stale = new Date(now.getTime() - STALE_CLAIM_MS);
+  await db().query(
+    `UPDATE mail_messages SET status = 'sending', claim_token = :token, claimed_at = :now, attempts = attempts + 1, updated_at = :now
+     WHERE id IN (
+       SELECT id FROM mail_messages
+       WHERE (status = 'queued' AND next_attempt_at <= :now) OR (status = 'sending' AND claimed_at < :stale)
+       ORDER BY id LIMIT :limit)`,
+    { replacements: { token, now, stale, limit } },
+  );
+  const rows = await db().query<{ id: number }>(`SELECT id FROM mail_messages WHERE claim_token = :token ORDER BY id`, {
+    replacements: { token },
+    type: QueryTypes.SELECT,
+  });
+  return rows.map((r) => r.id);
+}
+
+/** Send what is due; failures are retried with a growing delay, then marked failed. */
+export async function deliverDueMail(transport: Transporter): Promise<{ sent: number; failed: number }> {
+  const { MailMessage } = models();
+  const ids = await claimDueMail();
+  let sent = 0;
+  let failed = 0;
+  for (const id of ids) {
+    const message = await MailMessage.findByPk(id);
+    if (!message) continue;
+    try {
+      await transport.sendMail({ from: env.MAIL_FROM, to: message.recipients, subject: message.subject, text: message.body });
+      await message.update({ status: "sent", sentAt: new Date(), claimToken: null, lastError: null });
+      sent += 1;
+    } catch (error) {
+      failed += 1;
+      const giveUp = message.attempts >= MAX_ATTEMPTS;
+      const delayMs = Math.min(300_000, 2_000 * 2 ** message.attempts);
+      await message.update({
+        status: giveUp ? "failed" : "queued",
+        claimToken: null,
+        nextAttemptAt: new Date(Date.now() + delayMs),
+        lastError: (error instanceof Error ? error.message : String(error)).slice(0, 500),
+      });
+    }
+  }
+  return { sent, failed };
+}
+
+export type CaughtMailDto = { id: number; to: string[]; subject: string; text: string; receivedAt: string };
+export type OutboxDto = { caught: CaughtMailDto[]; queue: { queued: number; sending: number; sent: number; failed: number }; recentFailures: { id: number; subject: string; to: string[]; attempts: number; lastError: string | null }[] };
+
+/**
+ * What the local catcher received, for admins. The catcher is shared by the
+ * whole demo install, so messages are filtered to this team's members and invitees.
+ */
+export async function listOutbox(actor: Actor | null, limit = 50): Promise<OutboxDto> {
+  const me = requirePermission(actor, "outbox.view");
+  const { CaughtMail, MailMessage } = models();
+  const teamMail = await MailMessage.findAll({ where: { teamId: me.teamId }, attributes: ["recipients"] });
+  const addresses = new Set(teamMail.flatMap((m) => m.recipients));
+  const caught = (await CaughtMail.findAll({ order: [["id", "DESC"]], limit: 500 })).filter((c) => c.envelopeTo.some((a) => addresses.has(a))).slice(0, limit);
+  const counts = await MailMessage.findAll({ where: { teamId: me.teamId }, attributes: ["status"] });
+  const queue = { queued: 0, sending: 0, sent: 0, failed: 0 };
+  for (const c of counts) queue[c.status as keyof typeof queue] += 1;
+  const failures = await MailMessage.findAll({ where: { teamId: me.teamId, lastError: { [Op.ne]: null } }, order: [["id", "DESC"]], limit: 10 });
+  return {
+    caught: caught.map((c) => ({ id: c.id, to: c.envelopeTo, subject: c.subject, text: c.text, receivedAt: c.receivedAt.toISOString() })),
+    queue,
+    recentFailures: failures.map((f) => ({ id: f.id, subject: f.subject, to: f.recipients, attempts: f.attempts, lastError: f.lastError })),
+  };
+}
