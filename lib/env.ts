@@ -14,6 +14,9 @@ const schema = z.object({
   MAIL_FROM: z.string().default("Heatpath <no-reply@heatpath.example.test>"),
   BODY_LIMIT_BYTES: z.coerce.number().int().positive().default(1_048_576),
   LOG_SQL: z.enum(["0", "1"]).default("0"),
+  SIGNIN_LIMIT_PER_ACCOUNT: z.coerce.number().int().positive().default(10),
+  SIGNIN_LIMIT_PER_ADDRESS: z.coerce.number().int().positive().default(50),
+  SIGNIN_WINDOW_SECONDS: z.coerce.number().int().positive().default(900),
 });
 
 export type Env = z.infer<typeof schema>;

@@ -95,7 +95,10 @@ const isEngineRefusal = (e: unknown): e is Refusal =>
 
 /** Turn any thrown value into the error shape. Unexpected errors say nothing about internals. */
 export function toErrorResponse(error: unknown): Response {
-  if (error instanceof AppError) return errorResponse(error.status, error.code, error.message, error.details);
+  if (error instanceof AppError) {
+    const retry = (error.details as { retryAfterSeconds?: number } | undefined)?.retryAfterSeconds;
+    return errorResponse(error.status, error.code, error.message, error.details, retry ? { "Retry-After": String(retry) } : undefined);
+  }
   if (isEngineRefusal(error)) return errorResponse(422, error.code, error.message, error.details);
   if (error instanceof ZodError) {
     const e = validationError(error);
@@ -105,10 +108,34 @@ export function toErrorResponse(error: unknown): Response {
   return errorResponse(500, "internal", "Something went wrong on our side; the request was not completed.");
 }
 
+const MUTATING = new Set(["POST", "PUT", "PATCH", "DELETE"]);
+
+/**
+ * A browser sends Origin with every cross-site write; a cookie-authenticated
+ * write from another origin is refused (server actions have the framework's own check).
+ */
+export function assertSameOrigin(request: Request): void {
+  if (!MUTATING.has(request.method) || !/(?:^|;\s*)heatpath_session=/.test(request.headers.get("cookie") ?? "")) return;
+  if (request.headers.get("sec-fetch-site") === "cross-site") throw crossOrigin();
+  const origin = request.headers.get("origin");
+  if (!origin) return;
+  const host = request.headers.get("x-forwarded-host") ?? request.headers.get("host") ?? new URL(request.url).host;
+  let originHost: string;
+  try {
+    originHost = new URL(origin).host;
+  } catch {
+    throw crossOrigin();
+  }
+  if (originHost !== host) throw crossOrigin();
+}
+
+const crossOrigin = () => new AppError(403, "cross-origin", "Requests from another site are refused.");
+
 /** Wrap a route handler so that every failure leaves in the error shape. */
 export function route<C = unknown>(handler: (request: Request, context: C) => Promise<Response>) {
   return async (request: Request, context: C): Promise<Response> => {
     try {
+      assertSameOrigin(request);
       return await handler(request, context);
     } catch (error) {
       return toErrorResponse(error);

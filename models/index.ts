@@ -6,6 +6,7 @@ import { Comment } from "./comment";
 import { Review } from "./review";
 import { CaughtMail } from "./caught-mail";
 import { MailMessage } from "./mail-message";
+import { RateLimit } from "./rate-limit";
 import { CpModel } from "./cp-model";
 import { Dataset } from "./dataset";
 import { ModelVersion } from "./model-version";
@@ -28,6 +29,7 @@ export function defineModels(sequelize: Sequelize) {
   ModelVersion.initModel(sequelize);
   MailMessage.initModel(sequelize);
   CaughtMail.initModel(sequelize);
+  RateLimit.initModel(sequelize);
   Case.initModel(sequelize);
   CaseSnapshot.initModel(sequelize);
   Review.initModel(sequelize);
@@ -55,7 +57,7 @@ export function defineModels(sequelize: Sequelize) {
   Case.hasMany(Comment, { foreignKey: "caseId", as: "comments" });
   Comment.belongsTo(User, { foreignKey: "authorId", as: "author" });
 
-  return { User, Team, Membership, Invitation, AuditEvent, Species, CpModel, Dataset, ModelVersion, MailMessage, CaughtMail, Case, CaseSnapshot, Review, Comment };
+  return { User, Team, Membership, Invitation, AuditEvent, Species, CpModel, Dataset, ModelVersion, MailMessage, CaughtMail, RateLimit, Case, CaseSnapshot, Review, Comment };
 }
 
 export type Models = ReturnType<typeof defineModels>;

@@ -4,15 +4,26 @@ import { DUMMY_HASH, verifyPassword } from "@/lib/auth/password";
 import { models } from "@/lib/db";
 import { AppError } from "@/lib/errors";
 import type { SignInInput } from "@/lib/validation/auth";
+import { assertUnderLimits, clearLimits, countFailure, signInLimits } from "./rate-limit";
 
 /** One message for an unknown account and a wrong password. */
 export const INVALID_CREDENTIALS = "That e-mail and password do not match an account.";
 
-export async function authenticate(input: SignInInput): Promise<{ userId: number; teamId: number }> {
+/**
+ * Check an e-mail and password. Failures count against the account and the
+ * client address (in the database, so the limit holds across app servers).
+ */
+export async function authenticate(input: SignInInput, options: { clientAddress?: string | null } = {}): Promise<{ userId: number; teamId: number }> {
   const { User, Membership } = models();
+  const limits = signInLimits(input.email, options.clientAddress ?? null);
+  await assertUnderLimits(limits);
   const user = await User.findOne({ where: { email: input.email } });
   const valid = await verifyPassword(input.password, user?.passwordHash ?? DUMMY_HASH);
-  if (!user || !valid) throw new AppError(401, "invalid-credentials", INVALID_CREDENTIALS);
+  if (!user || !valid) {
+    await countFailure(limits);
+    throw new AppError(401, "invalid-credentials", INVALID_CREDENTIALS);
+  }
+  await clearLimits([limits[0].key]);
   const membership = await Membership.findOne({ where: { userId: user.id }, order: [["id", "ASC"]] });
   if (!membership) throw new AppError(403, "no-team", "This account is not a member of any team yet.");
   return { userId: user.id, teamId: membership.teamId };

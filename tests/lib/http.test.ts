@@ -70,3 +70,25 @@ describe("error shape", () => {
     expect(await r.json()).toEqual({ error: { code: "conflict", message: "Stale.", details: { current: 3 } } });
   });
 });
+
+describe("origin check on cookie-authenticated writes", () => {
+  const handler = route(async () => new Response(null, { status: 204 }));
+  const call = (headers: Record<string, string>, method = "POST") => handler(new Request("http://127.0.0.1:3000/api/v1/x", { method, headers }), {});
+
+  it.each([
+    ["another origin", { cookie: "heatpath_session=abc", origin: "http://evil.example.test", host: "127.0.0.1:3000" }, 403],
+    ["a cross-site fetch", { cookie: "heatpath_session=abc", "sec-fetch-site": "cross-site", host: "127.0.0.1:3000" }, 403],
+    ["a garbled origin", { cookie: "heatpath_session=abc", origin: "::::", host: "127.0.0.1:3000" }, 403],
+    ["the same origin", { cookie: "heatpath_session=abc", origin: "http://127.0.0.1:3000", host: "127.0.0.1:3000" }, 204],
+    ["no cookie (nothing to forge)", { origin: "http://evil.example.test", host: "127.0.0.1:3000" }, 204],
+    ["a script without Origin", { cookie: "heatpath_session=abc", host: "127.0.0.1:3000" }, 204],
+  ])("%s → %s", async (_label, headers, status) => {
+    const r = await call(headers as Record<string, string>);
+    expect(r.status).toBe(status);
+    if (status === 403) expect(await r.json()).toEqual({ error: { code: "cross-origin", message: "Requests from another site are refused." } });
+  });
+
+  it("leaves reads alone", async () => {
+    expect((await call({ cookie: "heatpath_session=abc", origin: "http://evil.example.test" }, "GET")).status).toBe(204);
+  });
+});

@@ -1,7 +1,9 @@
 "use server";
 
+import { headers } from "next/headers";
 import { redirect } from "next/navigation";
 import { actionFailure, formObject, type ActionState } from "@/lib/actions";
+import { clientAddress } from "@/lib/auth/client";
 import { startSession } from "@/lib/auth/session";
 import { fieldErrors } from "@/lib/http";
 import { authenticate } from "@/lib/services/auth";
@@ -17,7 +19,7 @@ export async function signInAction(_prev: ActionState, formData: FormData): Prom
   const parsed = signInSchema.safeParse(input);
   if (!parsed.success) return { ok: false, fieldErrors: fieldErrors(parsed.error), values: { email: input.email ?? "" } };
   try {
-    const { userId, teamId } = await authenticate(parsed.data);
+    const { userId, teamId } = await authenticate(parsed.data, { clientAddress: clientAddress(await headers()) });
     await startSession(userId, teamId);
   } catch (error) {
     return actionFailure(error, { email: input.email ?? "" });
