@@ -1,12 +1,18 @@
 import type { Sequelize } from "sequelize";
 import type { Models } from "@/models";
 import { seed as demoTeam } from "./01-demo-team";
+import { seed as referenceLibrary } from "./02-reference-library";
+import { seed as demoLibrary } from "./03-demo-library";
 
 export type SeedContext = { sequelize: Sequelize; models: Models };
 export type Seeder = { name: string; demoOnly: boolean; seed: (ctx: SeedContext) => Promise<void> };
 
 /** In order. Every seeder is idempotent, so `npm run db:seed` is safe to repeat. */
-export const SEEDERS: Seeder[] = [{ name: "01-demo-team", demoOnly: true, seed: demoTeam }];
+export const SEEDERS: Seeder[] = [
+  { name: "01-demo-team", demoOnly: true, seed: demoTeam },
+  { name: "02-reference-library", demoOnly: false, seed: referenceLibrary },
+  { name: "03-demo-library", demoOnly: true, seed: demoLibrary },
+];
 
 export async function runSeeders(ctx: SeedContext, options: { demo: boolean }): Promise<string[]> {
   const ran: string[] = [];

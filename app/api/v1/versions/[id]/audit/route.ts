@@ -1,0 +1,8 @@
+import { getActor } from "@/lib/auth/session";
+import { json, parseWith, route } from "@/lib/http";
+import { versionAudit } from "@/lib/services/library";
+import { idParamSchema } from "@/lib/validation/library";
+
+type Context = { params: Promise<{ id: string }> };
+
+export const GET = route<Context>(async (_request, { params }) => json({ events: await versionAudit(await getActor(), parseWith(idParamSchema, (await params).id)) }));

@@ -1,0 +1,20 @@
+import { z } from "zod";
+import { getActor } from "@/lib/auth/session";
+import { json, parseWith, queryObject, route } from "@/lib/http";
+import { versionCurve } from "@/lib/services/library";
+import { idParamSchema } from "@/lib/validation/library";
+
+type Context = { params: Promise<{ id: string }> };
+
+const query = z.object({
+  fromK: z.coerce.number().positive("Temperatures must be above 0 K.").optional(),
+  toK: z.coerce.number().positive("Temperatures must be above 0 K.").optional(),
+  points: z.coerce.number().int().min(2).max(400).optional(),
+});
+
+/** Cp, H, S and G of a saved version on a grid, with its chains' validity ranges. */
+export const GET = route<Context>(async (request, { params }) => {
+  const actor = await getActor();
+  const id = parseWith(idParamSchema, (await params).id);
+  return json(await versionCurve(actor, id, parseWith(query, queryObject(request))));
+});
