@@ -1,9 +1,11 @@
 /**
- * Database chores: `tsx scripts/db.ts migrate|rollback|seed|reset|check-production`.
+ * Database chores: `tsx scripts/db.ts migrate|rollback|seed|reset|backup [FILE]|restore FILE|check-production`.
  * The same migrations and seeders the tests use.
  */
 import { closeDb, registry } from "@/lib/db";
 import { env, isProduction, productionConfigProblems } from "@/lib/env";
+import path from "node:path";
+import { backupDatabase, restoreDatabase } from "@/lib/backup";
 import { migrateDownAll, migrator } from "@/lib/migrate";
 import { runSeeders } from "@/seeders";
 
@@ -33,6 +35,22 @@ async function main(command: string | undefined) {
       console.log(`reset ${env.DATABASE_PATH}; seeded: ${ran.join(", ")}`);
       break;
     }
+    case "backup": {
+      await closeDb();
+      const stamp = new Date().toISOString().replace(/[:.]/g, "-");
+      const file = process.argv[3] ?? path.join(path.dirname(env.DATABASE_PATH), "backups", `heatpath-${stamp}.sqlite`);
+      const { bytes } = await backupDatabase(path.resolve(env.DATABASE_PATH), path.resolve(file));
+      console.log(`backup written: ${file} (${bytes} bytes)`);
+      return;
+    }
+    case "restore": {
+      await closeDb();
+      const file = process.argv[3];
+      if (!file) throw new Error("usage: npm run db:restore FILE");
+      await restoreDatabase(path.resolve(file), path.resolve(env.DATABASE_PATH));
+      console.log(`restored ${env.DATABASE_PATH} from ${file}`);
+      return;
+    }
     case "check-production": {
       const problems = productionConfigProblems();
       if (isProduction) {
@@ -43,7 +61,7 @@ async function main(command: string | undefined) {
       break;
     }
     default:
-      throw new Error("usage: tsx scripts/db.ts migrate|rollback|seed|reset|check-production");
+      throw new Error("usage: tsx scripts/db.ts migrate|rollback|seed|reset|backup [FILE]|restore FILE|check-production");
   }
 }
 
