@@ -1,6 +1,6 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from "sequelize";
 import type { EvaluateRequest, EvaluateResult } from "@/lib/thermo";
-import type { CaseInputs } from "@/lib/validation/cases";
+import type { CaseInput } from "@/lib/validation/cases";
 
 /** A pinned model version as it was when the snapshot was frozen. */
 export type PinnedVersion = {
@@ -27,7 +27,8 @@ export class CaseSnapshot extends Model<InferAttributes<CaseSnapshot>, InferCrea
   declare caseId: number;
   declare teamId: number;
   declare revision: number;
-  declare inputs: CaseInputs;
+  /** Title, notes and inputs as submitted. */
+  declare inputs: CaseInput;
   declare pins: PinnedVersion[];
   declare engineVersion: string;
   declare request: EvaluateRequest;

@@ -111,6 +111,7 @@ export const commentSchema = z.object({
 export type CommentInput = z.infer<typeof commentSchema>;
 
 export const revisionParamSchema = z.coerce.number({ error: "Expected a revision number." }).int().positive("Expected a revision number.");
-export const diffQuerySchema = z.object({ from: revisionParamSchema, to: revisionParamSchema });
+/** Without from/to: the last two revisions. */
+export const diffQuerySchema = z.object({ from: revisionParamSchema.optional(), to: revisionParamSchema.optional() });
 export const exportQuerySchema = z.object({ revision: revisionParamSchema.optional() });
 export const pinQuerySchema = z.object({ formula: z.string().trim().min(1).max(60).optional() });
