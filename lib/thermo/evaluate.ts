@@ -20,6 +20,8 @@ import {
   type TermGrid,
 } from "./species";
 import { parsePressureBar, parseTemperatureK } from "./units";
+import { equilibriumOnGrid, type EquilibriumInfo, type EquilibriumPoint } from "./equilibrium";
+import { combine, parseUncertainty, sigmaG, sigmaGNaive, type SpeciesUncertainty } from "./uncertainty";
 
 export interface EvaluatePoint {
   tK: number;
@@ -35,6 +37,19 @@ export interface EvaluatePoint {
   naiveLog10K: number;
   diffKJ: number;
   exceedsTolerance: boolean;
+  /** 1σ of dGkJ (kJ/mol) and log10K, when species carry uncertainties. */
+  sigmaDGkJ?: number;
+  sigmaLog10K?: number;
+  naiveSigmaDGkJ?: number;
+  /** |diffKJ| > sigmaDGkJ: the naive error exceeds the data's own uncertainty. */
+  naiveExceedsUncertainty?: boolean;
+}
+
+export interface UncertaintySummary {
+  basis: string;
+  species: Record<string, SpeciesUncertainty>;
+  /** Grid temperatures where |naive − corrected| ΔrG exceeds the 1σ of the corrected ΔrG. */
+  naiveExceedsK: number[];
 }
 
 export type SignCaseCode = "favourable-always" | "favourable-above" | "favourable-below" | "favourable-never";
@@ -45,9 +60,15 @@ export interface EvaluateResult {
   crossover: { naiveK: number | null; naiveInSpan: boolean; correctedK: number[] };
   signCase: { code: SignCaseCode; text: string; correctedAgrees: boolean };
   species?: Record<string, SpeciesRow[]>;
+  uncertainty?: UncertaintySummary;
+  equilibrium?: EquilibriumPoint[];
+  equilibriumInfo?: EquilibriumInfo;
   warnings: EngineWarning[];
   engine: { version: string };
 }
+
+export const UNCERTAINTY_BASIS =
+  "1σ standard uncertainties by linear propagation of each species' ΔfH°, S° and relative Cp uncertainty, taken as independent";
 
 export const SIGN_CASES: Record<SignCaseCode, string> = {
   "favourable-always": "K > 1 at all T",
@@ -157,6 +178,36 @@ export function evaluate(request: unknown): EvaluateResult {
     };
   }
 
+  const uncertain = terms.map((t) => parseUncertainty(t.key, req.species[t.key]));
+  let uncertaintySummary: UncertaintySummary | undefined;
+  if (uncertain.some((u) => u !== null)) {
+    const refs = terms.map((t) => termAt(t.model, t.phase, referenceK));
+    const nus = terms.map((t) => t.nu);
+    const naiveExceedsK: number[] = [];
+    const sig = new Float64Array(terms.length);
+    const sigN = new Float64Array(terms.length);
+    for (let i = 0; i < n; i++) {
+      const t = T[i];
+      terms.forEach((term, k) => {
+        const u = uncertain[k];
+        sig[k] = u ? sigmaG(u, t, grids[k].h[i], grids[k].s[i], refs[k].hJ, refs[k].sJ) : 0;
+        sigN[k] = u ? sigmaGNaive(u, t) : 0;
+      });
+      const p = points[i];
+      const sG = combine(nus, sig);
+      p.sigmaDGkJ = sG / 1000;
+      p.sigmaLog10K = sG / (R * t * LN10);
+      p.naiveSigmaDGkJ = combine(nus, sigN) / 1000;
+      p.naiveExceedsUncertainty = Math.abs(p.diffKJ) > p.sigmaDGkJ;
+      if (p.naiveExceedsUncertainty) naiveExceedsK.push(t);
+    }
+    uncertaintySummary = {
+      basis: UNCERTAINTY_BASIS,
+      species: Object.fromEntries(terms.flatMap((t, k) => (uncertain[k] ? [[t.key, uncertain[k]!]] : []))),
+      naiveExceedsK,
+    };
+  }
+
   // Corrected crossovers: bracket on the grid and at the extrema of ΔrG (ΔrS = 0).
   const dGAt = (t: number) => reactionAt(terms, t).dG;
   const dSAt = (t: number) => reactionAt(terms, t).dS;
@@ -210,6 +261,18 @@ export function evaluate(request: unknown): EvaluateResult {
     warnings,
     engine: { version: ENGINE_VERSION },
   };
+  if (uncertaintySummary) result.uncertainty = uncertaintySummary;
+  if (req.equilibrium) {
+    const models = new Map(terms.map((t) => [t.key, t.model]));
+    const gridMap = new Map(terms.map((t, k) => [t.key, grids[k]]));
+    const eq = equilibriumOnGrid({
+      equilibrium: req.equilibrium, reaction: req.reaction, species: req.species, T, referenceK, models, grids: gridMap,
+      buildModel: (key) => buildSpeciesModel(key, req.species[key], referenceK),
+    });
+    result.equilibrium = eq.points;
+    result.equilibriumInfo = eq.info;
+    warnings.push(...eq.warnings);
+  }
   if (req.include?.includes("species")) {
     const species: Record<string, SpeciesRow[]> = {};
     terms.forEach((term, k) => {
@@ -221,12 +284,13 @@ export function evaluate(request: unknown): EvaluateResult {
       }
       species[term.key] = rows;
     });
-    const { warnings: w, engine } = result;
-    delete (result as Partial<EvaluateResult>).warnings;
-    delete (result as Partial<EvaluateResult>).engine;
     result.species = species;
-    result.warnings = w;
-    result.engine = engine;
   }
+  // Warnings and the engine version close the result, after any optional sections.
+  const { warnings: w, engine } = result;
+  delete (result as Partial<EvaluateResult>).warnings;
+  delete (result as Partial<EvaluateResult>).engine;
+  result.warnings = w;
+  result.engine = engine;
   return result;
 }

@@ -1,7 +1,17 @@
 /** Heatpath's computation engine. Pure: no I/O, no framework imports. */
 export { ENGINE_VERSION, R, STANDARD_PRESSURE_PA, ATM_PA, MAX_POINTS, HIGH_PRESSURE_BAR } from "./constants";
 export { EngineRefusal } from "./errors";
-export { evaluate, SIGN_CASES, type EvaluateResult, type EvaluatePoint, type SignCaseCode } from "./evaluate";
+export {
+  evaluate,
+  SIGN_CASES,
+  UNCERTAINTY_BASIS,
+  type EvaluateResult,
+  type EvaluatePoint,
+  type SignCaseCode,
+  type UncertaintySummary,
+} from "./evaluate";
+export { type EquilibriumPoint, type EquilibriumInfo, type Composition, type CompositionSigma } from "./equilibrium";
+export { compareSources, type SourceVariant, type SourceComparison } from "./sources";
 export { speciesProperties, type SpeciesRow, type EngineWarning } from "./species";
 export { parseFormula, parseReaction, parseSpeciesKey, checkBalance, ATOMIC_WEIGHTS } from "./formula";
 export { parseTemperatureGrid } from "./grid";
@@ -24,4 +34,5 @@ export {
   type SpeciesInput,
   type SegmentInput,
   type FitRequest,
+  type EquilibriumRequest,
 } from "./schema";

@@ -87,11 +87,19 @@ export const referenceSchema = z.object({
   sJ: quantitySchema,
 });
 
+/** Standard uncertainties (1σ) of a species' data, from its model version. */
+export const speciesUncertaintySchema = z.object({
+  dfHkJ: quantitySchema.optional(),
+  sJ: quantitySchema.optional(),
+  cpRelative: z.number({ error: "expected a finite number" }).nonnegative({ error: "an uncertainty must not be negative" }).optional(),
+});
+
 export const speciesSchema = z.object({
   segments: z.array(segmentSchema).min(1, { error: "expected at least one segment" }),
   transitions: z.array(transitionSchema).optional(),
   reference: referenceSchema.optional(),
   standardPressurePa: z.number().positive().optional(),
+  uncertainty: speciesUncertaintySchema.optional(),
 });
 
 export const temperaturesSchema = z.union(
@@ -112,11 +120,27 @@ export const evaluateRequestSchema = z.object({
   include: z.array(z.enum(["species"])).optional(),
   /** Operating pressure, used only for the `high-pressure` warning (K stays the ideal-gas, 1 bar one). */
   pressureBar: quantitySchema.optional(),
-  equilibrium: z.looseObject({ pressureBar: quantitySchema.optional() }).optional(),
+  equilibrium: z
+    .object({
+      /** Feed amounts per species key, in one unit of amount (`feedUnit`, default "mol"). */
+      feed: z.record(
+        z.string(),
+        z.number({ error: "expected a finite number" }).nonnegative({ error: "expected an amount of 0 or more" }),
+      ),
+      feedUnit: z.string().trim().min(1).max(24).optional(),
+      /** Total pressure; bar when a bare number (default 1 bar). */
+      pressureBar: quantitySchema.optional(),
+      /** Species whose conversion is reported; default the first reactant of the first reaction present in the feed. */
+      key: z.string().trim().min(1).optional(),
+      /** A simultaneous set; without it the request's `reaction`. */
+      reactions: z.array(z.string().trim().min(1, { error: "expected a reaction" })).min(1, { error: "expected at least one reaction" }).max(12, { error: "at most 12 reactions" }).optional(),
+    })
+    .optional(),
 });
 
 export type EvaluateRequest = z.input<typeof evaluateRequestSchema>;
 export type SpeciesInput = z.input<typeof speciesSchema>;
+export type EquilibriumRequest = z.input<typeof evaluateRequestSchema>["equilibrium"];
 export type SegmentInput = z.input<typeof segmentSchema>;
 export type ParsedSpecies = z.output<typeof speciesSchema>;
 export type ParsedSegment = z.output<typeof segmentSchema>;

@@ -1,0 +1,329 @@
+/**
+ * Equilibrium composition on the temperature grid, for corrected and naive K side by side,
+ * with linear uncertainty bands (EVALUATE.md "Equilibrium"). The numerics are in
+ * equilibrium-solver.ts; this module builds one problem per temperature from the species
+ * models and shapes the result.
+ */
+import { R } from "./constants";
+import { EngineRefusal, refuse } from "./errors";
+import { checkBalance, parseReaction, parseSpeciesKey } from "./formula";
+import { checkIndependent, interiorStart, solveEquilibrium, type EquilibriumProblem, type EquilibriumSolution } from "./equilibrium-solver";
+import type { ParsedSpecies } from "./schema";
+import { fmt, termAt, termOnGrid, termWarnings, type EngineWarning, type SpeciesModel, type TermGrid } from "./species";
+import { parseUncertainty, sigmaG, sigmaGNaive, type SpeciesUncertainty } from "./uncertainty";
+import { parsePressureBar } from "./units";
+
+const LN10 = Math.LN10;
+
+/** Standard uncertainties (1σ) that ride beside the values they cover. */
+export interface CompositionSigma {
+  extents: number[];
+  moles: Record<string, number>;
+  moleFractions: Record<string, number>;
+  keyConversion: number;
+  keyFraction: number | null;
+  log10K: number[];
+}
+
+export interface Composition {
+  /** Single reaction only. */
+  extent?: number;
+  extents: number[];
+  /** All species, in the feed's unit of amount. */
+  moles: Record<string, number>;
+  /** Gas-phase mole fractions (condensed species are not in the gas). */
+  moleFractions: Record<string, number>;
+  /** (feed − outlet) / feed of the key species. */
+  keyConversion: number;
+  /** Gas-phase mole fraction of the key species; null when the key is condensed. */
+  keyFraction: number | null;
+  /** log10 K of each reaction of the set at this T. */
+  log10K: number[];
+  converged: boolean;
+  diagnostics: { iterations: number; residual: number; atBound: boolean[] };
+  sigma?: CompositionSigma;
+}
+
+export interface EquilibriumPoint extends Composition {
+  tK: number;
+  naive: Composition;
+  /** naive.keyFraction − keyFraction (0 when the key is condensed). */
+  keyFractionDiff: number;
+  /** |keyFractionDiff| exceeds the 1σ of the corrected key fraction. */
+  naiveExceedsUncertainty?: boolean;
+}
+
+export interface EquilibriumInfo {
+  reactions: string[];
+  key: string;
+  pressureBar: number;
+  feedUnit: string;
+  feed: Record<string, number>;
+  /** Species of the set and the inert ones that only ride along. */
+  species: { key: string; role: "reacting" | "inert" }[];
+  /** Temperatures at which the naive key fraction differs from the corrected one by more than its 1σ. */
+  naiveExceedsUncertaintyK?: number[];
+}
+
+interface SetSpecies {
+  key: string;
+  reacting: boolean;
+  phase?: string;
+  model?: SpeciesModel;
+  u: SpeciesUncertainty | null;
+  /** Gas at every T unless condensed by its marker or its lowest-G phase. */
+  grid?: TermGrid;
+  ref?: { hJ: number; sJ: number; phase: string };
+}
+
+export interface EquilibriumInput {
+  equilibrium: {
+    feed: Record<string, number>;
+    feedUnit?: string;
+    pressureBar?: number | string;
+    key?: string;
+    reactions?: string[];
+  };
+  reaction: string;
+  species: Record<string, ParsedSpecies>;
+  T: Float64Array;
+  referenceK: number;
+  models: Map<string, SpeciesModel>;
+  grids: Map<string, TermGrid>;
+  buildModel: (key: string) => SpeciesModel;
+}
+
+const has = (o: object, k: string) => Object.prototype.hasOwnProperty.call(o, k);
+
+/**
+ * Solve the equilibrium at every grid temperature (corrected and naive), with uncertainty
+ * where species carry one. Refuses dependent reaction sets, empty feeds, unknown keys and
+ * non-positive pressures with exact messages.
+ */
+export function equilibriumOnGrid(input: EquilibriumInput): {
+  points: EquilibriumPoint[];
+  info: EquilibriumInfo;
+  warnings: EngineWarning[];
+} {
+  const eq = input.equilibrium;
+  const set = eq.reactions !== undefined;
+  const field = set ? "equilibrium.reactions" : "reaction";
+  const texts = eq.reactions ?? [input.reaction];
+  const parsed = texts.map((text, j) => {
+    const r = parseReaction(text);
+    for (const t of r.terms) {
+      if (!has(input.species, t.key)) {
+        refuse("missing-species", `species "${t.key}" is used in ${set ? `${field}[${j}]` : "the reaction"} but has no entry in species`, { species: t.key });
+      }
+    }
+    try {
+      checkBalance(r.terms);
+    } catch (e) {
+      if (e instanceof EngineRefusal && set) refuse(e.code, `${field}[${j}]: ${e.message}`, e.details);
+      throw e;
+    }
+    return r;
+  });
+
+  // Species: those of the reactions in order of appearance, then inert feed species.
+  const list: SetSpecies[] = [];
+  const index = new Map<string, number>();
+  for (const r of parsed) {
+    for (const t of r.terms) {
+      if (index.has(t.key)) continue;
+      index.set(t.key, list.length);
+      list.push({ key: t.key, reacting: true, phase: t.phase, u: parseUncertainty(t.key, input.species[t.key]) });
+    }
+  }
+  const formulaOf = (key: string) => parseSpeciesKey(key).formula;
+  for (const key of Object.keys(eq.feed)) {
+    if (index.has(key)) continue;
+    const twin = list.find((s) => formulaOf(s.key) === formulaOf(key));
+    if (twin) {
+      refuse(
+        "feed-key-mismatch",
+        `equilibrium.feed: "${key}" is not a species of the reactions (did you mean "${twin.key}"?); a feed key must match the reaction's key exactly`,
+        { key, suggestion: twin.key },
+      );
+    }
+    index.set(key, list.length);
+    list.push({ key, reacting: false, phase: parseSpeciesKey(key).phase, u: null });
+  }
+  const S = list.length;
+  const nu = parsed.map((r) => {
+    const row = new Array(S).fill(0);
+    for (const t of r.terms) row[index.get(t.key)!] = t.nu;
+    return row;
+  });
+  if (set && nu.length > 1) checkIndependent(nu, texts, field);
+
+  const n0 = new Float64Array(S);
+  for (const [key, v] of Object.entries(eq.feed)) n0[index.get(key)!] = v;
+  if (!n0.some((v) => v > 0)) {
+    refuse("empty-feed", "equilibrium.feed: every amount is 0; give at least one species a positive amount");
+  }
+  const pressureBar = eq.pressureBar === undefined ? 1 : parsePressureBar(eq.pressureBar, "equilibrium.pressureBar");
+  if (!(pressureBar > 0)) {
+    refuse("nonpositive-pressure", `equilibrium.pressureBar: the pressure must be above 0 bar (got ${fmt(pressureBar)} bar)`);
+  }
+  let key = eq.key;
+  if (key !== undefined) {
+    if (!index.has(key)) {
+      refuse("invalid-key", `equilibrium.key: "${key}" is neither in the feed nor in the reactions`, { key });
+    }
+    if (!(n0[index.get(key)!] > 0)) {
+      refuse("invalid-key", `equilibrium.key: "${key}" has no amount in the feed, so its conversion is undefined`, { key });
+    }
+  } else {
+    const first = parsed[0].terms.find((t) => t.nu < 0 && n0[index.get(t.key)!] > 0);
+    key = first?.key ?? list.find((s, i) => n0[i] > 0)!.key;
+  }
+  const k = index.get(key)!;
+
+  if (nu.length > 1) {
+    const probe = interiorStart({ n0, nu, gas: new Array(S).fill(true), g: new Float64Array(S), lnP: 0 });
+    if (probe.absent.length > 0) {
+      const names = probe.absent.map((i) => `"${list[i].key}"`).join(", ");
+      refuse(
+        "unreachable-species",
+        `equilibrium.feed: the reactions cannot form ${names} from this feed, so the set has no solution with every species present; add ${probe.absent.length > 1 ? "them" : "it"} to the feed or drop the reactions that need ${probe.absent.length > 1 ? "them" : "it"}`,
+        { species: probe.absent.map((i) => list[i].key) },
+      );
+    }
+  }
+
+  const { T, referenceK } = input;
+  const n = T.length;
+  const warnings: EngineWarning[] = [];
+  for (const sp of list) {
+    if (!sp.reacting) continue;
+    let model = input.models.get(sp.key);
+    if (!model) {
+      model = input.buildModel(sp.key);
+      input.models.set(sp.key, model);
+    }
+    sp.model = model;
+    let grid = input.grids.get(sp.key);
+    if (!grid) {
+      grid = termOnGrid(model, sp.phase, T, model.chains.size > 1);
+      input.grids.set(sp.key, grid);
+      warnings.push(...termWarnings(model, sp.phase, T, grid, referenceK));
+    }
+    sp.grid = grid;
+    sp.ref = termAt(model, sp.phase, referenceK);
+  }
+  const anyUncertainty = list.some((s) => s.u !== null);
+  const lnP = Math.log(pressureBar);
+
+  const points: EquilibriumPoint[] = new Array(n);
+  const exceeds: number[] = [];
+  const notConverged: number[] = [];
+  for (let t = 0; t < n; t++) {
+    const tK = T[t];
+    const RT = R * tK;
+    const gas = new Array<boolean>(S);
+    const gasNaive = new Array<boolean>(S);
+    const g = new Float64Array(S);
+    const gNaive = new Float64Array(S);
+    const sig = new Float64Array(S);
+    const sigNaive = new Float64Array(S);
+    list.forEach((sp, i) => {
+      if (!sp.reacting) {
+        gas[i] = gasNaive[i] = sp.phase === undefined || sp.phase === "g";
+        return;
+      }
+      const gr = sp.grid!;
+      const h = gr.h[t];
+      const s = gr.s[t];
+      gas[i] = gr.phases[gr.phaseIndex[t]] === "g";
+      gasNaive[i] = sp.ref!.phase === "g";
+      g[i] = (h - tK * s) / RT;
+      gNaive[i] = (sp.ref!.hJ - tK * sp.ref!.sJ) / RT;
+      if (sp.u) {
+        sig[i] = sigmaG(sp.u, tK, h, s, sp.ref!.hJ, sp.ref!.sJ) / RT;
+        sigNaive[i] = sigmaGNaive(sp.u, tK) / RT;
+      }
+    });
+    const corrected = compose({ n0, nu, gas, g, lnP }, list, k, anyUncertainty ? sig : null);
+    const naive = compose({ n0, nu, gas: gasNaive, g: gNaive, lnP }, list, k, anyUncertainty ? sigNaive : null);
+    const diff = naive.keyFraction !== null && corrected.keyFraction !== null ? naive.keyFraction - corrected.keyFraction : 0;
+    const point: EquilibriumPoint = { tK, ...corrected, naive, keyFractionDiff: diff };
+    if (anyUncertainty && corrected.sigma) {
+      const s = corrected.sigma.keyFraction ?? 0;
+      point.naiveExceedsUncertainty = Math.abs(diff) > s;
+      if (point.naiveExceedsUncertainty) exceeds.push(tK);
+    }
+    if (!corrected.converged || !naive.converged) notConverged.push(tK);
+    points[t] = point;
+  }
+  if (notConverged.length > 0) {
+    warnings.push({
+      code: "equilibrium-not-converged", tK: notConverged[0], temperaturesK: notConverged,
+      message: `the equilibrium solution did not converge at ${notConverged.length} temperature${notConverged.length > 1 ? "s" : ""} (first ${fmt(notConverged[0])} K); see diagnostics.residual`,
+    });
+  }
+  const info: EquilibriumInfo = {
+    reactions: texts,
+    key,
+    pressureBar,
+    feedUnit: eq.feedUnit ?? "mol",
+    feed: Object.fromEntries(list.map((s, i) => [s.key, n0[i]])),
+    species: list.map((s) => ({ key: s.key, role: s.reacting ? "reacting" : "inert" })),
+  };
+  if (anyUncertainty) info.naiveExceedsUncertaintyK = exceeds;
+  return { points, info, warnings };
+}
+
+/** Solve one problem and shape it; `sigma` (μ°/RT units per species) adds the linear bands. */
+function compose(p: EquilibriumProblem, list: SetSpecies[], k: number, sigma: Float64Array | null): Composition {
+  const sol: EquilibriumSolution = solveEquilibrium(p);
+  const S = list.length;
+  const m = sol.moles;
+  let ng = 0;
+  for (let i = 0; i < S; i++) if (p.gas[i]) ng += m[i];
+  const moles: Record<string, number> = {};
+  const moleFractions: Record<string, number> = {};
+  list.forEach((sp, i) => {
+    moles[sp.key] = m[i];
+    if (p.gas[i]) moleFractions[sp.key] = ng > 0 ? m[i] / ng : 0;
+  });
+  const log10K = p.nu.map((row) => -row.reduce((a, v, i) => a + v * p.g[i], 0) / LN10);
+  const out: Composition = {
+    extents: sol.extents,
+    moles,
+    moleFractions,
+    keyConversion: (p.n0[k] - m[k]) / p.n0[k],
+    keyFraction: p.gas[k] ? moleFractions[list[k].key] : null,
+    log10K,
+    converged: sol.converged,
+    diagnostics: { iterations: sol.iterations, residual: sol.residual, atBound: sol.atBound },
+  };
+  if (p.nu.length === 1) out.extent = sol.extents[0];
+  if (sigma) {
+    // dn_i/dg_q = Σ_j ν_ji · dξ_j/dg_q
+    const dn = Array.from({ length: S }, (_, i) =>
+      Array.from({ length: S }, (_, q) => p.nu.reduce((a, row, j) => a + row[i] * sol.sensitivity[j][q], 0)),
+    );
+    const dng = Array.from({ length: S }, (_, q) => dn.reduce((a, row, i) => a + (p.gas[i] ? row[q] : 0), 0));
+    const norm = (v: (q: number) => number) => {
+      let s = 0;
+      for (let q = 0; q < S; q++) s += (v(q) * sigma[q]) ** 2;
+      return Math.sqrt(s);
+    };
+    const sMoles: Record<string, number> = {};
+    const sFractions: Record<string, number> = {};
+    list.forEach((sp, i) => {
+      sMoles[sp.key] = norm((q) => dn[i][q]);
+      if (p.gas[i] && ng > 0) sFractions[sp.key] = norm((q) => (dn[i][q] - (m[i] / ng) * dng[q]) / ng);
+    });
+    out.sigma = {
+      extents: sol.sensitivity.map((row) => norm((q) => row[q])),
+      moles: sMoles,
+      moleFractions: sFractions,
+      keyConversion: sMoles[list[k].key] / p.n0[k],
+      keyFraction: p.gas[k] ? (sFractions[list[k].key] ?? 0) : null,
+      log10K: p.nu.map((row) => norm((q) => row[q]) / LN10),
+    };
+  }
+  return out;
+}
