@@ -71,9 +71,18 @@ const isNumberCell = (s: string) => /^\s*[-+]?(\d+([.,]\d*)?|[.,]\d+)([eE][-+]?\
 /** A decimal comma is accepted when the delimiter is not a comma (European spreadsheets). */
 const toNumber = (s: string) => Number(s.trim().replace(",", "."));
 
-/** Split text into rows (papaparse guesses the delimiter: comma, tab, semicolon). */
-export function csvRows(text: string): string[][] {
-  return Papa.parse<string[]>(text, { delimiter: "", skipEmptyLines: false }).data;
+/** Tab for a spreadsheet paste, semicolon for European CSV, else comma; decided on the first data lines. */
+export function guessDelimiter(text: string): string {
+  const sample = text.split(/\r?\n/).filter((l) => l.trim() && !l.trim().startsWith("#")).slice(0, 5).join("\n");
+  if (sample.includes("\t")) return "\t";
+  if (sample.includes(";") && !sample.includes(",")) return ";";
+  if (sample.includes(";") && /\d,\d/.test(sample) && sample.split(";").length > sample.split(",").length / 2) return ";";
+  return ",";
+}
+
+/** Split text into rows with papaparse (quoted fields, CRLF), keeping blank lines so row numbers match the file. */
+export function csvRows(text: string, delimiter = guessDelimiter(text)): string[][] {
+  return Papa.parse<string[]>(text, { delimiter, skipEmptyLines: false }).data;
 }
 
 /** Refusals about the whole file, before its rows are read. */
