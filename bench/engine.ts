@@ -8,30 +8,12 @@ import { spawnSync } from "node:child_process";
 import fs from "node:fs";
 import os from "node:os";
 import path from "node:path";
-import { fileURLToPath } from "node:url";
 import { evaluate, fitCp, R, speciesSchema, type SegmentInput, type SpeciesInput } from "@/lib/thermo";
 import { buildSpeciesModel, termOnGrid } from "@/lib/thermo/species";
-
-const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
-const refFile = path.resolve(root, "../shared/reference/cp-coefficients.json");
-if (!fs.existsSync(refFile)) {
-  console.error(`missing reference file ${refFile}`);
-  process.exit(1);
-}
-type Rec = { species: string; phase: string; form: string; tmin: number; tmid?: number; tmax: number; coeffs: { low: number[]; high: number[] }; source: string };
-const recs = JSON.parse(fs.readFileSync(refFile, "utf8")) as Rec[];
-const burcat = (sp: string): SpeciesInput => {
-  const r = recs.find((x) => x.species === sp && x.phase === "g" && x.form === "nasa7" && x.source.startsWith("Goos"))!;
-  return {
-    segments: [
-      { phase: "g", form: "nasa7", tminK: r.tmin, tmaxK: r.tmid!, coeffs: r.coeffs.low },
-      { phase: "g", form: "nasa7", tminK: r.tmid!, tmaxK: r.tmax, coeffs: r.coeffs.high },
-    ],
-  };
-};
+import { nasa7Gas, root } from "./reference";
 
 const KEYS = ["CH4(g)", "H2O(g)", "CO(g)", "H2(g)"];
-const species: Record<string, SpeciesInput> = Object.fromEntries(KEYS.map((k) => [k, burcat(k.replace("(g)", ""))]));
+const species: Record<string, SpeciesInput> = Object.fromEntries(KEYS.map((k) => [k, nasa7Gas(k.replace("(g)", ""))]));
 const N = 10000;
 const grid = Float64Array.from({ length: N }, (_, i) => 300 + (1200 * i) / (N - 1));
 const referenceK = 298.15;
