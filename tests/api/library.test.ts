@@ -3,11 +3,14 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import * as datasets from "@/app/api/v1/datasets/route";
 import * as exportRoute from "@/app/api/v1/library/export/route";
 import * as cpModels from "@/app/api/v1/models/route";
-import * as version from "@/app/api/v1/versions/[id]/route";
+import * as versionRoute from "@/app/api/v1/versions/[id]/route";
 import { closeDb } from "@/lib/db";
 import { signInAs } from "../helpers/actors";
 import { freshDatabase, tableCounts } from "../helpers/db";
 import { bodyOf, ctx, jsonRequest } from "../helpers/request";
+import type { Handler } from "./matrix/types";
+
+const version = { PATCH: versionRoute.PATCH as Handler };
 
 beforeAll(() => freshDatabase());
 afterAll(() => closeDb());

@@ -7,6 +7,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb, models, registry } from "@/lib/db";
 import { AppError } from "@/lib/errors";
 import * as lib from "@/lib/services/library";
+import type { ListModelsQuery } from "@/lib/validation/library";
 import { actorOf } from "../helpers/actors";
 import { freshDatabase, tableCounts } from "../helpers/db";
 
@@ -188,7 +189,7 @@ describe("visibility", () => {
 
   it("the list shows approved versions by default and open drafts marked; it searches, filters and pages on the server", async () => {
     const erin = await actorOf("engineer");
-    const q = { q: "", phase: "", form: "", status: "current" as const, scope: "all" as const, page: 1, pageSize: 10 };
+    const q: ListModelsQuery = { q: "", phase: "", form: "", status: "current", scope: "all", page: 1, pageSize: 10 };
     const page1 = await lib.listModels(erin, q);
     expect(page1.items).toHaveLength(10);
     expect(page1.pages).toBe(Math.ceil(page1.total / 10));
