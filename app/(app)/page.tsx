@@ -1,11 +1,16 @@
+import Link from "next/link";
+import { StatusBadge } from "@/components/cases/status-badge";
 import { Badge } from "@/components/ui/badge";
 import { Card, PageHeader } from "@/components/ui/card";
 import { ROLE_LABELS, can } from "@/lib/auth/permissions";
 import { requireUser } from "@/lib/auth/guards";
 import { getActor } from "@/lib/auth/session";
+import { homeCounts } from "@/lib/services/reviews";
 
 export default async function HomePage() {
   const actor = requireUser(await getActor());
+  const waiting = await homeCounts(actor);
+  const link = "font-medium underline decoration-ink-line underline-offset-2 hover:decoration-ink";
   return (
     <>
       <PageHeader
@@ -27,6 +32,63 @@ export default async function HomePage() {
             {can(actor.role, "cases.review") && <li>Compare naive and corrected results on submitted cases and sign them off.</li>}
             {can(actor.role, "members.manage") && <li>Manage members, roles and invitations for {actor.teamName}.</li>}
           </ul>
+        </Card>
+      </div>
+      <h2 className="mb-3 mt-8 text-lg font-semibold">Waiting for you</h2>
+      <div className="grid gap-4 md:grid-cols-2 lg:grid-cols-4">
+        {can(actor.role, "cases.create") && (
+          <Card title={<span data-testid="home-drafts">My drafts and returned cases ({waiting.drafts.length})</span>}>
+            {waiting.drafts.length === 0 ? (
+              <p className="text-sm text-ink-muted">Nothing open. <Link className={link} href="/cases/new">Start a case</Link>.</p>
+            ) : (
+              <ul className="space-y-2 text-sm">
+                {waiting.drafts.slice(0, 6).map((c) => (
+                  <li key={c.id}>
+                    <Link className={link} href={`/cases/${c.id}`}>{c.title}</Link> <StatusBadge status={c.status} />
+                  </li>
+                ))}
+              </ul>
+            )}
+          </Card>
+        )}
+        {can(actor.role, "cases.review") && (
+          <Card title={<span data-testid="home-reviews">Cases waiting for my review ({waiting.reviews.length})</span>}>
+            {waiting.reviews.length === 0 ? (
+              <p className="text-sm text-ink-muted">The review queue is empty.</p>
+            ) : (
+              <ul className="space-y-2 text-sm">
+                {waiting.reviews.slice(0, 6).map((c) => (
+                  <li key={c.id}>
+                    <Link className={link} href={`/cases/${c.id}`}>{c.title}</Link>
+                    <span className="block text-xs text-ink-muted">{c.authorName} · r{c.latestRevision}</span>
+                  </li>
+                ))}
+              </ul>
+            )}
+          </Card>
+        )}
+        {can(actor.role, "models.decide") && (
+          <Card title={<span data-testid="home-proposals">Proposals waiting for my approval ({waiting.proposals})</span>}>
+            <p className="text-sm text-ink-muted">
+              {waiting.proposals === 0 ? "No proposed model versions from colleagues." : `${waiting.proposals} proposed model version${waiting.proposals === 1 ? "" : "s"} from colleagues.`}{" "}
+              <Link className={link} href="/library">Open the library</Link>.
+            </p>
+          </Card>
+        )}
+        <Card title={<span data-testid="home-decisions">Recent decisions ({waiting.decisions.count30d} in 30 days)</span>}>
+          {waiting.decisions.items.length === 0 ? (
+            <p className="text-sm text-ink-muted">No review decisions yet.</p>
+          ) : (
+            <ul className="space-y-2 text-sm">
+              {waiting.decisions.items.map((d) => (
+                <li key={d.id}>
+                  <Link className={link} href={`/cases/${d.caseId}`}>{d.caseTitle}</Link>{" "}
+                  <span className={d.decision === "approved" ? "text-moss-700" : "text-flag-700"}>{d.decision}</span>
+                  <span className="block text-xs text-ink-muted">by {d.reviewerName}, r{d.revision}</span>
+                </li>
+              ))}
+            </ul>
+          )}
         </Card>
       </div>
     </>

@@ -20,8 +20,8 @@ beforeAll(async () => {
 afterAll(() => closeDb());
 
 async function both(id: number, query = "") {
-  const results = (await bodyOf(await resultsRoute.GET(jsonRequest("GET", `/api/v1/cases/${id}/results${query}`), ctx({ id: String(id) })))) as ResultsDto;
-  const response = await exportRoute.GET(jsonRequest("GET", `/api/v1/cases/${id}/export${query}`), ctx({ id: String(id) }));
+  const results = (await bodyOf(await resultsRoute.GET(jsonRequest("GET", `/api/v1/cases/${id}/results${query}`), ctx({ id: String(id) }) as { params: Promise<{ id: string }> }))) as ResultsDto;
+  const response = await exportRoute.GET(jsonRequest("GET", `/api/v1/cases/${id}/export${query}`), ctx({ id: String(id) }) as { params: Promise<{ id: string }> });
   expect(response.status).toBe(200);
   expect(response.headers.get("content-type")).toMatch(/^text\/csv/);
   return { results, csv: await response.text(), disposition: response.headers.get("content-disposition") };

@@ -1,16 +1,92 @@
+import Link from "next/link";
+import { StatusBadge } from "@/components/cases/status-badge";
+import { buttonClass } from "@/components/ui/button";
 import { Card, PageHeader } from "@/components/ui/card";
+import { can } from "@/lib/auth/permissions";
+import { requireUser } from "@/lib/auth/guards";
+import { getActor } from "@/lib/auth/session";
+import { listCases } from "@/lib/services/cases";
+import { CASE_STATUSES, type CaseStatus } from "@/lib/validation/cases";
 
 export const metadata = { title: "Cases" };
 
-export default function CasesPage() {
+const FILTERS: { key: CaseStatus | "all" | "mine"; label: string }[] = [
+  { key: "all", label: "All" },
+  { key: "mine", label: "Mine" },
+  { key: "draft", label: "Drafts" },
+  { key: "submitted", label: "Awaiting review" },
+  { key: "returned", label: "Returned" },
+  { key: "approved", label: "Approved" },
+];
+
+export default async function CasesPage({ searchParams }: { searchParams: Promise<{ show?: string }> }) {
+  const actor = requireUser(await getActor());
+  const show = (await searchParams).show ?? "all";
+  const status = (CASE_STATUSES as readonly string[]).includes(show) ? (show as CaseStatus) : undefined;
+  const cases = await listCases(actor, { status, mine: show === "mine" });
   return (
     <>
-      <PageHeader title="Cases" lead="Reactions and phase changes evaluated over a temperature span, corrected against naive." />
+      <PageHeader
+        title="Cases"
+        lead="Reactions and phase changes evaluated over a temperature span, corrected against naive."
+        action={
+          can(actor.role, "cases.create") ? (
+            <Link href="/cases/new" className={buttonClass("primary")}>
+              New case
+            </Link>
+          ) : undefined
+        }
+      />
+      <nav aria-label="Filter cases" className="mb-4 flex flex-wrap gap-2 text-sm">
+        {FILTERS.map((f) => (
+          <Link
+            key={f.key}
+            href={f.key === "all" ? "/cases" : `/cases?show=${f.key}`}
+            aria-current={show === f.key ? "page" : undefined}
+            className={`rounded-full px-3 py-1 ring-1 ring-inset ${show === f.key ? "bg-ink text-paper ring-ink" : "bg-white text-ink-soft ring-ink-line hover:bg-paper-deep"}`}
+          >
+            {f.label}
+          </Link>
+        ))}
+      </nav>
       <Card>
-        <p className="text-sm text-ink-soft">
-          The case builder arrives after the library: pick species and pinned model versions, set the span and tolerance,
-          and see ΔG(T), K(T) and crossover temperatures with the naive shortcut drawn beside them.
-        </p>
+        {cases.length === 0 ? (
+          <p className="text-sm text-ink-muted">No cases here yet.</p>
+        ) : (
+          <div className="overflow-x-auto">
+            <table className="min-w-full text-sm" data-testid="case-list">
+              <thead className="text-left text-xs text-ink-muted">
+                <tr>
+                  <th className="py-2 pr-3 font-medium">Case</th>
+                  <th className="py-2 pr-3 font-medium">Reaction</th>
+                  <th className="py-2 pr-3 font-medium">Span</th>
+                  <th className="py-2 pr-3 font-medium">Status</th>
+                  <th className="py-2 pr-3 font-medium">Author</th>
+                  <th className="py-2 font-medium">Updated</th>
+                </tr>
+              </thead>
+              <tbody className="divide-y divide-ink-line/60">
+                {cases.map((c) => (
+                  <tr key={c.id}>
+                    <td className="py-2 pr-3 font-medium">
+                      <Link className="underline decoration-ink-line underline-offset-2 hover:decoration-ink" href={`/cases/${c.id}`}>
+                        {c.title}
+                      </Link>
+                    </td>
+                    <td className="py-2 pr-3 whitespace-nowrap">{c.reaction}</td>
+                    <td className="py-2 pr-3 text-xs text-ink-muted">{c.span}</td>
+                    <td className="py-2 pr-3">
+                      <StatusBadge status={c.status} />
+                      {c.latestRevision ? <span className="ml-1 text-xs text-ink-muted">r{c.latestRevision}</span> : null}
+                    </td>
+                    <td className="py-2 pr-3 text-ink-soft">{c.authorName}</td>
+                    <td className="py-2 text-xs text-ink-muted">{c.updatedAt.slice(0, 10)}</td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </div>
+        )}
       </Card>
     </>
   );

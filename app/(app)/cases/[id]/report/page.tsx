@@ -1,0 +1,156 @@
+import { notFound } from "next/navigation";
+import { temperaturesText } from "@/components/cases/inputs-card";
+import { Caution } from "@/components/results/caution";
+import { PrintButton } from "@/components/results/print-button";
+import { ResultCharts } from "@/components/results/result-charts";
+import { ResultSummary, WarningList } from "@/components/results/result-summary";
+import { requireUser } from "@/lib/auth/guards";
+import { getActor } from "@/lib/auth/session";
+import { fixed, sci } from "@/lib/cases/format";
+import { formatQuantity } from "@/lib/cases/temperature";
+import { AppError } from "@/lib/errors";
+import { getResults } from "@/lib/services/cases";
+
+export const metadata = { title: "Case report" };
+
+type Props = { params: Promise<{ id: string }>; searchParams: Promise<{ revision?: string }> };
+
+/** At most this many rows in the printed table summary; the CSV carries every point. */
+const SUMMARY_ROWS = 16;
+
+export default async function ReportPage({ params, searchParams }: Props) {
+  const actor = requireUser(await getActor());
+  const id = Number((await params).id);
+  const rev = (await searchParams).revision;
+  const revision = rev && /^\d+$/.test(rev) ? Number(rev) : undefined;
+  if (!Number.isInteger(id) || id <= 0) notFound();
+  const data = await getResults(actor, id, revision).catch((e) => {
+    if (e instanceof AppError && e.status === 404) notFound();
+    throw e;
+  });
+  const r = data.result;
+  const pts = r.points;
+  const stride = Math.max(1, Math.ceil(pts.length / SUMMARY_ROWS));
+  const rows = pts.filter((_, i) => i % stride === 0 || i === pts.length - 1);
+  const worst = pts.reduce((a, p) => (Math.abs(p.diffKJ) > Math.abs(a.diffKJ) ? p : a), pts[0]);
+  const beyond = pts.filter((p) => p.exceedsTolerance).length;
+  const coeff = new Map(data.inputs.terms.map((t) => [t.phase ? `${t.formula}(${t.phase})` : t.formula, t.coefficient]));
+  const th = "border-b border-ink-line px-2 py-1 text-right font-medium";
+  const td = "px-2 py-0.5 text-right tabular";
+  return (
+    <article className="mx-auto max-w-4xl space-y-5 bg-white p-6 text-sm shadow-card print:max-w-none print:p-0 print:shadow-none" data-testid="report">
+      <style>{`@page { size: A4; margin: 14mm; } @media print { main { padding: 0 !important; max-width: none !important; } }`}</style>
+      <header className="flex items-start justify-between gap-4 border-b border-ink pb-3">
+        <div>
+          <p className="text-xs uppercase tracking-wide text-ink-muted">Heatpath case report · {actor.teamName}</p>
+          <h1 className="text-xl font-semibold">{data.title}</h1>
+          <p className="text-base">{data.reaction}</p>
+        </div>
+        <PrintButton />
+      </header>
+
+      <section className="grid grid-cols-2 gap-4 text-xs">
+        <div>
+          <h2 className="mb-1 text-sm font-semibold">Snapshot</h2>
+          {data.source === "snapshot" ? (
+            <p>
+              Revision {data.revision}, frozen {data.frozenAt?.slice(0, 16).replace("T", " ")} UTC, case status {data.status}.
+              <br />
+              SHA-256 of the canonical JSON (RFC 8785): <code className="break-all" data-testid="report-hash">{data.hash}</code>
+            </p>
+          ) : (
+            <p className="font-semibold text-flag-700">Live draft evaluation: not frozen, not reviewed. Submit the case to freeze a snapshot.</p>
+          )}
+          <p>Engine {r.engine.version}.</p>
+        </div>
+        <div>
+          <h2 className="mb-1 text-sm font-semibold">Inputs</h2>
+          <p>Temperatures: {temperaturesText(data.inputs.temperatures)} ({pts.length.toLocaleString("en")} points)</p>
+          <p>Reference temperature: {formatQuantity(data.inputs.referenceK)}</p>
+          <p>
+            Tolerance: {data.inputs.toleranceKJ} kJ/mol on ΔrG{data.inputs.toleranceKFactor ? `, factor ${data.inputs.toleranceKFactor} on K` : ""}
+          </p>
+          {data.inputs.notes && <p className="mt-1 whitespace-pre-wrap text-ink-soft">{data.inputs.notes}</p>}
+        </div>
+      </section>
+
+      <section>
+        <h2 className="mb-1 text-sm font-semibold">Pinned model versions</h2>
+        <table className="w-full text-xs">
+          <thead>
+            <tr className="text-left">
+              <th className="border-b border-ink-line py-1 pr-2 font-medium">ν</th>
+              <th className="border-b border-ink-line py-1 pr-2 font-medium">Species</th>
+              <th className="border-b border-ink-line py-1 pr-2 font-medium">Model and version</th>
+              <th className="border-b border-ink-line py-1 font-medium">Citation</th>
+            </tr>
+          </thead>
+          <tbody>
+            {data.pins.map((p) => (
+              <tr key={p.key} className="align-top">
+                <td className="py-1 pr-2 tabular">{coeff.get(p.key)}</td>
+                <td className="py-1 pr-2 font-medium">{p.key}</td>
+                <td className="py-1 pr-2">
+                  {p.modelName} · v{p.versionNumber} · <span className={p.status === "approved" ? "" : "font-semibold text-flag-700"}>{p.status}</span>
+                </td>
+                <td className="py-1 text-ink-soft">{p.citation}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </section>
+
+      <Caution />
+
+      <section>
+        <h2 className="mb-2 text-sm font-semibold">Summary</h2>
+        <ResultSummary result={r} />
+        <p className="mt-2 text-xs">
+          Largest naive − corrected difference: <strong>{fixed(worst?.diffKJ, 3)} kJ/mol</strong> at {fixed(worst?.tK, 2)} K; {beyond} of {pts.length} points beyond tolerance.
+        </p>
+      </section>
+
+      <section>
+        <ResultCharts result={r} toleranceKJ={data.inputs.toleranceKJ} compact />
+      </section>
+
+      <section className="break-inside-avoid">
+        <h2 className="mb-1 text-sm font-semibold">Table summary{rows.length < pts.length ? ` (every ${stride}th point and the last; the CSV export has all ${pts.length})` : ""}</h2>
+        <table className="w-full text-xs" data-testid="report-table">
+          <thead>
+            <tr>
+              <th className={th}>T (K)</th>
+              <th className={th}>ΔrH (kJ/mol)</th>
+              <th className={th}>ΔrS (J/(mol·K))</th>
+              <th className={th}>ΔrG corrected (kJ/mol)</th>
+              <th className={th}>ΔrG naive (kJ/mol)</th>
+              <th className={th}>naive − corrected (kJ/mol)</th>
+              <th className={th}>K</th>
+            </tr>
+          </thead>
+          <tbody>
+            {rows.map((p) => (
+              <tr key={p.tK} className={p.exceedsTolerance ? "font-semibold" : undefined}>
+                <td className={td}>{fixed(p.tK, 2)}</td>
+                <td className={td}>{fixed(p.dHkJ, 3)}</td>
+                <td className={td}>{fixed(p.dSJ, 3)}</td>
+                <td className={td}>{fixed(p.dGkJ, 3)}</td>
+                <td className={td}>{fixed(p.naiveDGkJ, 3)}</td>
+                <td className={td}>{fixed(p.diffKJ, 3)}{p.exceedsTolerance ? " *" : ""}</td>
+                <td className={td}>{sci(p.K, 4)}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+        <p className="mt-1 text-xs text-ink-muted">* beyond tolerance. H on the formation basis; G = H − TS of each species is not ΔfG°(T).</p>
+      </section>
+
+      <section className="break-inside-avoid">
+        <h2 className="mb-1 text-sm font-semibold">Warnings ({r.warnings.length})</h2>
+        <WarningList warnings={r.warnings} />
+      </section>
+
+      <Caution />
+    </article>
+  );
+}

@@ -1,0 +1,124 @@
+"use client";
+
+import { CHART_COLORS, LineSeriesChart } from "@/components/charts/line-series-chart";
+import type { EvaluateResult } from "@/lib/thermo/evaluate";
+import { useChartSeries } from "./series";
+
+/** The result's charts: ΔrG corrected vs naive, their difference, K, ln K vs 1/T, ΔrH and ΔrS. */
+export function ResultCharts({ result, toleranceKJ, compact = false }: { result: EvaluateResult; toleranceKJ: number; compact?: boolean }) {
+  const s = useChartSeries(result);
+  if (!s) return null;
+  const h = compact ? 210 : 280;
+  const panel = "rounded-lg border border-ink-line bg-white p-3 break-inside-avoid print:border-ink-line";
+  const title = "mb-1 text-sm font-semibold text-ink";
+  return (
+    <div className="space-y-4">
+      {s.drawn < s.total && (
+        <p className="text-xs text-ink-muted" data-testid="downsample-note">
+          Charts draw {s.drawn.toLocaleString("en")} of {s.total.toLocaleString("en")} points (extremes kept); the table and the CSV carry every point.
+        </p>
+      )}
+      <section className={panel}>
+        <h3 className={title}>ΔrG(T): corrected against naive</h3>
+        <p className="mb-2 text-xs text-ink-muted">
+          Solid ember: integrated heat capacities. Dashed frost: ΔrH(Tref) − T·ΔrS(Tref). Shaded: the difference; red stretches are beyond tolerance.
+        </p>
+        <LineSeriesChart
+          testId="chart-dg"
+          ariaLabel="Reaction Gibbs energy against temperature, corrected and naive"
+          data={s.dG}
+          xKey="tK"
+          xLabel="T (K)"
+          yLabel="ΔrG (kJ/mol)"
+          band={{ key: "band", name: "difference", color: CHART_COLORS.ember }}
+          series={[
+            { key: "corrected", name: "corrected", color: CHART_COLORS.ember, width: 2.5 },
+            { key: "naive", name: "naive", color: CHART_COLORS.frost, dashed: true },
+          ]}
+          marksX={s.marks}
+          marksY={[{ y: 0, color: CHART_COLORS.muted }]}
+          stretches={s.stretches}
+          stretchLabel="beyond tolerance"
+          height={compact ? 260 : 340}
+        />
+      </section>
+      <div className="grid gap-4 md:grid-cols-2 print:grid-cols-2">
+        <section className={panel}>
+          <h3 className={title}>Naive − corrected</h3>
+          <LineSeriesChart
+            testId="chart-diff"
+            ariaLabel="Difference between naive and corrected reaction Gibbs energy"
+            data={s.diff}
+            xKey="tK"
+            xLabel="T (K)"
+            yLabel="difference (kJ/mol)"
+            series={[{ key: "diff", name: "naive − corrected", color: CHART_COLORS.ink }]}
+            marksY={[
+              { y: toleranceKJ, label: `+${toleranceKJ} kJ/mol`, color: CHART_COLORS.flag, dashed: true },
+              { y: -toleranceKJ, label: `−${toleranceKJ} kJ/mol`, color: CHART_COLORS.flag, dashed: true },
+            ]}
+            stretches={s.stretches}
+            height={h}
+          />
+        </section>
+        <section className={panel}>
+          <h3 className={title}>K(T), log scale</h3>
+          <LineSeriesChart
+            testId="chart-k"
+            ariaLabel="Equilibrium constant against temperature on a log axis"
+            data={s.logK}
+            xKey="tK"
+            xLabel="T (K)"
+            yLabel="K (log scale)"
+            yTicks="power10"
+            series={[
+              { key: "log10K", name: "corrected", color: CHART_COLORS.ember },
+              { key: "naiveLog10K", name: "naive", color: CHART_COLORS.frost, dashed: true },
+            ]}
+            marksY={[{ y: 0, label: "K = 1", color: CHART_COLORS.muted }]}
+            height={h}
+          />
+        </section>
+        <section className={panel}>
+          <h3 className={title}>ln K against 1/T</h3>
+          <LineSeriesChart
+            testId="chart-vant-hoff"
+            ariaLabel="Natural log of K against inverse temperature"
+            data={s.vantHoff}
+            xKey="invT"
+            xLabel="1000 / T (1/K)"
+            yLabel="ln K"
+            series={[
+              { key: "lnK", name: "corrected", color: CHART_COLORS.ember },
+              { key: "naiveLnK", name: "naive (a straight line)", color: CHART_COLORS.frost, dashed: true },
+            ]}
+            height={h}
+          />
+        </section>
+        <section className={panel}>
+          <h3 className={title}>ΔrH(T) and ΔrS(T)</h3>
+          <LineSeriesChart
+            testId="chart-dh"
+            ariaLabel="Reaction enthalpy against temperature"
+            data={s.dH}
+            xKey="tK"
+            xLabel="T (K)"
+            yLabel="ΔrH (kJ/mol)"
+            series={[{ key: "dHkJ", name: "ΔrH", color: CHART_COLORS.ember }]}
+            height={compact ? 150 : 170}
+          />
+          <LineSeriesChart
+            testId="chart-ds"
+            ariaLabel="Reaction entropy against temperature"
+            data={s.dS}
+            xKey="tK"
+            xLabel="T (K)"
+            yLabel="ΔrS (J/(mol·K))"
+            series={[{ key: "dSJ", name: "ΔrS", color: CHART_COLORS.moss }]}
+            height={compact ? 150 : 170}
+          />
+        </section>
+      </div>
+    </div>
+  );
+}

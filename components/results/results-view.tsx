@@ -1,0 +1,83 @@
+"use client";
+
+import Link from "next/link";
+import useSWR from "swr";
+import { Badge } from "@/components/ui/badge";
+import { buttonClass } from "@/components/ui/button";
+import { Card } from "@/components/ui/card";
+import type { ResultsDto } from "@/lib/services/cases";
+import { Caution } from "./caution";
+import { NumbersTable } from "./numbers-table";
+import { ResultCharts } from "./result-charts";
+import { ResultSummary, WarningList } from "./result-summary";
+
+type ApiError = { code: string; message: string };
+
+export async function fetchJson<T>(url: string): Promise<T> {
+  const res = await fetch(url, { headers: { accept: "application/json" } });
+  const body = await res.json().catch(() => null);
+  if (!res.ok) throw (body?.error as ApiError) ?? { code: "http", message: `Request failed (${res.status}).` };
+  return body as T;
+}
+
+/** The results of a case, fetched from the API: the stored snapshot once submitted, a live evaluation while a draft. */
+export function ResultsView({ caseId, revision }: { caseId: number; revision?: number }) {
+  const q = revision ? `?revision=${revision}` : "";
+  const { data, error, isLoading } = useSWR<ResultsDto, ApiError>(`/api/v1/cases/${caseId}/results${q}`, fetchJson, { revalidateOnFocus: false });
+
+  if (isLoading) return <Card><p className="text-sm text-ink-muted">Evaluating…</p></Card>;
+  if (error || !data) {
+    return (
+      <Card title="Results">
+        <div role="alert" className="rounded-md border border-flag-600/30 bg-flag-50 px-3 py-2 text-sm text-flag-700" data-testid="results-error">
+          <code className="mr-2 font-semibold">{error?.code ?? "error"}</code>
+          {error?.message ?? "The results could not be loaded."}
+        </div>
+        <Caution className="mt-3" />
+      </Card>
+    );
+  }
+  const r = data.result;
+  return (
+    <div className="space-y-4" data-testid="results">
+      <div className="flex flex-wrap items-center justify-between gap-3">
+        <div className="flex flex-wrap items-center gap-2 text-sm" data-testid="results-source">
+          {data.source === "snapshot" ? (
+            <>
+              <Badge tone="moss">Frozen snapshot · revision {data.revision}</Badge>
+              <span className="text-xs text-ink-muted">
+                hash <code data-testid="snapshot-hash">{data.hash}</code>
+              </span>
+            </>
+          ) : (
+            <>
+              <Badge tone="frost">Live evaluation</Badge>
+              <span className="text-xs text-ink-muted">computed now from the pinned versions; submitting freezes it</span>
+            </>
+          )}
+          <span className="text-xs text-ink-muted">engine {r.engine.version}</span>
+        </div>
+        <div className="no-print flex gap-2">
+          <a className={buttonClass("secondary")} href={`/api/v1/cases/${caseId}/export${q}`} download data-testid="csv-export">
+            Export CSV
+          </a>
+          <Link className={buttonClass("secondary")} href={`/cases/${caseId}/report${q}`}>
+            Printable report
+          </Link>
+        </div>
+      </div>
+      <Caution />
+      <Card title="What the numbers say">
+        <ResultSummary result={r} />
+      </Card>
+      <ResultCharts result={r} toleranceKJ={data.inputs.toleranceKJ} />
+      <Card title={`Warnings (${r.warnings.length})`}>
+        <WarningList warnings={r.warnings} />
+      </Card>
+      <Card title="Numbers">
+        <NumbersTable points={r.points} />
+      </Card>
+      <Caution />
+    </div>
+  );
+}
