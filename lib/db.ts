@@ -45,11 +45,14 @@ function configureEveryConnection(sequelize: Sequelize) {
  * node-sqlite3 runs statements on libuv's small thread pool. Writers that wait
  * on the database lock there can starve the one that holds it, so within a
  * process managed transactions run one at a time; the busy timeout still
- * covers other processes (scripts, a second app server).
+ * covers other processes (scripts, a second app server). On PostgreSQL they
+ * run one at a time per process too, so one app server behaves the same on
+ * both, and are retried when they collide with another server's.
  */
-function serializeTransactions(sequelize: Sequelize) {
+function serializeTransactions(sequelize: Sequelize, retrySerializationFailures = false) {
   let tail: Promise<unknown> = Promise.resolve();
-  const original = sequelize.transaction.bind(sequelize) as (...args: unknown[]) => Promise<unknown>;
+  const bound = sequelize.transaction.bind(sequelize) as (...args: unknown[]) => Promise<unknown>;
+  const original = retrySerializationFailures ? withRetries(bound) : bound;
   const serialized = (...args: unknown[]) => {
     const managed = args.some((a) => typeof a === "function");
     if (!managed) return original(...args);
@@ -60,11 +63,46 @@ function serializeTransactions(sequelize: Sequelize) {
   (sequelize as unknown as { transaction: typeof serialized }).transaction = serialized;
 }
 
+/** PostgreSQL's codes for "run the transaction again": serialization failure, deadlock. */
+const RETRYABLE = new Set(["40001", "40P01"]);
+const MAX_ATTEMPTS = 8;
+
+function retryable(error: unknown): boolean {
+  const e = error as { parent?: { code?: string }; original?: { code?: string }; code?: string };
+  const code = e?.parent?.code ?? e?.original?.code ?? e?.code;
+  return typeof code === "string" && RETRYABLE.has(code);
+}
+
+/**
+ * Several app servers share one PostgreSQL: managed transactions run
+ * SERIALIZABLE, and one that loses a race to another server is rolled back
+ * whole and run again (a short random pause between tries), so it sees the
+ * winner's commit just as it would have on SQLite.
+ */
+function withRetries(transaction: (...args: unknown[]) => Promise<unknown>) {
+  return async (...args: unknown[]) => {
+    for (let attempt = 1; ; attempt += 1) {
+      try {
+        return await transaction(...args);
+      } catch (error) {
+        if (attempt >= MAX_ATTEMPTS || !retryable(error)) throw error;
+        await new Promise((r) => setTimeout(r, Math.random() * 10 * attempt));
+      }
+    }
+  };
+}
+
 export function createSequelize(options: { storage?: string; url?: string } = {}): Sequelize {
   const logging = env.LOG_SQL === "1" ? (sql: string) => console.log(sql) : false;
   const url = options.url ?? (options.storage ? undefined : env.DATABASE_URL);
   if (url) {
-    return new Sequelize(url, { logging, define: { underscored: true } });
+    const sequelize = new Sequelize(url, {
+      logging,
+      define: { underscored: true },
+      isolationLevel: Transaction.ISOLATION_LEVELS.SERIALIZABLE,
+    });
+    serializeTransactions(sequelize, true);
+    return sequelize;
   }
   const storage = path.resolve(/*turbopackIgnore: true*/ options.storage ?? env.DATABASE_PATH);
   const sequelize = new Sequelize({

@@ -9,6 +9,24 @@ import { cookieJar } from "./helpers/cookies";
 process.env.DATABASE_PATH ??= path.join(os.tmpdir(), `heatpath-test-${process.pid}-${crypto.randomBytes(4).toString("hex")}.sqlite`);
 process.env.HEATPATH_MODE ??= "demo";
 
+// `npm run test:postgres` passes a PostgreSQL admin URL instead: each test file
+// gets its own new database there, created before lib/env is first imported.
+const pgAdminUrl = process.env.HEATPATH_TEST_PG_ADMIN_URL;
+if (pgAdminUrl) {
+  const { default: pg } = await import("pg");
+  const name = `heatpath_test_${process.pid}_${crypto.randomBytes(4).toString("hex")}`;
+  const admin = new pg.Client({ connectionString: pgAdminUrl });
+  await admin.connect();
+  try {
+    await admin.query(`CREATE DATABASE "${name}"`);
+  } finally {
+    await admin.end();
+  }
+  const url = new URL(pgAdminUrl);
+  url.pathname = `/${name}`;
+  process.env.DATABASE_URL = url.toString();
+}
+
 // A free loopback port for this file's mail catcher, should a test start one.
 process.env.MAIL_CATCHER_PORT ??= String(
   await new Promise<number>((resolve) => {

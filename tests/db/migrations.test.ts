@@ -2,7 +2,7 @@ import { QueryTypes } from "sequelize";
 import { afterAll, describe, expect, it } from "vitest";
 import { closeDb, registry } from "@/lib/db";
 import { migrateDownAll, migrator } from "@/lib/migrate";
-import { freshDatabase } from "../helpers/db";
+import { freshDatabase, isPostgres, isSqlite } from "../helpers/db";
 
 const FOUNDATION_TABLES = ["audit_events", "invitations", "memberships", "teams", "users"];
 
@@ -30,8 +30,9 @@ describe("migrations", () => {
   });
 });
 
-describe("SQLite connections", () => {
-  it("use WAL, foreign keys and a busy timeout on every connection, including transaction ones", async () => {
+describe("database connections", () => {
+  // PRAGMAs are SQLite's; PostgreSQL has no journal mode or busy timeout to check.
+  it.runIf(isSqlite)("use WAL, foreign keys and a busy timeout on every connection, including transaction ones (SQLite only)", async () => {
     const { sequelize } = registry();
     const [mode] = await sequelize.query<{ journal_mode: string }>("PRAGMA journal_mode", { type: QueryTypes.SELECT });
     expect(mode.journal_mode).toBe("wal");
@@ -43,7 +44,15 @@ describe("SQLite connections", () => {
     });
   });
 
-  it("queue concurrent write transactions instead of failing with SQLITE_BUSY", async () => {
+  it.runIf(isPostgres)("run managed transactions SERIALIZABLE on PostgreSQL, so another app server's race is retried", async () => {
+    const { sequelize } = registry();
+    await sequelize.transaction(async (transaction) => {
+      const [row] = await sequelize.query<{ transaction_isolation: string }>("SHOW transaction_isolation", { transaction, type: QueryTypes.SELECT });
+      expect(row.transaction_isolation).toBe("serializable");
+    });
+  });
+
+  it("queue concurrent write transactions instead of failing (SQLITE_BUSY, serialization failures)", async () => {
     const { sequelize, models } = registry();
     const team = await models.Team.create({ name: "Concurrency", slug: "concurrency" });
     const results = await Promise.allSettled(
@@ -63,7 +72,7 @@ describe("SQLite connections", () => {
 
   it("enforce foreign keys", async () => {
     const { models } = registry();
-    await expect(models.Membership.create({ teamId: 99999, userId: 99999, role: "engineer" })).rejects.toThrow(/FOREIGN KEY/);
+    await expect(models.Membership.create({ teamId: 99999, userId: 99999, role: "engineer" })).rejects.toThrow(/FOREIGN KEY|foreign key constraint/);
   });
 });
 
@@ -92,16 +101,19 @@ describe("model version immutability in the database", () => {
 
   // Sequelize reports RAISE(ABORT) as a constraint error; the trigger's words are on the driver's error.
   const refusal = (pattern: RegExp) => (e: unknown) => pattern.test(String((e as { parent?: Error }).parent?.message ?? e));
+  // Each dialect's trigger words (migrations/20261201-0105-model-versions-immutable.cjs).
+  const CHANGE = isSqlite ? /immutable/ : /is (approved|superseded) and cannot change/;
+  const DELETE = /cannot be deleted/;
 
   it("refuses any change to an approved version but approved → superseded", async () => {
     const { sequelize } = registry();
     const v = await version("approved");
-    await expect(sequelize.query(`UPDATE model_versions SET citation = 'changed' WHERE id = ${v.id}`)).rejects.toSatisfy(refusal(/immutable/));
-    await expect(sequelize.query(`UPDATE model_versions SET status = 'draft' WHERE id = ${v.id}`)).rejects.toSatisfy(refusal(/immutable/));
-    await expect(sequelize.query(`UPDATE model_versions SET status = 'superseded', citation = 'sneaky' WHERE id = ${v.id}`)).rejects.toSatisfy(refusal(/immutable/));
-    await expect(sequelize.query(`DELETE FROM model_versions WHERE id = ${v.id}`)).rejects.toSatisfy(refusal(/cannot be deleted/));
+    await expect(sequelize.query(`UPDATE model_versions SET citation = 'changed' WHERE id = ${v.id}`)).rejects.toSatisfy(refusal(CHANGE));
+    await expect(sequelize.query(`UPDATE model_versions SET status = 'draft' WHERE id = ${v.id}`)).rejects.toSatisfy(refusal(CHANGE));
+    await expect(sequelize.query(`UPDATE model_versions SET status = 'superseded', citation = 'sneaky' WHERE id = ${v.id}`)).rejects.toSatisfy(refusal(CHANGE));
+    await expect(sequelize.query(`DELETE FROM model_versions WHERE id = ${v.id}`)).rejects.toSatisfy(refusal(DELETE));
     await sequelize.query(`UPDATE model_versions SET status = 'superseded', updated_at = CURRENT_TIMESTAMP WHERE id = ${v.id}`);
-    await expect(sequelize.query(`UPDATE model_versions SET status = 'approved' WHERE id = ${v.id}`)).rejects.toSatisfy(refusal(/immutable/));
+    await expect(sequelize.query(`UPDATE model_versions SET status = 'approved' WHERE id = ${v.id}`)).rejects.toSatisfy(refusal(CHANGE));
   });
 
   it("lets a draft change freely", async () => {
