@@ -16,6 +16,8 @@ export type PinnedVersion = {
   status: string;
   citation: string;
   data: unknown;
+  /** The version's standard uncertainties, where it has them (added with the equilibrium work). */
+  uncertainty?: { dfHkJ?: number; sJ?: number; cpRelative?: number } | null;
 };
 
 /**

@@ -16,6 +16,7 @@ import type { Case } from "@/models/case";
 import type { CaseSnapshot, PinnedVersion } from "@/models/case-snapshot";
 import { recordAudit } from "./audit";
 import { enqueueMailToRoles } from "./mail";
+import { equilibriumCsvColumns, equilibriumRequestOf, pinTerms, speciesOfPin } from "./equilibrium";
 import { loadPins, newerApprovedVersions, type NewerVersionDto } from "./pins";
 
 // ---------------------------------------------------------------- DTOs
@@ -118,7 +119,7 @@ function checkLock(row: Case, lockVersion: number): void {
 /** The engine request for a case: species keys are the formula plus phase marker, or the bare formula for the stable phase. */
 export function buildRequest(inputs: CaseInputs, pins: readonly PinnedVersion[]): EvaluateRequest {
   const species: EvaluateRequest["species"] = {};
-  for (const p of pins) species[p.key] = p.data as EvaluateRequest["species"][string];
+  for (const p of pins) species[p.key] = speciesOfPin(p);
   const request: EvaluateRequest = {
     reaction: caseReaction(inputs, "->"),
     species,
@@ -127,6 +128,8 @@ export function buildRequest(inputs: CaseInputs, pins: readonly PinnedVersion[])
     toleranceKJ: inputs.toleranceKJ,
   };
   if (inputs.toleranceKFactor !== null) request.toleranceKFactor = inputs.toleranceKFactor;
+  const equilibrium = equilibriumRequestOf(inputs.equilibrium);
+  if (equilibrium) request.equilibrium = equilibrium;
   return request;
 }
 
@@ -136,6 +139,7 @@ const caseInputsOf = (input: CaseInput): CaseInputs => ({
   referenceK: input.referenceK,
   toleranceKJ: input.toleranceKJ,
   toleranceKFactor: input.toleranceKFactor,
+  equilibrium: input.equilibrium ?? null,
 });
 
 /** The frozen content whose canonical JSON is hashed. */
@@ -233,7 +237,7 @@ export async function getCase(actor: Actor | null, id: number): Promise<CaseDto>
   const me = requirePermission(actor, "cases.view");
   const row = await caseFor(me, id);
   const [summary] = await summaries([row]);
-  const pins = await loadPins(row.teamId, row.inputs.terms, { allowAny: true }).catch(() => [] as PinnedVersion[]);
+  const pins = await loadPins(row.teamId, pinTerms(row.inputs), { allowAny: true }).catch(() => [] as PinnedVersion[]);
   const isAuthor = row.authorId === me.userId;
   const snapshots = await snapshotSummaries(row.id);
   const newerVersions = await newerApprovedVersions(pins);
@@ -310,7 +314,7 @@ export async function getResults(actor: Actor | null, caseId: number, revision?:
     };
   }
   requirePermission(me, "evaluate.run");
-  const pins = await loadPins(row.teamId, row.inputs.terms, { allowAny: true });
+  const pins = await loadPins(row.teamId, pinTerms(row.inputs), { allowAny: true });
   const request = buildRequest(row.inputs, pins);
   const result = evaluate(request);
   return {
@@ -333,13 +337,16 @@ export async function getResults(actor: Actor | null, caseId: number, revision?:
 export const CSV_COLUMNS = ["tK", "dCpJ", "dHkJ", "dSJ", "dGkJ", "naiveDGkJ", "diffKJ", "lnK", "naiveLnK", "log10K", "naiveLog10K", "K", "exceedsTolerance"] as const;
 
 export function resultCsv(result: EvaluateResult): string {
-  const rows = result.points.map((p) =>
-    CSV_COLUMNS.map((c) => {
+  // Uncertainty and equilibrium columns follow the points' own, only when the result has them.
+  const extra = equilibriumCsvColumns(result);
+  const rows = result.points.map((p, i) => [
+    ...CSV_COLUMNS.map((c) => {
       const v = (p as unknown as Record<string, unknown>)[c];
       return v === null || v === undefined ? "" : String(v);
     }),
-  );
-  return Papa.unparse({ fields: [...CSV_COLUMNS], data: rows }, { newline: "\n" }) + "\n";
+    ...extra.map((col) => (col.values[i] === null || col.values[i] === undefined ? "" : String(col.values[i]))),
+  ]);
+  return Papa.unparse({ fields: [...CSV_COLUMNS, ...extra.map((c) => c.header)], data: rows }, { newline: "\n" }) + "\n";
 }
 
 export async function exportCsv(actor: Actor | null, caseId: number, revision?: number): Promise<{ filename: string; csv: string }> {
@@ -525,14 +532,14 @@ async function requestReview(transaction: Transaction, me: Actor, row: Case, sna
 
 /** Evaluate outside the write transaction (it may take a moment on a big grid), then check nothing moved. */
 async function prepareRun(teamId: number, inputs: CaseInputs) {
-  const pins = await loadPins(teamId, inputs.terms, { allowAny: true });
+  const pins = await loadPins(teamId, pinTerms(inputs), { allowAny: true });
   const request = buildRequest(inputs, pins);
   const result = evaluate(request);
   return { pins, request, result };
 }
 
 async function assertPinsUnchanged(teamId: number, inputs: CaseInputs, pins: PinnedVersion[], transaction: Transaction) {
-  const now = await loadPins(teamId, inputs.terms, { transaction, allowAny: true });
+  const now = await loadPins(teamId, pinTerms(inputs), { transaction, allowAny: true });
   if (JSON.stringify(now.map((p) => p.data)) !== JSON.stringify(pins.map((p) => p.data))) {
     throw conflict("A pinned model version changed while the case was being evaluated; submit again.");
   }
@@ -578,11 +585,17 @@ export async function rerunWithNewerVersions(actor: Actor | null, id: number, lo
   requireAuthor(me, first, "re-run it");
   if (first.status === "submitted") throw conflict("This case is awaiting review; wait for the decision before re-running it.");
   checkLock(first, lockVersion);
-  const current = await loadPins(first.teamId, first.inputs.terms, { allowAny: true });
+  const current = await loadPins(first.teamId, pinTerms(first.inputs), { allowAny: true });
   const newer = await newerApprovedVersions(current);
   if (newer.length === 0) throw conflict("Every pinned model version is already the newest approved one.");
   const swap = new Map(newer.map((n) => [n.pinnedVersionId, n.newerVersionId]));
   const inputs: CaseInputs = { ...first.inputs, terms: first.inputs.terms.map((t) => ({ ...t, versionId: swap.get(t.versionId) ?? t.versionId })) };
+  if (first.inputs.equilibrium) {
+    inputs.equilibrium = {
+      ...first.inputs.equilibrium,
+      extraTerms: first.inputs.equilibrium.extraTerms.map((t) => ({ ...t, versionId: swap.get(t.versionId) ?? t.versionId })),
+    };
+  }
   const resubmit = first.status === "approved";
   const run = resubmit ? await prepareRun(first.teamId, inputs) : null;
   await db().transaction(async (transaction) => {

@@ -138,6 +138,7 @@ export async function loadPins(teamId: number, terms: readonly CaseTerm[], optio
       status: v.status,
       citation: v.citation,
       data: v.data,
+      uncertainty: v.uncertainty ?? null,
     };
   });
 }

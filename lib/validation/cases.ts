@@ -2,6 +2,7 @@
 import { z } from "zod";
 import { elementBalance, termKey } from "@/lib/cases/balance";
 import { splitQuantity, toKelvin, toKelvinDifference, type Quantity } from "@/lib/cases/temperature";
+import { caseEquilibriumSchema } from "./equilibrium";
 
 export const CASE_STATUSES = ["draft", "submitted", "approved", "returned"] as const;
 export type CaseStatus = (typeof CASE_STATUSES)[number];
@@ -43,6 +44,8 @@ export const caseInputSchema = z
     referenceK: quantity.default(298.15),
     toleranceKJ: z.number({ error: "Enter a tolerance in kJ/mol." }).min(0, "The tolerance cannot be negative.").max(1000, "Use at most 1000 kJ/mol.").default(1),
     toleranceKFactor: z.number({ error: "Enter a factor above 1." }).gt(1, "A factor on K must be above 1.").max(1e6, "Use at most 1e6.").nullable().default(null),
+    /** How far the reaction goes from a feed (optional; see lib/validation/equilibrium.ts). */
+    equilibrium: caseEquilibriumSchema.nullish(),
   })
   .superRefine((v, ctx) => {
     const keys = new Set<string>();

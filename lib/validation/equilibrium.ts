@@ -1,0 +1,33 @@
+/** The equilibrium part of a case (feed, pressure, key species, optional simultaneous set), shared by the panel form and the services. zod only. */
+import { z } from "zod";
+
+const speciesKey = z.string().trim().min(1, "Name a species.").max(80, "Use at most 80 characters.");
+
+export const extraTermSchema = z.object({
+  formula: z.string({ error: "Pick a species." }).trim().min(1, "Pick a species.").max(60, "Use at most 60 characters."),
+  phase: z
+    .string()
+    .regex(/^(cr(-[A-Za-z0-9_.]+)?|l|g)$/, { error: 'Use a phase of "cr", "l" or "g", or none for the stable phase.' })
+    .nullable(),
+  versionId: z.number({ error: "Pick a model version." }).int({ error: "Pick a model version." }).positive({ error: "Pick a model version." }),
+});
+export type ExtraTerm = z.infer<typeof extraTermSchema>;
+
+export const caseEquilibriumSchema = z
+  .object({
+    /** Feed amounts per species key (formula with phase marker, as in the reaction). */
+    feed: z.record(speciesKey, z.number({ error: "Enter an amount." }).min(0, "An amount cannot be negative.").max(1e12, "Use at most 1e12.")),
+    feedUnit: z.string().trim().min(1, "Name the unit of amount.").max(24, "Use at most 24 characters.").default("mol"),
+    /** Total pressure: a number in bar, or a number with a unit ("30 bar", "2.5 MPa"). */
+    pressure: z.union([z.number({ error: "Enter a pressure." }), z.string().trim().min(1, "Enter a pressure.").max(40)]).default(1),
+    key: speciesKey.nullable().default(null),
+    /** A simultaneous set; empty means the case's own reaction. */
+    reactions: z.array(z.string().trim().min(1, "Write the reaction.").max(400, "Use at most 400 characters.")).max(12, "Use at most 12 reactions.").default([]),
+    /** Pinned versions for species that appear only in the extra reactions. */
+    extraTerms: z.array(extraTermSchema).max(20, "Use at most 20 extra species.").default([]),
+  })
+  .superRefine((v, ctx) => {
+    if (!Object.values(v.feed).some((n) => n > 0)) ctx.addIssue({ code: "custom", path: ["feed"], message: "Give at least one species a positive amount." });
+    if (v.key !== null && !(v.feed[v.key] > 0)) ctx.addIssue({ code: "custom", path: ["key"], message: "The key species needs an amount in the feed." });
+  });
+export type CaseEquilibrium = z.infer<typeof caseEquilibriumSchema>;

@@ -1,0 +1,84 @@
+/**
+ * Equilibrium in cases: the request a case builds, the frozen snapshot, the CSV export, and
+ * the source comparison over the approved reference families.
+ */
+import Papa from "papaparse";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { closeDb } from "@/lib/db";
+import { createCase, exportCsv, getResults, getSnapshot, submitCase } from "@/lib/services/cases";
+import { compareFamilies } from "@/lib/services/equilibrium";
+import { evaluate } from "@/lib/thermo";
+import { caseInputSchema } from "@/lib/validation/cases";
+import { actorOf } from "../helpers/actors";
+import { shiftCase } from "../helpers/cases";
+import { freshDatabase, tableCounts } from "../helpers/db";
+import { ensureReferenceLibrary, type RefFormula } from "../helpers/reference-library";
+
+let pins: Record<RefFormula, number>;
+beforeAll(async () => {
+  await freshDatabase();
+  pins = await ensureReferenceLibrary();
+});
+afterAll(() => closeDb());
+
+// Larkspur Hydrogen Works shift converter (invented demo scenario): steam-to-CO 3, 30 bar.
+const equilibrium = { feed: { "CO(g)": 1, "H2O(g)": 3, "CO2(g)": 0.1, "H2(g)": 0.5 }, feedUnit: "kmol/h", pressure: "30 bar", key: "CO(g)" as string | null, reactions: [], extraTerms: [] };
+
+describe("a case with an equilibrium", () => {
+  it("builds the request, freezes the composition in the snapshot and exports it", async () => {
+    const erin = await actorOf("engineer");
+    const c = await createCase(erin, caseInputSchema.parse(shiftCase(pins, { equilibrium })));
+    const live = await getResults(erin, c.id);
+    expect(live.request.equilibrium).toEqual({ feed: equilibrium.feed, feedUnit: "kmol/h", pressureBar: "30 bar", key: "CO(g)" });
+    expect(live.result).toEqual(JSON.parse(JSON.stringify(evaluate(live.request))));
+    expect(live.result.equilibrium).toHaveLength(live.result.points.length);
+    expect(live.result.equilibriumInfo).toMatchObject({ pressureBar: 30, feedUnit: "kmol/h" });
+
+    const submitted = await submitCase(erin, c.id, c.lockVersion);
+    const snap = await getSnapshot(erin, c.id, 1);
+    expect(snap.result.equilibrium).toEqual(live.result.equilibrium);
+    expect(submitted.status).toBe("submitted");
+
+    const { csv } = await exportCsv(erin, c.id);
+    const [header, ...rows] = Papa.parse<string[]>(csv.trim(), { skipEmptyLines: true }).data;
+    const col = (h: string) => header.indexOf(h);
+    expect(col("equilibrium.keyFraction")).toBeGreaterThan(0);
+    expect(col("equilibrium.naive.moleFractions.CO(g)")).toBeGreaterThan(0);
+    rows.forEach((row, i) => {
+      const p = snap.result.equilibrium![i];
+      expect(Number(row[col("equilibrium.keyFraction")])).toBe(p.keyFraction);
+      expect(Number(row[col("equilibrium.keyFractionDiff")])).toBe(p.keyFractionDiff);
+      expect(Number(row[col("equilibrium.moles.H2(g)")])).toBe(p.moles["H2(g)"]);
+      expect(Number(row[col("equilibrium.extents[0]")])).toBe(p.extents[0]);
+    });
+  });
+  it("refuses a feed without a positive amount, writing nothing", async () => {
+    const erin = await actorOf("engineer");
+    const before = await tableCounts();
+    const parsed = caseInputSchema.safeParse(shiftCase(pins, { equilibrium: { ...equilibrium, feed: { "CO(g)": 0 }, key: null } }));
+    expect(parsed.success).toBe(false);
+    expect(parsed.error!.issues.map((i) => [i.path.join("."), i.message])).toContainEqual(["equilibrium.feed", "Give at least one species a positive amount."]);
+    expect(await tableCounts()).toEqual(before);
+    void erin;
+  });
+});
+
+describe("sources side by side over the approved families", () => {
+  it("runs every family that covers the species and reports the spread", async () => {
+    const erin = await actorOf("engineer");
+    const request = {
+      reaction: "CO(g) + H2O(g) -> CO2(g) + H2(g)",
+      species: { "CO(g)": {}, "H2O(g)": {}, "CO2(g)": {}, "H2(g)": {} },
+      temperatures: { listK: [600, 700] },
+      equilibrium: { feed: { "CO(g)": 1, "H2O(g)": 3 }, pressureBar: 30 },
+    };
+    const out = await compareFamilies(erin, async () => request);
+    expect(out.families.length).toBeGreaterThanOrEqual(2);
+    expect(out.comparison!.variants.map((v) => v.label)).toEqual(out.families.map((f) => f.family));
+    for (const row of out.comparison!.spread) {
+      expect(row.keyFraction!.range).toBeGreaterThanOrEqual(0);
+      // Published sets of different families agree on the shift's log10 K within 0.1 (shared/reference README: 0.05 each vs JANAF).
+      expect(row.log10K.range).toBeLessThan(0.1);
+    }
+  });
+});
