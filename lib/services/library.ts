@@ -568,7 +568,7 @@ export function defaultRange(data: SpeciesInput): [number, number] {
   return [from, Math.max(to, from + 50)];
 }
 
-export function computeCurve(data: SpeciesInput, options: { fromK?: number; toK?: number; points?: number; phase?: string } = {}): Curve {
+export function computeCurve(data: SpeciesInput, options: { fromK?: number; toK?: number; points?: number; phase?: string; edges?: boolean } = {}): Curve {
   const [f, t] = defaultRange(data);
   const fromK = options.fromK ?? f;
   const toK = options.toK ?? t;
@@ -578,7 +578,7 @@ export function computeCurve(data: SpeciesInput, options: { fromK?: number; toK?
   const grid = new Set<number>();
   for (let i = 0; i < n; i++) grid.add(Number((fromK + ((toK - fromK) * i) / (n - 1)).toFixed(6)));
   // Chain edges inside the span, so the validity marks fall on a point.
-  for (const c of chains) for (const e of [c.tminK, c.tmaxK]) if (e > fromK && e < toK) grid.add(e);
+  if (options.edges !== false) for (const c of chains) for (const e of [c.tminK, c.tmaxK]) if (e > fromK && e < toK) grid.add(e);
   const temps = [...grid].sort((a, b) => a - b);
   const { rows, warnings } = speciesProperties(data, temps, options.phase ? { phase: options.phase } : {});
   const points = rows.map((r) => {
@@ -594,7 +594,7 @@ export async function previewCurve(actor: Actor | null, input: PreviewInput): Pr
   return computeCurve(input.data as SpeciesInput, input);
 }
 
-export async function versionCurve(actor: Actor | null, id: number, options: { fromK?: number; toK?: number; points?: number } = {}): Promise<Curve> {
+export async function versionCurve(actor: Actor | null, id: number, options: { fromK?: number; toK?: number; points?: number; edges?: boolean } = {}): Promise<Curve> {
   const me = requirePermission(actor, "library.view");
   const version = await loadVersion(me, id);
   return computeCurve(version.data, options);

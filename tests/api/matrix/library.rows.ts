@@ -33,7 +33,7 @@ const drafting = (status: number, other = status): Expect => ({ anonymous: 401, 
 const stewards = (status: number, other = 404): Expect => ({ anonymous: 401, engineer: 403, steward: status, reviewer: 403, admin: status, other });
 
 // Constant Cp of a solid with an anchor: numbers invented for the test.
-const solidData = { segments: [{ phase: "cr", form: "constant", tminK: 250, tmaxK: 900, coeffs: { cpJ: 120 } }], reference: { tK: 298.15, phase: "cr", hkJ: -1000, sJ: 80 } };
+const solidData = { segments: [{ phase: "cr", form: "constant" as const, tminK: 250, tmaxK: 900, coeffs: { cpJ: 120 } }], reference: { tK: 298.15, phase: "cr", hkJ: -1000, sJ: 80 } };
 
 let n = 0;
 async function larkspurModel() {

@@ -1,0 +1,64 @@
+"use client";
+
+import { useRouter } from "next/navigation";
+import { useState } from "react";
+import { Button } from "@/components/ui/button";
+import { inputClass } from "@/components/ui/field";
+
+type Allowed = { edit: boolean; propose: boolean; decide: boolean; newDraft: boolean; copy: boolean; ownWork: boolean };
+
+async function post(url: string, body?: unknown): Promise<{ ok: boolean; data: { version?: { id: number }; error?: { message: string } } }> {
+  const res = await fetch(url, { method: "POST", headers: body ? { "content-type": "application/json" } : {}, body: body ? JSON.stringify(body) : undefined });
+  return { ok: res.ok, data: await res.json().catch(() => ({})) };
+}
+
+/** The workflow buttons the server said this person may use; the server checks again on every call. */
+export function VersionActions({ versionId, modelId, allowed }: { versionId: number; modelId: number; allowed: Allowed }) {
+  const router = useRouter();
+  const [busy, setBusy] = useState<string | null>(null);
+  const [error, setError] = useState<string | null>(null);
+  const [reason, setReason] = useState("");
+  const [rejecting, setRejecting] = useState(false);
+
+  const run = async (what: string, url: string, body?: unknown, go?: (id: number) => string) => {
+    setBusy(what);
+    setError(null);
+    const { ok, data } = await post(url, body);
+    setBusy(null);
+    if (!ok) return setError(data.error?.message ?? "That did not work.");
+    if (go && data.version) router.push(go(data.version.id));
+    else router.refresh();
+  };
+
+  return (
+    <div className="space-y-3" data-testid="version-actions">
+      <div className="flex flex-wrap gap-2">
+        {allowed.edit && <Button variant="secondary" onClick={() => router.push(`/library/versions/${versionId}/edit`)}>Edit draft</Button>}
+        {allowed.propose && <Button disabled={!!busy} onClick={() => run("propose", `/api/v1/versions/${versionId}/propose`)}>{busy === "propose" ? "Proposing…" : "Propose for approval"}</Button>}
+        {allowed.decide && (
+          <>
+            <Button disabled={!!busy} onClick={() => run("approve", `/api/v1/versions/${versionId}/approve`)}>{busy === "approve" ? "Approving…" : "Approve"}</Button>
+            <Button variant="danger" disabled={!!busy} onClick={() => setRejecting((r) => !r)}>Reject…</Button>
+          </>
+        )}
+        {allowed.newDraft && <Button variant="secondary" disabled={!!busy} onClick={() => run("draft", `/api/v1/models/${modelId}/versions`, { fromVersionId: versionId }, (id) => `/library/versions/${id}/edit`)}>New draft from this version</Button>}
+        {allowed.copy && <Button variant="secondary" disabled={!!busy} onClick={() => run("copy", `/api/v1/versions/${versionId}/copy`, undefined, (id) => `/library/versions/${id}/edit`)}>{busy === "copy" ? "Copying…" : "Copy into a team model"}</Button>}
+      </div>
+      {allowed.ownWork && <p className="text-sm text-ink-muted" data-testid="own-work-note">You wrote this version, so another steward decides on it.</p>}
+      {rejecting && (
+        <form
+          className="space-y-2"
+          onSubmit={(e) => {
+            e.preventDefault();
+            run("reject", `/api/v1/versions/${versionId}/reject`, { reason });
+          }}
+        >
+          <label htmlFor="reject-reason" className="block text-sm font-medium text-ink-soft">Reason for the author</label>
+          <textarea id="reject-reason" value={reason} onChange={(e) => setReason(e.target.value)} rows={3} className={inputClass} />
+          <Button type="submit" variant="danger" disabled={!!busy}>{busy === "reject" ? "Rejecting…" : "Reject with this reason"}</Button>
+        </form>
+      )}
+      {error && <p role="alert" className="text-sm text-flag-700">{error}</p>}
+    </div>
+  );
+}
