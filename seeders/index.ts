@@ -3,6 +3,7 @@ import type { Models } from "@/models";
 import { seed as demoTeam } from "./01-demo-team";
 import { seed as referenceLibrary } from "./02-reference-library";
 import { seed as demoLibrary } from "./03-demo-library";
+import { seed as demoCases } from "./04-demo-cases";
 
 export type SeedContext = { sequelize: Sequelize; models: Models };
 export type Seeder = { name: string; demoOnly: boolean; seed: (ctx: SeedContext) => Promise<void> };
@@ -12,6 +13,7 @@ export const SEEDERS: Seeder[] = [
   { name: "01-demo-team", demoOnly: true, seed: demoTeam },
   { name: "02-reference-library", demoOnly: false, seed: referenceLibrary },
   { name: "03-demo-library", demoOnly: true, seed: demoLibrary },
+  { name: "04-demo-cases", demoOnly: true, seed: demoCases },
 ];
 
 export async function runSeeders(ctx: SeedContext, options: { demo: boolean }): Promise<string[]> {

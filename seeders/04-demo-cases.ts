@@ -1,0 +1,177 @@
+import { Op, type Transaction } from "sequelize";
+import { canonicalSha256 } from "@/lib/cases/hash";
+import { evaluate, type EvaluateRequest } from "@/lib/thermo";
+import type { CaseInput } from "@/lib/validation/cases";
+import type { PinnedVersion } from "@/models/case-snapshot";
+import { DEMO_TEAM } from "./demo-accounts";
+import type { SeedContext } from "./index";
+
+/**
+ * INVENTED demo cases for Larkspur Hydrogen Works, authored by Erin (engineer): the reformer
+ * (approved), the shift converter (awaiting Rory's review), the ammonia loop (returned with
+ * a reason), the cold box (a draft whose models are extrapolated far below their ranges) and a
+ * reformer start-up sweep in °C (a draft). The reactions are real; the plant, titles, notes
+ * and decisions are made up. Pins the published NASA-7 (2015) reference versions loaded by
+ * 02-reference-library. Safe to repeat: a case whose title exists is left alone.
+ */
+type Term = { formula: string; phase: string | null; coefficient: number };
+type Plan = { title: string; notes: string; terms: Term[]; temperatures: CaseInput["temperatures"]; toleranceKJ: number; flow: "draft" | "submitted" | "returned" | "approved"; reason?: string };
+
+export const DEMO_CASES: Plan[] = [
+  {
+    title: "Reformer outlet near 1100 K",
+    notes: "Primary reformer, outlet around 1100 K (invented plant data). Checks where methane reforming turns favourable and how far the naive line is off there.",
+    terms: [
+      { formula: "CH4", phase: "g", coefficient: -1 },
+      { formula: "H2O", phase: "g", coefficient: -1 },
+      { formula: "CO", phase: "g", coefficient: 1 },
+      { formula: "H2", phase: "g", coefficient: 3 },
+    ],
+    temperatures: { fromK: 800, toK: 1300, stepK: 5 },
+    toleranceKJ: 2,
+    flow: "approved",
+    reason: "Crossover and outlet K agree with the design basis; naive error noted in the summary.",
+  },
+  {
+    title: "Shift converter 480–700 K",
+    notes: "High- and low-temperature shift beds (invented). Does the naive line stay within 1 kJ/mol over the beds?",
+    terms: [
+      { formula: "CO", phase: "g", coefficient: -1 },
+      { formula: "H2O", phase: "g", coefficient: -1 },
+      { formula: "CO2", phase: "g", coefficient: 1 },
+      { formula: "H2", phase: "g", coefficient: 1 },
+    ],
+    temperatures: { fromK: 480, toK: 700, stepK: 2 },
+    toleranceKJ: 1,
+    flow: "submitted",
+  },
+  {
+    title: "Ammonia loop near 700 K",
+    notes: "Synthesis loop converter around 700 K (invented).",
+    terms: [
+      { formula: "N2", phase: "g", coefficient: -1 },
+      { formula: "H2", phase: "g", coefficient: -3 },
+      { formula: "NH3", phase: "g", coefficient: 2 },
+    ],
+    temperatures: { fromK: 600, toK: 800, stepK: 5 },
+    toleranceKJ: 1,
+    flow: "returned",
+    reason: "The loop runs near 150 bar: state the pressure in the notes and say that K here is the ideal-gas, 1 bar constant before I sign it off.",
+  },
+  {
+    title: "Cold box CO trace near 90 K",
+    notes: "Would CO traces methanate in the cold box around 90 K (invented)? The pinned models start at 200 K, so every species is extrapolated: read the warnings.",
+    terms: [
+      { formula: "CO", phase: "g", coefficient: -1 },
+      { formula: "H2", phase: "g", coefficient: -3 },
+      { formula: "CH4", phase: "g", coefficient: 1 },
+      { formula: "H2O", phase: "cr", coefficient: 1 },
+    ],
+    temperatures: { fromK: 80, toK: 120, stepK: 1 },
+    toleranceKJ: 1,
+    flow: "draft",
+  },
+  {
+    title: "Reformer start-up sweep (°C)",
+    notes: "Start-up heating from 400 °C to 900 °C, entered in °C (invented).",
+    terms: [
+      { formula: "CH4", phase: "g", coefficient: -1 },
+      { formula: "H2O", phase: "g", coefficient: -2 },
+      { formula: "CO2", phase: "g", coefficient: 1 },
+      { formula: "H2", phase: "g", coefficient: 4 },
+    ],
+    temperatures: { fromK: "400 degC", toK: "900 degC", stepK: "10 degC" },
+    toleranceKJ: 2,
+    flow: "draft",
+  },
+];
+
+const FAMILY = "nasa7-2015";
+
+async function pinFor(ctx: SeedContext, formula: string, phase: string | null, transaction: Transaction): Promise<PinnedVersion | null> {
+  const { Species, CpModel, ModelVersion } = ctx.models;
+  const species = await Species.findOne({ where: { teamId: null, formula }, transaction });
+  if (!species) return null;
+  const cpModels = await CpModel.findAll({ where: { teamId: null, speciesId: species.id, family: FAMILY }, order: [["id", "ASC"]], transaction });
+  for (const m of cpModels) {
+    const v = await ModelVersion.findOne({ where: { modelId: m.id, status: "approved" }, order: [["versionNumber", "DESC"]], transaction });
+    const phases = ((v?.data as { segments?: { phase: string }[] })?.segments ?? []).map((s) => s.phase);
+    if (v && (!phase || phases.includes(phase))) {
+      return {
+        key: phase ? `${formula}(${phase})` : formula,
+        formula,
+        phase,
+        versionId: v.id,
+        modelId: m.id,
+        speciesName: species.displayName,
+        modelName: m.name,
+        family: m.family,
+        versionNumber: v.versionNumber,
+        status: v.status,
+        citation: v.citation,
+        data: v.data,
+      };
+    }
+  }
+  return null;
+}
+
+function reactionOf(terms: Term[]): string {
+  const side = (list: Term[]) => list.map((t) => `${Math.abs(t.coefficient) === 1 ? "" : `${Math.abs(t.coefficient)} `}${t.phase ? `${t.formula}(${t.phase})` : t.formula}`).join(" + ");
+  return `${side(terms.filter((t) => t.coefficient < 0))} -> ${side(terms.filter((t) => t.coefficient > 0))}`;
+}
+
+export async function seed(ctx: SeedContext): Promise<void> {
+  const { models, sequelize } = ctx;
+  const { Team, User, Case, CaseSnapshot, Review, Comment, AuditEvent } = models;
+  await sequelize.transaction(async (transaction) => {
+    const team = await Team.findOne({ where: { slug: DEMO_TEAM.slug }, transaction });
+    if (!team) throw new Error("04-demo-cases needs 01-demo-team first");
+    const erin = await User.findOne({ where: { email: "erin.engineer@example.test" }, transaction });
+    const rory = await User.findOne({ where: { email: "rory.reviewer@example.test" }, transaction });
+    if (!erin || !rory) throw new Error("04-demo-cases needs the demo accounts");
+    const existing = new Set((await Case.findAll({ where: { teamId: team.id, title: { [Op.in]: DEMO_CASES.map((c) => c.title) } }, transaction })).map((c) => c.title));
+    const audit = (action: string, entityId: number, actorId: number, after: unknown) =>
+      AuditEvent.create({ teamId: team.id, actorId, action, entityType: "case", entityId: String(entityId), before: null, after }, { transaction });
+
+    for (const plan of DEMO_CASES) {
+      if (existing.has(plan.title)) continue;
+      const pins: PinnedVersion[] = [];
+      for (const t of plan.terms) {
+        const p = await pinFor(ctx, t.formula, t.phase, transaction);
+        if (!p) {
+          console.log(`04-demo-cases: skipped: no approved ${FAMILY} reference version of ${t.formula}${t.phase ? `(${t.phase})` : ""}; run 02-reference-library first`);
+          return;
+        }
+        pins.push(p);
+      }
+      const inputs: CaseInput = {
+        title: plan.title,
+        notes: plan.notes,
+        terms: plan.terms.map((t, i) => ({ ...t, versionId: pins[i].versionId })),
+        temperatures: plan.temperatures,
+        referenceK: 298.15,
+        toleranceKJ: plan.toleranceKJ,
+        toleranceKFactor: null,
+      };
+      const { title: _t, notes: _n, ...stored } = inputs;
+      const row = await Case.create({ teamId: team.id, authorId: erin.id, title: plan.title, notes: plan.notes, status: plan.flow, inputs: stored, lockVersion: plan.flow === "draft" ? 0 : plan.flow === "submitted" ? 1 : 2 }, { transaction });
+      await audit("case.created", row.id, erin.id, { title: plan.title, seeded: true });
+      if (plan.flow === "draft") continue;
+
+      const species: EvaluateRequest["species"] = {};
+      for (const p of pins) species[p.key] = p.data as EvaluateRequest["species"][string];
+      const request: EvaluateRequest = { reaction: reactionOf(plan.terms), species, temperatures: plan.temperatures, referenceK: 298.15, toleranceKJ: plan.toleranceKJ };
+      const result = evaluate(request);
+      const content = JSON.parse(JSON.stringify({ inputs, pins, engineVersion: result.engine.version, request, result }));
+      const snap = await CaseSnapshot.create({ caseId: row.id, teamId: team.id, revision: 1, ...content, hash: canonicalSha256(content), createdById: erin.id }, { transaction });
+      await audit("case.submitted", row.id, erin.id, { status: "submitted", revision: 1, hash: snap.hash });
+      if (plan.flow === "submitted") {
+        await Comment.create({ caseId: row.id, snapshotId: snap.id, authorId: erin.id, body: "Steam-to-carbon ratio of the beds is in the notes of the reformer case." }, { transaction });
+        continue;
+      }
+      await Review.create({ caseId: row.id, snapshotId: snap.id, reviewerId: rory.id, decision: plan.flow, reason: plan.reason ?? null }, { transaction });
+      await audit(plan.flow === "approved" ? "case.approved" : "case.returned", row.id, rory.id, { status: plan.flow, revision: 1, hash: snap.hash, reason: plan.reason ?? null });
+    }
+  });
+}
