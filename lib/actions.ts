@@ -7,6 +7,8 @@ export type ActionState<T = undefined> = {
   ok: boolean;
   message?: string;
   fieldErrors?: Record<string, string>;
+  /** The HTTP status the same refusal would get from the API (401, 403, 404, 409, 422…). */
+  status?: number;
   /** What was typed, so a refused form shows it again (React resets forms after an action). Never passwords. */
   values?: Record<string, string>;
   data?: T;
@@ -20,9 +22,9 @@ export function actionFailure(error: unknown, values?: Record<string, string>): 
   if (error instanceof AppError) {
     const fields = (error.details as { fields?: Record<string, string> } | undefined)?.fields;
     // A form shows validation failures beside their fields, not again in a banner.
-    return fields ? { ok: false, fieldErrors: fields, values: kept } : { ok: false, message: error.message, values: kept };
+    return fields ? { ok: false, status: error.status, fieldErrors: fields, values: kept } : { ok: false, status: error.status, message: error.message, values: kept };
   }
-  if (error instanceof ZodError) return { ok: false, fieldErrors: fieldErrors(error), values: kept };
+  if (error instanceof ZodError) return { ok: false, status: 422, fieldErrors: fieldErrors(error), values: kept };
   throw error;
 }
 

@@ -38,6 +38,9 @@ process.env.MAIL_CATCHER_PORT ??= String(
 );
 
 // Route handlers and services read the session through next/headers; tests give them a cookie jar.
+// Server actions revalidate pages; outside a request there is nothing to revalidate.
+vi.mock("next/cache", () => ({ revalidatePath: () => undefined, revalidateTag: () => undefined, updateTag: () => undefined }));
+
 vi.mock("next/headers", () => ({
   cookies: async () => cookieJar,
   headers: async () => new Headers(),

@@ -17,7 +17,7 @@ function safeNext(value: string | undefined): string {
 export async function signInAction(_prev: ActionState, formData: FormData): Promise<ActionState> {
   const input = formObject(formData);
   const parsed = signInSchema.safeParse(input);
-  if (!parsed.success) return { ok: false, fieldErrors: fieldErrors(parsed.error), values: { email: input.email ?? "" } };
+  if (!parsed.success) return { ok: false, status: 422, fieldErrors: fieldErrors(parsed.error), values: { email: input.email ?? "" } };
   try {
     const { userId, teamId } = await authenticate(parsed.data, { clientAddress: clientAddress(await headers()) });
     await startSession(userId, teamId);
