@@ -3,7 +3,8 @@
 /**
  * An approved or superseded version never changes; the only update allowed is
  * approved → superseded (with its bookkeeping columns). Deleting one is refused too.
- * The service refuses first; this is the database's own guard.
+ * The service refuses first; this is the database's own guard. Both dialects
+ * refuse with the same words.
  * @param {{ context: import('sequelize').QueryInterface }} p
  */
 async function up({ context: qi }) {
@@ -14,7 +15,7 @@ async function up({ context: qi }) {
       BEGIN
         IF TG_OP = 'DELETE' THEN
           IF OLD.status IN ('approved', 'superseded') THEN
-            RAISE EXCEPTION 'model version % is % and cannot be deleted', OLD.id, OLD.status;
+            RAISE EXCEPTION 'approved model versions cannot be deleted (version %, %)', OLD.id, OLD.status;
           END IF;
           RETURN OLD;
         END IF;
@@ -24,7 +25,7 @@ async function up({ context: qi }) {
           AND NEW.model_id = OLD.model_id AND NEW.version_number = OLD.version_number
           AND NEW.uncertainty::text IS NOT DISTINCT FROM OLD.uncertainty::text
         ) THEN
-          RAISE EXCEPTION 'model version % is % and cannot change', OLD.id, OLD.status;
+          RAISE EXCEPTION 'approved model versions are immutable (version %, %)', OLD.id, OLD.status;
         END IF;
         RETURN NEW;
       END $$ LANGUAGE plpgsql;`);

@@ -11,6 +11,9 @@ async function up({ context: qi }) {
     await sequelize.query(`
       CREATE OR REPLACE FUNCTION case_snapshots_guard() RETURNS trigger AS $$
       BEGIN
+        IF TG_OP = 'DELETE' THEN
+          RAISE EXCEPTION 'case snapshots cannot be deleted';
+        END IF;
         RAISE EXCEPTION 'case snapshots are immutable';
       END $$ LANGUAGE plpgsql;`);
     await sequelize.query(`CREATE TRIGGER case_snapshots_immutable BEFORE UPDATE OR DELETE ON case_snapshots FOR EACH ROW EXECUTE FUNCTION case_snapshots_guard();`);
