@@ -1,5 +1,5 @@
 import path from "node:path";
-import { Sequelize, Transaction } from "sequelize";
+import { Op, Sequelize, Transaction } from "sequelize";
 import { env } from "@/lib/env";
 import { defineModels, type Models } from "@/models";
 
@@ -145,4 +145,9 @@ export async function closeDb(): Promise<void> {
 
 export function isPostgres(): boolean {
   return db().getDialect() === "postgres";
+}
+
+/** A substring match that ignores case on both dialects, as SQLite's LIKE does: ILIKE on PostgreSQL. */
+export function containsText(text: string) {
+  return isPostgres() ? { [Op.iLike]: `%${text}%` } : { [Op.like]: `%${text}%` };
 }

@@ -2,7 +2,7 @@ import "server-only";
 import { Op, type Transaction, type WhereOptions } from "sequelize";
 import { can } from "@/lib/auth/permissions";
 import { requireNotAuthor, requirePermission, requireSameTeam, type Actor } from "@/lib/auth/guards";
-import { db, models } from "@/lib/db";
+import { containsText, db, models } from "@/lib/db";
 import { AppError, conflict, notFound } from "@/lib/errors";
 import { parseFormula, parseTemperatureK, speciesProperties, type EngineWarning, type SpeciesInput } from "@/lib/thermo";
 import {
@@ -176,7 +176,7 @@ export async function listSpecies(actor: Actor | null, query: { q?: string; page
   const page = query.page ?? 1;
   const pageSize = query.pageSize ?? 50;
   const where: WhereOptions = q
-    ? { [Op.and]: [visible(me), { [Op.or]: [{ formula: { [Op.like]: `%${q}%` } }, { displayName: { [Op.like]: `%${q}%` } }] }] }
+    ? { [Op.and]: [visible(me), { [Op.or]: [{ formula: containsText(q) }, { displayName: containsText(q) }] }] }
     : visible(me);
   const { rows, count } = await Species.findAndCountAll({ where, order: [["formula", "ASC"], ["id", "ASC"]], limit: pageSize, offset: (page - 1) * pageSize });
   return { items: rows.map(speciesDto), page, pageSize, total: count, pages: Math.max(1, Math.ceil(count / pageSize)) };
@@ -234,10 +234,10 @@ export async function listModels(actor: Actor | null, query: ListModelsQuery): P
   const q = query.q.trim();
   const scopeWhere: WhereOptions = query.scope === "reference" ? { teamId: null } : query.scope === "team" ? { teamId: me.teamId } : visible(me);
   const speciesHits = q
-    ? await Species.findAll({ where: { [Op.and]: [visible(me), { [Op.or]: [{ formula: { [Op.like]: `%${q}%` } }, { displayName: { [Op.like]: `%${q}%` } }] }] }, attributes: ["id"] })
+    ? await Species.findAll({ where: { [Op.and]: [visible(me), { [Op.or]: [{ formula: containsText(q) }, { displayName: containsText(q) }] }] }, attributes: ["id"] })
     : [];
   const where: WhereOptions = q
-    ? { [Op.and]: [scopeWhere, { [Op.or]: [{ name: { [Op.like]: `%${q}%` } }, { speciesId: speciesHits.map((s) => s.id) }] }] }
+    ? { [Op.and]: [scopeWhere, { [Op.or]: [{ name: containsText(q) }, { speciesId: speciesHits.map((s) => s.id) }] }] }
     : scopeWhere;
   const cpModels = await CpModel.findAll({ where, include: [{ model: Species, as: "species" }] });
   const versions = await ModelVersion.findAll({ where: { modelId: cpModels.map((m) => m.id) }, order: [["versionNumber", "DESC"]] });
