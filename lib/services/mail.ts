@@ -4,7 +4,7 @@ import { Op, QueryTypes, type Transaction } from "sequelize";
 import type { Transporter } from "nodemailer";
 import { requirePermission, type Actor } from "@/lib/auth/guards";
 import type { Role } from "@/lib/auth/permissions";
-import { db, models } from "@/lib/db";
+import { db, isPostgres, models } from "@/lib/db";
 import { env } from "@/lib/env";
 import type { MailKind } from "@/models/mail-message";
 
@@ -53,18 +53,21 @@ export function setMailKick(kick: (() => void) | undefined): void {
 
 /**
  * Claim due rows atomically (one UPDATE), so several workers — one per app
- * server — never send the same message twice.
+ * server — never send the same message twice. On PostgreSQL the inner SELECT
+ * locks the rows it picks and skips rows another worker holds: without that,
+ * two concurrent claims could pick the same ids under READ COMMITTED.
  */
 export async function claimDueMail(limit = 20): Promise<number[]> {
   const token = crypto.randomBytes(12).toString("hex");
   const now = new Date();
   const stale = new Date(now.getTime() - STALE_CLAIM_MS);
+  const lock = isPostgres() ? " FOR UPDATE SKIP LOCKED" : "";
   await db().query(
     `UPDATE mail_messages SET status = 'sending', claim_token = :token, claimed_at = :now, attempts = attempts + 1, updated_at = :now
      WHERE id IN (
        SELECT id FROM mail_messages
        WHERE (status = 'queued' AND next_attempt_at <= :now) OR (status = 'sending' AND claimed_at < :stale)
-       ORDER BY id LIMIT :limit)`,
+       ORDER BY id LIMIT :limit${lock})`,
     { replacements: { token, now, stale, limit } },
   );
   const rows = await db().query<{ id: number }>(`SELECT id FROM mail_messages WHERE claim_token = :token ORDER BY id`, {
