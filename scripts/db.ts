@@ -9,6 +9,10 @@ import { backupDatabase, restoreDatabase } from "@/lib/backup";
 import { migrateDownAll, migrator } from "@/lib/migrate";
 import { runSeeders } from "@/seeders";
 
+/** db:backup and db:restore copy the SQLite file; PostgreSQL has its own tools. */
+const POSTGRES_BACKUP =
+  "db:backup and db:restore work on the SQLite file; with DATABASE_URL set, back up PostgreSQL with pg_dump / pg_restore or your DBA's tooling (docs/postgres.md).";
+
 async function main(command: string | undefined) {
   const { sequelize, models } = registry();
   switch (command) {
@@ -32,10 +36,11 @@ async function main(command: string | undefined) {
       await migrateDownAll(sequelize);
       await migrator(sequelize).up();
       const ran = await runSeeders({ sequelize, models }, { demo: true });
-      console.log(`reset ${env.DATABASE_PATH}; seeded: ${ran.join(", ")}`);
+      console.log(`reset ${env.DATABASE_URL ? "the PostgreSQL database" : env.DATABASE_PATH}; seeded: ${ran.join(", ")}`);
       break;
     }
     case "backup": {
+      if (env.DATABASE_URL) throw new Error(POSTGRES_BACKUP);
       await closeDb();
       const stamp = new Date().toISOString().replace(/[:.]/g, "-");
       const file = process.argv[3] ?? path.join(path.dirname(env.DATABASE_PATH), "backups", `heatpath-${stamp}.sqlite`);
@@ -44,6 +49,7 @@ async function main(command: string | undefined) {
       return;
     }
     case "restore": {
+      if (env.DATABASE_URL) throw new Error(POSTGRES_BACKUP);
       await closeDb();
       const file = process.argv[3];
       if (!file) throw new Error("usage: npm run db:restore FILE");
