@@ -6,6 +6,7 @@ import Papa from "papaparse";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb } from "@/lib/db";
 import { createCase, exportCsv, getResults, getSnapshot, submitCase } from "@/lib/services/cases";
+import { previewCaseEquilibrium, saveCaseEquilibrium } from "@/lib/services/case-equilibrium";
 import { compareFamilies } from "@/lib/services/equilibrium";
 import { evaluate } from "@/lib/thermo";
 import { caseInputSchema } from "@/lib/validation/cases";
@@ -80,5 +81,49 @@ describe("sources side by side over the approved families", () => {
       // Published sets of different families agree on the shift's log10 K within 0.1 (shared/reference README: 0.05 each vs JANAF).
       expect(row.log10K.range).toBeLessThan(0.1);
     }
+  });
+});
+
+describe("the reformer with shift as a case (invented demo scenario)", () => {
+  const reformer = () =>
+    shiftCase(pins, {
+      title: "Larkspur reformer outlet",
+      terms: [
+        { formula: "CH4", phase: "g", coefficient: -1, versionId: pins.CH4 },
+        { formula: "H2O", phase: "g", coefficient: -1, versionId: pins.H2O },
+        { formula: "CO", phase: "g", coefficient: 1, versionId: pins.CO },
+        { formula: "H2", phase: "g", coefficient: 3, versionId: pins.H2 },
+      ],
+      temperatures: { fromK: 900, toK: 1200, stepK: 50 },
+    });
+  const eq = {
+    feed: { "CH4(g)": 1, "H2O(g)": 3 }, feedUnit: "kmol/h", pressure: "25 bar", key: "CH4(g)",
+    reactions: ["CH4(g) + H2O(g) -> CO(g) + 3 H2(g)", "CO(g) + H2O(g) -> CO2(g) + H2(g)"],
+    extraTerms: [{ formula: "CO2", phase: "g", versionId: 0 }],
+  };
+  it("previews, saves with an extra pin for CO2, and the results carry both reactions", async () => {
+    const erin = await actorOf("engineer");
+    const c = await createCase(erin, caseInputSchema.parse(reformer()));
+    const withPin = { ...eq, extraTerms: [{ formula: "CO2", phase: "g", versionId: pins.CO2 }] };
+    const trial = await previewCaseEquilibrium(erin, async () => ({ caseId: c.id, equilibrium: withPin }));
+    expect(trial.equilibrium![0].extents).toHaveLength(2);
+    expect(trial.equilibrium!.every((p) => p.converged)).toBe(true);
+    const saved = await saveCaseEquilibrium(erin, c.id, async () => ({ lockVersion: c.lockVersion, equilibrium: withPin }));
+    expect(saved.inputs.equilibrium).toMatchObject({ key: "CH4(g)", reactions: eq.reactions });
+    expect(saved.pins.map((p) => p.key)).toContain("CO2(g)");
+    const live = await getResults(erin, c.id);
+    expect(live.result.equilibrium).toEqual(trial.equilibrium);
+  });
+  it("refuses a reviewer's save and another author's save, and an extra pin that does not exist", async () => {
+    const erin = await actorOf("engineer");
+    const c = await createCase(erin, caseInputSchema.parse(reformer()));
+    const before = await tableCounts();
+    await expect(saveCaseEquilibrium(await actorOf("reviewer"), c.id, async () => ({ lockVersion: 0, equilibrium: null }))).rejects.toMatchObject({ status: 403 });
+    await expect(saveCaseEquilibrium(await actorOf("steward"), c.id, async () => ({ lockVersion: 0, equilibrium: null }))).rejects.toMatchObject({ status: 403 });
+    await expect(saveCaseEquilibrium(erin, c.id, async () => ({ lockVersion: 0, equilibrium: { ...eq, extraTerms: [{ formula: "CO2", phase: "g", versionId: 999999 }] } }))).rejects.toMatchObject({
+      status: 422,
+    });
+    await expect(previewCaseEquilibrium(await actorOf("other"), async () => ({ caseId: c.id, equilibrium: { feed: eq.feed } }))).rejects.toMatchObject({ status: 404 });
+    expect(await tableCounts()).toEqual(before);
   });
 });
