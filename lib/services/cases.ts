@@ -1,11 +1,10 @@
 import "server-only";
-import crypto from "node:crypto";
-import canonicalize from "canonicalize";
 import Papa from "papaparse";
 import { Op, type Transaction } from "sequelize";
 import { requirePermission, requireSameTeam, type Actor } from "@/lib/auth/guards";
 import { can } from "@/lib/auth/permissions";
 import { reactionText, termKey } from "@/lib/cases/balance";
+import { canonicalSha256 } from "@/lib/cases/hash";
 import { formatQuantity } from "@/lib/cases/temperature";
 import { db, models } from "@/lib/db";
 import { AppError, conflict, notFound } from "@/lib/errors";
@@ -147,10 +146,7 @@ export type SnapshotContent = { inputs: CaseInput; pins: PinnedVersion[]; engine
 
 /** SHA-256 (hex) of the RFC 8785 canonical JSON of the snapshot content, as it is stored (a JSON round trip). */
 export function snapshotHash(content: SnapshotContent): string {
-  const stored = JSON.parse(JSON.stringify(content)) as SnapshotContent;
-  const text = canonicalize({ inputs: stored.inputs, pins: stored.pins, engineVersion: stored.engineVersion, request: stored.request, result: stored.result });
-  if (text === undefined) throw new Error("snapshot content cannot be canonicalized");
-  return crypto.createHash("sha256").update(text, "utf8").digest("hex");
+  return canonicalSha256({ inputs: content.inputs, pins: content.pins, engineVersion: content.engineVersion, request: content.request, result: content.result });
 }
 
 /** Recompute a stored snapshot's hash; true when it still matches. */
