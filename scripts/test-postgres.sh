@@ -55,6 +55,10 @@ if [ "$#" -gt 0 ]; then
 else
   targets=(tests/services tests/db tests/api tests/seeders tests/lib)
 fi
+# vitest runs in the background so that a signal (Ctrl-C, CI's timeout) stops it and the server at once.
+node_modules/.bin/vitest run --maxWorkers="${HEATPATH_TEST_PG_WORKERS:-2}" "${targets[@]}" &
+vitest_pid=$!
+trap 'kill "$vitest_pid" 2>/dev/null || true; wait "$vitest_pid" 2>/dev/null || true; exit 130' INT TERM
 status=0
-node_modules/.bin/vitest run --maxWorkers="${HEATPATH_TEST_PG_WORKERS:-2}" "${targets[@]}" || status=$?
+wait "$vitest_pid" || status=$?
 exit "$status"
