@@ -63,6 +63,7 @@ export function ResultCharts({ result, toleranceKJ, compact = false }: { result:
         </section>
         <section className={panel}>
           <h3 className={title}>K(T), log scale</h3>
+          <p className="mb-1 text-xs text-ink-muted">Grey line: K = 1.</p>
           <LineSeriesChart
             testId="chart-k"
             ariaLabel="Equilibrium constant against temperature on a log axis"
@@ -75,7 +76,7 @@ export function ResultCharts({ result, toleranceKJ, compact = false }: { result:
               { key: "log10K", name: "corrected", color: CHART_COLORS.ember },
               { key: "naiveLog10K", name: "naive", color: CHART_COLORS.frost, dashed: true },
             ]}
-            marksY={[{ y: 0, label: "K = 1", color: CHART_COLORS.muted }]}
+            marksY={[{ y: 0, color: CHART_COLORS.muted }]}
             height={h}
           />
         </section>

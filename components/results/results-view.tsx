@@ -21,9 +21,12 @@ export async function fetchJson<T>(url: string): Promise<T> {
 }
 
 /** The results of a case, fetched from the API: the stored snapshot once submitted, a live evaluation while a draft. */
-export function ResultsView({ caseId, revision }: { caseId: number; revision?: number }) {
+export function ResultsView({ caseId, revision, stamp }: { caseId: number; revision?: number; stamp: number }) {
   const q = revision ? `?revision=${revision}` : "";
-  const { data, error, isLoading } = useSWR<ResultsDto, ApiError>(`/api/v1/cases/${caseId}/results${q}`, fetchJson, { revalidateOnFocus: false });
+  // The case's lockVersion is part of the key: an edit, a submission or a decision fetches afresh.
+  const { data, error, isLoading } = useSWR<ResultsDto, ApiError, [string, number]>([`/api/v1/cases/${caseId}/results${q}`, stamp], ([url]) => fetchJson<ResultsDto>(url), {
+    revalidateOnFocus: false,
+  });
 
   if (isLoading) return <Card><p className="text-sm text-ink-muted">Evaluating…</p></Card>;
   if (error || !data) {

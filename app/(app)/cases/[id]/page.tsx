@@ -5,6 +5,7 @@ import { CommentForm } from "@/components/cases/comment-form";
 import { InputsCard, PinsCard } from "@/components/cases/inputs-card";
 import { ReviewPanel } from "@/components/cases/review-panel";
 import { StatusBadge } from "@/components/cases/status-badge";
+import { EquilibriumPanel } from "@/components/equilibrium/equilibrium-panel";
 import { ResultsView } from "@/components/results/results-view";
 import { buttonClass } from "@/components/ui/button";
 import { Card, PageHeader } from "@/components/ui/card";
@@ -58,6 +59,11 @@ export default async function CasePage({ params, searchParams }: Props) {
         <StatusBadge status={c.status} />
         <span>by {c.authorName}</span>
         {latest && <span>· {c.snapshots.length} revision{c.snapshots.length === 1 ? "" : "s"}</span>}
+        {c.can.review && latest && (
+          <a href="#review" className="no-print font-medium text-frost-700 underline">
+            Your decision is asked: review panel below the results
+          </a>
+        )}
       </div>
 
       {c.status === "returned" && lastDecision && (
@@ -80,18 +86,31 @@ export default async function CasePage({ params, searchParams }: Props) {
         </div>
       </div>
 
-      {c.can.review && latest && (
-        <Card title="Review" className="mb-6 border-frost-500/40">
-          <ReviewPanel caseId={c.id} revision={latest.revision} />
-        </Card>
-      )}
-
       {chosen && chosen !== latest?.revision && (
         <p className="mb-3 rounded-md bg-paper-deep px-3 py-2 text-sm" data-testid="old-revision">
           Showing revision {chosen}, an earlier snapshot. <Link className="underline" href={`/cases/${c.id}`}>Back to the current one</Link>.
         </p>
       )}
-      <ResultsView caseId={c.id} revision={chosen} />
+      <ResultsView caseId={c.id} revision={chosen} stamp={c.lockVersion} />
+
+      {c.can.review && latest && (
+        <div id="review" className="mt-6 scroll-mt-4">
+          <Card title={`Review revision ${latest.revision}`} className="border-frost-500/40">
+            <ReviewPanel caseId={c.id} revision={latest.revision} />
+          </Card>
+        </div>
+      )}
+      <div className="mt-6">
+        <EquilibriumPanel
+          caseId={c.id}
+          revision={chosen}
+          canEdit={c.can.edit}
+          lockVersion={c.lockVersion}
+          initial={c.inputs.equilibrium ?? null}
+          caseKeys={c.inputs.terms.map(termKey)}
+          reactantKeys={c.inputs.terms.filter((t) => t.coefficient < 0).map(termKey)}
+        />
+      </div>
 
       <div className="mt-6 grid gap-4 lg:grid-cols-2">
         <Card title={`Snapshot history (${c.snapshots.length})`}>
