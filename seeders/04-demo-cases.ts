@@ -1,7 +1,9 @@
 import { Op, type Transaction } from "sequelize";
 import { canonicalSha256 } from "@/lib/cases/hash";
 import { evaluate, type EvaluateRequest } from "@/lib/thermo";
+import { equilibriumRequestOf, speciesOfPin } from "@/lib/cases/equilibrium";
 import type { CaseInput } from "@/lib/validation/cases";
+import type { CaseEquilibrium } from "@/lib/validation/equilibrium";
 import type { PinnedVersion } from "@/models/case-snapshot";
 import { DEMO_TEAM } from "./demo-accounts";
 import type { SeedContext } from "./index";
@@ -15,7 +17,18 @@ import type { SeedContext } from "./index";
  * 02-reference-library. Safe to repeat: a case whose title exists is left alone.
  */
 type Term = { formula: string; phase: string | null; coefficient: number };
-type Plan = { title: string; notes: string; terms: Term[]; temperatures: CaseInput["temperatures"]; toleranceKJ: number; flow: "draft" | "submitted" | "returned" | "approved"; reason?: string };
+/** An invented feed for the equilibrium panel; `extra` names species only the extra reactions use. */
+type DemoEquilibrium = Omit<CaseEquilibrium, "extraTerms"> & { extra: { formula: string; phase: string | null }[] };
+type Plan = {
+  title: string;
+  notes: string;
+  terms: Term[];
+  temperatures: CaseInput["temperatures"];
+  toleranceKJ: number;
+  flow: "draft" | "submitted" | "returned" | "approved";
+  reason?: string;
+  equilibrium?: DemoEquilibrium;
+};
 
 export const DEMO_CASES: Plan[] = [
   {
@@ -31,6 +44,15 @@ export const DEMO_CASES: Plan[] = [
     toleranceKJ: 2,
     flow: "approved",
     reason: "Crossover and outlet K agree with the design basis; naive error noted in the summary.",
+    // Steam-to-carbon 3 at 25 bar, reforming and shift together (invented plant data).
+    equilibrium: {
+      feed: { "CH4(g)": 100, "H2O(g)": 300, "CO(g)": 0, "H2(g)": 0 },
+      feedUnit: "kmol/h",
+      pressure: "25 bar",
+      key: "CH4(g)",
+      reactions: ["CH4(g) + H2O(g) -> CO(g) + 3 H2(g)", "CO(g) + H2O(g) -> CO2(g) + H2(g)"],
+      extra: [{ formula: "CO2", phase: "g" }],
+    },
   },
   {
     title: "Shift converter 480–700 K",
@@ -44,6 +66,15 @@ export const DEMO_CASES: Plan[] = [
     temperatures: { fromK: 480, toK: 700, stepK: 2 },
     toleranceKJ: 1,
     flow: "submitted",
+    // Converter inlet after the reformer and waste-heat boiler, 30 bar (invented); methane rides along.
+    equilibrium: {
+      feed: { "CO(g)": 13, "H2O(g)": 38, "CO2(g)": 6, "H2(g)": 40, "CH4(g)": 3 },
+      feedUnit: "kmol/h",
+      pressure: "30 bar",
+      key: "CO(g)",
+      reactions: [],
+      extra: [],
+    },
   },
   {
     title: "Ammonia loop near 700 K",
@@ -56,6 +87,8 @@ export const DEMO_CASES: Plan[] = [
     temperatures: { fromK: 600, toK: 800, stepK: 5 },
     toleranceKJ: 1,
     flow: "returned",
+    // Loop converter inlet at 150 bar with argon-free make-up (invented).
+    equilibrium: { feed: { "N2(g)": 1, "H2(g)": 3, "NH3(g)": 0.04 }, feedUnit: "kmol/s", pressure: "150 bar", key: "N2(g)", reactions: [], extra: [] },
     reason: "The loop runs near 150 bar: state the pressure in the notes and say that K here is the ideal-gas, 1 bar constant before I sign it off.",
   },
   {
@@ -110,6 +143,7 @@ async function pinFor(ctx: SeedContext, formula: string, phase: string | null, t
         status: v.status,
         citation: v.citation,
         data: v.data,
+        uncertainty: v.uncertainty ?? null,
       };
     }
   }
@@ -137,7 +171,7 @@ export async function seed(ctx: SeedContext): Promise<void> {
     for (const plan of DEMO_CASES) {
       if (existing.has(plan.title)) continue;
       const pins: PinnedVersion[] = [];
-      for (const t of plan.terms) {
+      for (const t of [...plan.terms, ...(plan.equilibrium?.extra ?? [])]) {
         const p = await pinFor(ctx, t.formula, t.phase, transaction);
         if (!p) {
           console.log(`04-demo-cases: skipped: no approved ${FAMILY} reference version of ${t.formula}${t.phase ? `(${t.phase})` : ""}; run 02-reference-library first`);
@@ -154,14 +188,22 @@ export async function seed(ctx: SeedContext): Promise<void> {
         toleranceKJ: plan.toleranceKJ,
         toleranceKFactor: null,
       };
+      if (plan.equilibrium) {
+        const { extra, ...eq } = plan.equilibrium;
+        const extraPins = pins.slice(plan.terms.length);
+        inputs.equilibrium = { ...eq, extraTerms: extra.map((t, i) => ({ ...t, versionId: extraPins[i].versionId })) };
+      }
       const { title: _t, notes: _n, ...stored } = inputs;
       const row = await Case.create({ teamId: team.id, authorId: erin.id, title: plan.title, notes: plan.notes, status: plan.flow, inputs: stored, lockVersion: plan.flow === "draft" ? 0 : plan.flow === "submitted" ? 1 : 2 }, { transaction });
       await audit("case.created", row.id, erin.id, { title: plan.title, seeded: true });
       if (plan.flow === "draft") continue;
 
       const species: EvaluateRequest["species"] = {};
-      for (const p of pins) species[p.key] = p.data as EvaluateRequest["species"][string];
+      // As the case services build it (lib/services/cases.ts buildRequest).
+      for (const p of pins) species[p.key] = speciesOfPin(p);
       const request: EvaluateRequest = { reaction: reactionOf(plan.terms), species, temperatures: plan.temperatures, referenceK: 298.15, toleranceKJ: plan.toleranceKJ };
+      const equilibrium = equilibriumRequestOf(inputs.equilibrium);
+      if (equilibrium) request.equilibrium = equilibrium;
       const result = evaluate(request);
       const content = JSON.parse(JSON.stringify({ inputs, pins, engineVersion: result.engine.version, request, result }));
       const snap = await CaseSnapshot.create({ caseId: row.id, teamId: team.id, revision: 1, ...content, hash: canonicalSha256(content), createdById: erin.id }, { transaction });

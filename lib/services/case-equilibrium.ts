@@ -5,7 +5,7 @@ import { parseWith } from "@/lib/http";
 import { evaluate, type EvaluateResult } from "@/lib/thermo";
 import { caseEquilibriumSchema } from "@/lib/validation/equilibrium";
 import { buildRequest, getCase, updateCase, type CaseDto } from "./cases";
-import { pinTerms } from "./equilibrium";
+import { pinTerms } from "@/lib/cases/equilibrium";
 import { loadPins } from "./pins";
 
 /** A case's equilibrium: trial runs and saving (the request parts live in ./equilibrium, which cases.ts uses). */

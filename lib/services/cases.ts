@@ -15,7 +15,7 @@ import type { Case } from "@/models/case";
 import type { CaseSnapshot, PinnedVersion } from "@/models/case-snapshot";
 import { recordAudit } from "./audit";
 import { enqueueMailToRoles } from "./mail";
-import { equilibriumCsvColumns, equilibriumRequestOf, pinTerms, speciesOfPin } from "./equilibrium";
+import { equilibriumCsvColumns, equilibriumRequestOf, pinTerms, speciesOfPin } from "@/lib/cases/equilibrium";
 import { loadPins, newerApprovedVersions, type NewerVersionDto } from "./pins";
 
 // ---------------------------------------------------------------- DTOs

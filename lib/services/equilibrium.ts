@@ -2,76 +2,10 @@ import "server-only";
 import { Op } from "sequelize";
 import { requirePermission, type Actor } from "@/lib/auth/guards";
 import { models } from "@/lib/db";
-import { compareSources, type EvaluateRequest, type EvaluateResult, type SourceComparison, type SpeciesInput } from "@/lib/thermo";
-import type { CaseEquilibrium } from "@/lib/validation/equilibrium";
-import type { CaseTerm } from "@/lib/validation/cases";
-import type { PinnedVersion } from "@/models/case-snapshot";
+import { compareSources, type EvaluateRequest, type SourceComparison, type SpeciesInput } from "@/lib/thermo";
+import { speciesOfPin } from "@/lib/cases/equilibrium";
 
-/** The case's terms plus the extra species of its equilibrium set, for loading pins. */
-export function pinTerms(inputs: { terms: CaseTerm[]; equilibrium?: CaseEquilibrium | null }): CaseTerm[] {
-  const extra = inputs.equilibrium?.extraTerms ?? [];
-  return [...inputs.terms, ...extra.map((t) => ({ ...t, coefficient: 1 }))];
-}
-
-/** A pin's species entry, with the version's uncertainty where it has one. */
-export function speciesOfPin(p: Pick<PinnedVersion, "data"> & { uncertainty?: PinnedVersion["uncertainty"] }): SpeciesInput {
-  const data = p.data as SpeciesInput;
-  const u = p.uncertainty;
-  if (!u || (u.dfHkJ === undefined && u.sJ === undefined && u.cpRelative === undefined)) return data;
-  return { ...data, uncertainty: u };
-}
-
-/** The request's `equilibrium` part for a case, or undefined when the case has none. */
-export function equilibriumRequestOf(eq: CaseEquilibrium | null | undefined): EvaluateRequest["equilibrium"] | undefined {
-  if (!eq) return undefined;
-  return {
-    feed: eq.feed,
-    feedUnit: eq.feedUnit,
-    pressureBar: eq.pressure,
-    ...(eq.key ? { key: eq.key } : {}),
-    ...(eq.reactions.length ? { reactions: eq.reactions } : {}),
-  };
-}
-
-/** Columns the CSV export adds when a result carries an equilibrium (one row per temperature, API field paths as headers; the σ of ΔrG and log10 K ride along). */
-export function equilibriumCsvColumns(result: EvaluateResult): { header: string; values: (string | number | boolean | null)[] }[] {
-  const cols: { header: string; values: (string | number | boolean | null)[] }[] = [];
-  const pts = result.points;
-  const eq = result.equilibrium;
-  // A case without an equilibrium keeps the plain columns.
-  if (!eq || eq.length === 0) return cols;
-  if (result.uncertainty) {
-    cols.push({ header: "sigmaDGkJ", values: pts.map((p) => p.sigmaDGkJ ?? null) });
-    cols.push({ header: "sigmaLog10K", values: pts.map((p) => p.sigmaLog10K ?? null) });
-    cols.push({ header: "naiveExceedsUncertainty", values: pts.map((p) => p.naiveExceedsUncertainty ?? null) });
-  }
-  const R = eq[0].extents.length;
-  for (let j = 0; j < R; j++) {
-    cols.push({ header: `equilibrium.extents[${j}]`, values: eq.map((p) => p.extents[j]) });
-    cols.push({ header: `equilibrium.naive.extents[${j}]`, values: eq.map((p) => p.naive.extents[j]) });
-  }
-  cols.push({ header: "equilibrium.keyConversion", values: eq.map((p) => p.keyConversion) });
-  cols.push({ header: "equilibrium.naive.keyConversion", values: eq.map((p) => p.naive.keyConversion) });
-  cols.push({ header: "equilibrium.keyFraction", values: eq.map((p) => p.keyFraction) });
-  cols.push({ header: "equilibrium.naive.keyFraction", values: eq.map((p) => p.naive.keyFraction) });
-  cols.push({ header: "equilibrium.keyFractionDiff", values: eq.map((p) => p.keyFractionDiff) });
-  if (eq[0].sigma) {
-    cols.push({ header: "equilibrium.sigma.keyFraction", values: eq.map((p) => p.sigma?.keyFraction ?? null) });
-    cols.push({ header: "equilibrium.naiveExceedsUncertainty", values: eq.map((p) => p.naiveExceedsUncertainty ?? null) });
-  }
-  const keys = Object.keys(eq[0].moles);
-  for (const k of keys) {
-    cols.push({ header: `equilibrium.moles.${k}`, values: eq.map((p) => p.moles[k]) });
-    cols.push({ header: `equilibrium.naive.moles.${k}`, values: eq.map((p) => p.naive.moles[k]) });
-  }
-  for (const k of Object.keys(eq[0].moleFractions)) {
-    cols.push({ header: `equilibrium.moleFractions.${k}`, values: eq.map((p) => p.moleFractions[k] ?? null) });
-    cols.push({ header: `equilibrium.naive.moleFractions.${k}`, values: eq.map((p) => p.naive.moleFractions[k] ?? null) });
-    if (eq[0].sigma) cols.push({ header: `equilibrium.sigma.moleFractions.${k}`, values: eq.map((p) => p.sigma?.moleFractions[k] ?? null) });
-  }
-  cols.push({ header: "equilibrium.converged", values: eq.map((p) => p.converged && p.naive.converged) });
-  return cols;
-}
+export { equilibriumCsvColumns, equilibriumRequestOf, pinTerms, speciesOfPin } from "@/lib/cases/equilibrium";
 
 export type FamilyOptionDto = { family: string; versions: { key: string; versionId: number; modelName: string; versionNumber: number; citation: string }[] };
 
@@ -155,4 +89,20 @@ export async function compareFamilies(actor: Actor | null, readBody: () => Promi
     families.map((f) => ({ label: f.family, species: Object.fromEntries(species.get(f.family)!) })),
   );
   return { families, comparison, message: null };
+}
+
+/**
+ * The family comparison for a printed report: computed at print time from the approved
+ * versions (not part of any snapshot), or null when fewer than two families cover the species.
+ */
+export async function reportSources(actor: Actor | null, request: EvaluateRequest): Promise<SourceComparisonDto | null> {
+  const keys = Object.keys(request.species);
+  const body = { ...request, species: Object.fromEntries(keys.map((k) => [k, {}])) } as unknown as EvaluateRequest;
+  try {
+    const out = await compareFamilies(actor, async () => body);
+    return out.comparison ? out : null;
+  } catch {
+    // A family that cannot evaluate the case (e.g. a missing phase) leaves the report without the comparison.
+    return null;
+  }
 }

@@ -127,3 +127,16 @@ describe("the reformer with shift as a case (invented demo scenario)", () => {
     expect(await tableCounts()).toEqual(before);
   });
 });
+
+describe("demo data (invented Larkspur Hydrogen Works cases)", () => {
+  it.each(["Reformer outlet near 1100 K", "Shift converter 480–700 K", "Ammonia loop near 700 K"])("%s carries a converged equilibrium", async (title) => {
+    const erin = await actorOf("engineer");
+    const { models } = await import("@/lib/db");
+    const row = await models().Case.findOne({ where: { title } });
+    expect(row, `seeded case ${title}`).not.toBeNull();
+    const r = await getResults(erin, row!.id);
+    expect(r.result.equilibrium!.length).toBe(r.result.points.length);
+    expect(r.result.equilibrium!.every((p) => p.converged && p.naive.converged)).toBe(true);
+    expect(r.result.uncertainty).toBeDefined();
+  });
+});

@@ -1,5 +1,6 @@
 import { notFound } from "next/navigation";
 import { temperaturesText } from "@/components/cases/inputs-card";
+import { EquilibriumReport } from "@/components/equilibrium/equilibrium-report";
 import { Caution } from "@/components/results/caution";
 import { PrintButton } from "@/components/results/print-button";
 import { ResultCharts } from "@/components/results/result-charts";
@@ -10,6 +11,7 @@ import { fixed, sci } from "@/lib/cases/format";
 import { formatQuantity } from "@/lib/cases/temperature";
 import { AppError } from "@/lib/errors";
 import { getResults } from "@/lib/services/cases";
+import { reportSources } from "@/lib/services/equilibrium";
 
 export const metadata = { title: "Case report" };
 
@@ -144,6 +146,8 @@ export default async function ReportPage({ params, searchParams }: Props) {
         </table>
         <p className="mt-1 text-xs text-ink-muted">* beyond tolerance. H on the formation basis; G = H − TS of each species is not ΔfG°(T).</p>
       </section>
+
+      {r.equilibrium && <EquilibriumReport result={r} sources={await reportSources(actor, data.request)} />}
 
       <section className="break-inside-avoid">
         <h2 className="mb-1 text-sm font-semibold">Warnings ({r.warnings.length})</h2>

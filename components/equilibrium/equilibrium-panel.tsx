@@ -1,0 +1,353 @@
+"use client";
+
+import { useRouter } from "next/navigation";
+import { useState } from "react";
+import useSWR, { useSWRConfig } from "swr";
+import { Caution } from "@/components/results/caution";
+import { Badge } from "@/components/ui/badge";
+import { Button } from "@/components/ui/button";
+import { Card } from "@/components/ui/card";
+import { Field, Select, TextInput, inputClass } from "@/components/ui/field";
+import type { ResultsDto } from "@/lib/services/cases";
+import type { PinOptionDto } from "@/lib/services/pins";
+import type { EvaluateResult } from "@/lib/thermo/evaluate";
+import type { CaseEquilibrium, ExtraTerm } from "@/lib/validation/equilibrium";
+import { EquilibriumResults } from "./equilibrium-results";
+import { SourceComparisonView, type SourcesDto } from "./source-comparison";
+
+type ApiError = { code: string; message: string; details?: { fields?: Record<string, string> } };
+
+async function fetchJson<T>(url: string): Promise<T> {
+  const res = await fetch(url, { headers: { accept: "application/json" } });
+  const body = await res.json().catch(() => null);
+  if (!res.ok) throw (body?.error as ApiError) ?? { code: "http", message: `Request failed (${res.status}).` };
+  return body as T;
+}
+
+async function send<T>(method: string, url: string, body: unknown): Promise<T> {
+  const res = await fetch(url, { method, headers: { "content-type": "application/json", accept: "application/json" }, body: JSON.stringify(body) });
+  const data = await res.json().catch(() => null);
+  if (!res.ok) throw (data?.error as ApiError) ?? { code: "http", message: `Request failed (${res.status}).` };
+  return data as T;
+}
+
+/** Species keys of a reaction text ("2 H2(g) + O2(g) -> 2 H2O(g)" → H2(g), O2(g), H2O(g)). */
+export function keysOfReaction(text: string): string[] {
+  return text
+    .split(/->|=/)
+    .flatMap((side) => side.split("+"))
+    .map((t) => t.trim().replace(/^(\d+(?:\.\d+)?(?:\/\d+)?|\.\d+)\s*\*?\s*/, ""))
+    .filter(Boolean);
+}
+
+const markerless = (key: string) => {
+  const m = /^(.*?)(?:\((cr(?:-[A-Za-z0-9_.]+)?|l|g)\))?$/.exec(key)!;
+  return { formula: m[1], phase: m[2] ?? null };
+};
+
+type Row = { key: string; amount: string };
+
+/**
+ * The equilibrium panel of a case: feed, pressure and key species (and optionally a
+ * simultaneous set), the saved result from the case's results (snapshot or live), trial runs,
+ * and the comparison of data families.
+ */
+export function EquilibriumPanel({
+  caseId,
+  revision,
+  canEdit,
+  lockVersion,
+  initial,
+  caseKeys,
+  reactantKeys,
+}: {
+  caseId: number;
+  revision?: number;
+  canEdit: boolean;
+  lockVersion: number;
+  initial: CaseEquilibrium | null;
+  caseKeys: string[];
+  reactantKeys: string[];
+}) {
+  const router = useRouter();
+  const { mutate } = useSWRConfig();
+  const resultsKey = `/api/v1/cases/${caseId}/results${revision ? `?revision=${revision}` : ""}`;
+  const { data } = useSWR<ResultsDto, ApiError>(resultsKey, fetchJson, { revalidateOnFocus: false });
+
+  const [rows, setRows] = useState<Row[]>(() => {
+    const feed = initial?.feed ?? Object.fromEntries(caseKeys.map((k) => [k, reactantKeys.includes(k) ? 1 : 0]));
+    const keys = [...new Set([...caseKeys, ...Object.keys(feed)])];
+    return keys.map((k) => ({ key: k, amount: String(feed[k] ?? 0) }));
+  });
+  const [unit, setUnit] = useState(initial?.feedUnit ?? "mol");
+  const [pressure, setPressure] = useState(String(initial?.pressure ?? "1 bar"));
+  const [key, setKey] = useState(initial?.key ?? reactantKeys[0] ?? caseKeys[0]);
+  const [reactionsText, setReactionsText] = useState((initial?.reactions ?? []).join("\n"));
+  const [extraPins, setExtraPins] = useState<Record<string, number>>(() =>
+    Object.fromEntries((initial?.extraTerms ?? []).map((t) => [t.phase ? `${t.formula}(${t.phase})` : t.formula, t.versionId])),
+  );
+  const [newKey, setNewKey] = useState("");
+  const [trial, setTrial] = useState<EvaluateResult | null>(null);
+  const [busy, setBusy] = useState<string | null>(null);
+  const [error, setError] = useState<ApiError | null>(null);
+  const [saved, setSaved] = useState<string | null>(null);
+  const [sources, setSources] = useState<SourcesDto | null>(null);
+
+  const reactions = reactionsText.split("\n").map((l) => l.trim()).filter(Boolean);
+  const extraKeys = [...new Set(reactions.flatMap(keysOfReaction))].filter((k) => !caseKeys.includes(k));
+  const feedKeys = [...new Set([...rows.map((r) => r.key), ...extraKeys])];
+
+  const equilibrium = (): CaseEquilibrium => {
+    const amounts = new Map(rows.map((r) => [r.key, Number(r.amount)]));
+    const feed: Record<string, number> = {};
+    for (const k of feedKeys) feed[k] = Number.isFinite(amounts.get(k)) ? amounts.get(k)! : 0;
+    const extraTerms: ExtraTerm[] = extraKeys.map((k) => ({ ...markerless(k), versionId: extraPins[k] ?? 0 }));
+    const p = pressure.trim();
+    return {
+      feed,
+      feedUnit: unit.trim() || "mol",
+      pressure: /^[-+]?\d*\.?\d+(e[-+]?\d+)?$/i.test(p) ? Number(p) : p,
+      key: key || null,
+      reactions,
+      extraTerms,
+    };
+  };
+
+  const run = async (what: "trial" | "save" | "clear" | "sources") => {
+    setBusy(what);
+    setError(null);
+    setSaved(null);
+    try {
+      if (what === "trial") {
+        setTrial(await send<EvaluateResult>("POST", "/api/v1/equilibrium/preview", { caseId, equilibrium: equilibrium() }));
+      } else if (what === "save" || what === "clear") {
+        await send("PUT", `/api/v1/equilibrium/cases/${caseId}`, { lockVersion, equilibrium: what === "clear" ? null : equilibrium() });
+        setTrial(null);
+        setSaved(what === "clear" ? "Equilibrium removed from the case." : "Saved to the case.");
+        await mutate(resultsKey);
+        router.refresh();
+      } else if (data) {
+        const shown = trial ?? data.result;
+        const eqReq = trial
+          ? { feed: equilibrium().feed, feedUnit: unit, pressureBar: equilibrium().pressure, key: key || undefined, ...(reactions.length ? { reactions } : {}) }
+          : data.request.equilibrium;
+        const keys = [...new Set([...Object.keys(data.request.species), ...(trial ? extraKeys : [])])];
+        setSources(
+          await send<SourcesDto>("POST", "/api/v1/equilibrium/sources", {
+            reaction: data.request.reaction,
+            species: Object.fromEntries(keys.map((k) => [k, {}])),
+            temperatures: data.request.temperatures,
+            referenceK: data.request.referenceK,
+            ...(shown.equilibrium && eqReq ? { equilibrium: eqReq } : {}),
+          }),
+        );
+      }
+    } catch (e) {
+      setError(e as ApiError);
+    } finally {
+      setBusy(null);
+    }
+  };
+
+  const shown = trial ?? data?.result ?? null;
+  const hasSaved = Boolean(data?.result.equilibrium);
+  const editable = canEdit && data?.source !== "snapshot";
+
+  return (
+    <Card title="How far it goes: equilibrium outlet" className="break-inside-avoid">
+      <div className="space-y-4" data-testid="equilibrium-panel">
+        <p className="text-sm text-ink-muted">
+          Outlet composition from a feed at each temperature of the case, with ideal-gas activities at the given pressure and pure condensed phases at unit
+          activity, once with the corrected K and once with the naive K.
+        </p>
+        {editable ? (
+          <form
+            className="grid gap-4 lg:grid-cols-[minmax(0,1fr)_minmax(0,1fr)]"
+            onSubmit={(e) => {
+              e.preventDefault();
+              void run("trial");
+            }}
+          >
+            <fieldset className="space-y-2">
+              <legend className="mb-1 text-sm font-medium text-ink-soft">Feed</legend>
+              <div className="space-y-2" data-testid="feed-rows">
+                {feedKeys.map((k) => {
+                  const row = rows.find((r) => r.key === k);
+                  const id = `feed-${k.replace(/[^A-Za-z0-9]/g, "_")}`;
+                  return (
+                    <div key={k} className="flex items-center gap-2">
+                      <label htmlFor={id} className="w-28 shrink-0 truncate text-sm font-medium" title={k}>
+                        {k}
+                      </label>
+                      <input
+                        id={id}
+                        name={id}
+                        type="number"
+                        min={0}
+                        step="any"
+                        inputMode="decimal"
+                        className={inputClass}
+                        value={row?.amount ?? "0"}
+                        onChange={(e) => {
+                          const v = e.target.value;
+                          setRows((rs) => (rs.some((r) => r.key === k) ? rs.map((r) => (r.key === k ? { ...r, amount: v } : r)) : [...rs, { key: k, amount: v }]));
+                        }}
+                      />
+                      <span className="w-16 shrink-0 text-xs text-ink-muted">{unit}</span>
+                      {!caseKeys.includes(k) && !extraKeys.includes(k) && (
+                        <button type="button" className="text-xs text-flag-700 underline" onClick={() => setRows((rs) => rs.filter((r) => r.key !== k))} aria-label={`Remove ${k}`}>
+                          remove
+                        </button>
+                      )}
+                    </div>
+                  );
+                })}
+              </div>
+              <div className="flex items-end gap-2">
+                <div className="grow">
+                  <Field label="Inert species (rides along, e.g. N2(g))" name="inert">
+                    <TextInput name="inert" value={newKey} onChange={(e) => setNewKey(e.target.value)} placeholder="N2(g)" />
+                  </Field>
+                </div>
+                <Button
+                  type="button"
+                  variant="secondary"
+                  onClick={() => {
+                    const k = newKey.trim();
+                    if (k && !feedKeys.includes(k)) setRows((rs) => [...rs, { key: k, amount: "0" }]);
+                    setNewKey("");
+                  }}
+                >
+                  Add
+                </Button>
+              </div>
+            </fieldset>
+            <div className="space-y-3">
+              <div className="grid grid-cols-2 gap-3">
+                <Field label="Unit of amount" name="feedUnit" hint="Moles come back in the same unit.">
+                  <TextInput name="feedUnit" value={unit} onChange={(e) => setUnit(e.target.value)} />
+                </Field>
+                <Field label="Pressure" name="pressure" hint="bar, or with a unit: 2.5 MPa, 30 atm">
+                  <TextInput name="pressure" value={pressure} onChange={(e) => setPressure(e.target.value)} />
+                </Field>
+              </div>
+              <Field label="Key species (conversion and slip)" name="key">
+                <Select name="key" value={key} onChange={(e) => setKey(e.target.value)}>
+                  {feedKeys.map((k) => (
+                    <option key={k} value={k}>
+                      {k}
+                    </option>
+                  ))}
+                </Select>
+              </Field>
+              <Field label="Simultaneous reactions (optional, one per line)" name="reactions" hint="Empty: the case's own reaction. Give independent reactions, e.g. reforming and shift.">
+                <textarea
+                  id="reactions"
+                  name="reactions"
+                  rows={3}
+                  className={inputClass}
+                  value={reactionsText}
+                  onChange={(e) => setReactionsText(e.target.value)}
+                  placeholder={"CH4(g) + H2O(g) -> CO(g) + 3 H2(g)\nCO(g) + H2O(g) -> CO2(g) + H2(g)"}
+                />
+              </Field>
+              {extraKeys.map((k) => (
+                <ExtraPin key={k} speciesKey={k} value={extraPins[k]} onChange={(v) => setExtraPins((p) => ({ ...p, [k]: v }))} />
+              ))}
+              <div className="flex flex-wrap gap-2">
+                <Button type="submit" disabled={busy !== null}>
+                  {busy === "trial" ? "Solving…" : "Solve"}
+                </Button>
+                <Button type="button" variant="secondary" disabled={busy !== null} onClick={() => void run("save")}>
+                  {busy === "save" ? "Saving…" : "Save to case"}
+                </Button>
+                {hasSaved && (
+                  <Button type="button" variant="ghost" disabled={busy !== null} onClick={() => void run("clear")}>
+                    Remove from case
+                  </Button>
+                )}
+              </div>
+            </div>
+          </form>
+        ) : (
+          !hasSaved && <p className="text-sm text-ink-muted">This case has no equilibrium feed{canEdit ? "" : "; its author can add one while it is a draft"}.</p>
+        )}
+
+        {error && (
+          <div role="alert" className="rounded-md border border-flag-600/30 bg-flag-50 px-3 py-2 text-sm text-flag-700" data-testid="equilibrium-error">
+            <code className="mr-2 font-semibold">{error.code}</code>
+            {error.message}
+            {error.details?.fields && (
+              <ul className="mt-1 list-disc pl-5 text-xs">
+                {Object.entries(error.details.fields).map(([f, m]) => (
+                  <li key={f}>
+                    {f}: {m}
+                  </li>
+                ))}
+              </ul>
+            )}
+          </div>
+        )}
+        {saved && (
+          <p role="status" className="text-sm text-moss-700">
+            {saved}
+          </p>
+        )}
+
+        {shown?.equilibrium && (
+          <>
+            <div className="flex flex-wrap items-center justify-between gap-2">
+              {trial ? <Badge tone="ember">Trial run, not saved</Badge> : <Badge tone={data?.source === "snapshot" ? "moss" : "frost"}>{data?.source === "snapshot" ? `Frozen snapshot · revision ${data.revision}` : "Saved feed · live evaluation"}</Badge>}
+              <Button type="button" variant="secondary" disabled={busy !== null} onClick={() => void run("sources")} data-testid="compare-sources">
+                {busy === "sources" ? "Comparing…" : "Compare data families"}
+              </Button>
+            </div>
+            <EquilibriumResults result={shown} />
+            <WarningCodes result={shown} />
+          </>
+        )}
+        {sources && <SourceComparisonView data={sources} />}
+        <Caution />
+      </div>
+    </Card>
+  );
+}
+
+function WarningCodes({ result }: { result: EvaluateResult }) {
+  const high = result.warnings.find((w) => w.code === "high-pressure");
+  const nc = result.warnings.find((w) => w.code === "equilibrium-not-converged");
+  if (!high && !nc) return null;
+  return (
+    <ul className="space-y-1 text-xs text-flag-700" data-testid="equilibrium-warnings">
+      {high && (
+        <li>
+          <code>high-pressure</code> {high.message}
+        </li>
+      )}
+      {nc && (
+        <li>
+          <code>equilibrium-not-converged</code> {nc.message}
+        </li>
+      )}
+    </ul>
+  );
+}
+
+function ExtraPin({ speciesKey, value, onChange }: { speciesKey: string; value?: number; onChange: (versionId: number) => void }) {
+  const { formula } = markerless(speciesKey);
+  const { data } = useSWR<{ versions: PinOptionDto[] }>(`/api/v1/pins?formula=${encodeURIComponent(formula)}`, fetchJson, { revalidateOnFocus: false });
+  const options = data?.versions ?? [];
+  const name = `pin-${speciesKey.replace(/[^A-Za-z0-9]/g, "_")}`;
+  return (
+    <Field label={`Model version for ${speciesKey} (only in the extra reactions)`} name={name}>
+      <Select name={name} value={value ?? ""} onChange={(e) => onChange(Number(e.target.value))}>
+        <option value="">Pick a version…</option>
+        {options.map((o) => (
+          <option key={o.versionId} value={o.versionId}>
+            {o.modelName} · v{o.versionNumber} · {o.status}
+          </option>
+        ))}
+      </Select>
+    </Field>
+  );
+}

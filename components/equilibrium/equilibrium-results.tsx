@@ -1,0 +1,134 @@
+"use client";
+
+import { CHART_COLORS } from "@/components/charts/line-series-chart";
+import { CompositionChart, type CompositionSeries } from "@/components/charts/composition-chart";
+import { Badge } from "@/components/ui/badge";
+import type { EvaluateResult } from "@/lib/thermo/evaluate";
+import { colorOf, compositionRows, gasSpecies, keyRows } from "./series";
+
+const pct = (x: number | null | undefined, digits = 3) => (x === null || x === undefined ? "—" : `${Number((100 * x).toPrecision(digits))} %`);
+const num = (x: number | null | undefined, digits = 4) => (x === null || x === undefined ? "—" : String(Number(x.toPrecision(digits))));
+
+/** At most this many table rows on screen; the CSV export has every point. */
+const TABLE_ROWS = 24;
+
+/**
+ * Outlet composition against T, corrected against naive K, with ±1σ bands where the data
+ * carry uncertainties. Presentational: takes an evaluate result with an `equilibrium` part.
+ */
+export function EquilibriumResults({ result, compact = false }: { result: EvaluateResult; compact?: boolean }) {
+  const eq = result.equilibrium;
+  const info = result.equilibriumInfo;
+  if (!eq || !info || eq.length === 0) return null;
+  const key = info.key;
+  const gas = gasSpecies(result);
+  const comp: CompositionSeries[] = gas.flatMap((k, i) => [
+    { key: `c:${k}`, name: `${k} corrected`, color: colorOf(i) },
+    { key: `n:${k}`, name: `${k} naive`, color: colorOf(i), dashed: true },
+  ]);
+  const keySeries: CompositionSeries[] = [
+    { key: "corrected", name: `${key} corrected`, color: CHART_COLORS.ember, bandKey: eq[0].sigma ? "correctedBand" : undefined },
+    { key: "naive", name: `${key} naive`, color: CHART_COLORS.frost, dashed: true, bandKey: eq[0].naive.sigma ? "naiveBand" : undefined },
+  ];
+  const stride = Math.max(1, Math.ceil(eq.length / TABLE_ROWS));
+  const rows = eq.filter((_, i) => i % stride === 0 || i === eq.length - 1);
+  const over = info.naiveExceedsUncertaintyK;
+  const notConverged = eq.filter((p) => !p.converged || !p.naive.converged).length;
+  const worst = eq.reduce((a, p) => (Math.abs(p.keyFractionDiff) > Math.abs(a.keyFractionDiff) ? p : a), eq[0]);
+  const th = "border-b border-ink-line px-2 py-1 text-right font-medium whitespace-nowrap";
+  const td = "px-2 py-0.5 text-right tabular whitespace-nowrap";
+  return (
+    <div className="space-y-4" data-testid="equilibrium-results">
+      <div className="flex flex-wrap items-center gap-2 text-sm">
+        <Badge tone="neutral">{info.pressureBar} bar</Badge>
+        <Badge tone="neutral">key {key}</Badge>
+        <Badge tone="neutral">feed in {info.feedUnit}</Badge>
+        {info.reactions.length > 1 && <Badge tone="frost">{info.reactions.length} simultaneous reactions</Badge>}
+        {notConverged > 0 ? <Badge tone="flag">{notConverged} points not converged</Badge> : <Badge tone="moss">converged at every T</Badge>}
+      </div>
+      <p className="text-sm text-ink-soft" data-testid="equilibrium-headline">
+        Largest difference in the {key} outlet fraction: <strong>{pct(worst.keyFractionDiff)}</strong> (naive − corrected, absolute) at {num(worst.tK, 6)} K
+        {over !== undefined && (
+          <>
+            {"; "}
+            {over.length === 0 ? (
+              "the naive error stays within the data's own 1σ everywhere"
+            ) : (
+              <>
+                the naive error exceeds the data&apos;s own 1σ at <strong>{over.length}</strong> of {eq.length} temperatures ({num(over[0], 6)}
+                {over.length > 1 ? `–${num(over[over.length - 1], 6)}` : ""} K)
+              </>
+            )}
+          </>
+        )}
+        .
+      </p>
+      {info.reactions.length > 1 && (
+        <ol className="list-decimal pl-5 text-xs text-ink-muted">
+          {info.reactions.map((r) => (
+            <li key={r}>{r}</li>
+          ))}
+        </ol>
+      )}
+      <div className={compact ? "grid grid-cols-2 gap-3" : "grid gap-4 lg:grid-cols-2"}>
+        <div>
+          <h3 className="mb-1 text-xs font-semibold text-ink-soft">{key} outlet mole fraction (gas), ±1σ</h3>
+          <CompositionChart data={keyRows(result)} series={keySeries} yLabel="mole fraction" testId="equilibrium-key-chart" ariaLabel={`${key} outlet fraction against temperature, corrected and naive`} height={compact ? 200 : 260} />
+        </div>
+        <div>
+          <h3 className="mb-1 text-xs font-semibold text-ink-soft">Outlet composition (gas): solid corrected, dashed naive</h3>
+          <CompositionChart data={compositionRows(result)} series={comp} yLabel="mole fraction" testId="equilibrium-composition-chart" ariaLabel="Outlet mole fractions against temperature, corrected and naive" height={compact ? 200 : 260} />
+        </div>
+      </div>
+      <div className="overflow-x-auto">
+        <table className="min-w-full text-xs" data-testid="equilibrium-table">
+          <thead>
+            <tr>
+              <th className={th}>T (K)</th>
+              <th className={th}>{key} conversion corrected</th>
+              <th className={th}>naive</th>
+              <th className={th}>{key} fraction corrected ±1σ</th>
+              <th className={th}>naive ±1σ</th>
+              <th className={th}>naive − corrected</th>
+              {gas.filter((k) => k !== key).map((k) => (
+                <th key={k} className={th}>
+                  {k}
+                </th>
+              ))}
+            </tr>
+          </thead>
+          <tbody>
+            {rows.map((p) => (
+              <tr key={p.tK} className={p.naiveExceedsUncertainty ? "font-semibold" : undefined}>
+                <td className={td}>{num(p.tK, 6)}</td>
+                <td className={td}>{pct(p.keyConversion, 4)}</td>
+                <td className={td}>{pct(p.naive.keyConversion, 4)}</td>
+                <td className={td}>
+                  {pct(p.keyFraction)}
+                  {p.sigma?.keyFraction != null ? ` ± ${pct(p.sigma.keyFraction, 2)}` : ""}
+                </td>
+                <td className={td}>
+                  {pct(p.naive.keyFraction)}
+                  {p.naive.sigma?.keyFraction != null ? ` ± ${pct(p.naive.sigma.keyFraction, 2)}` : ""}
+                </td>
+                <td className={td}>
+                  {pct(p.keyFractionDiff)}
+                  {p.naiveExceedsUncertainty ? " *" : ""}
+                </td>
+                {gas.filter((k) => k !== key).map((k) => (
+                  <td key={k} className={td}>
+                    {pct(p.moleFractions[k])}
+                  </td>
+                ))}
+              </tr>
+            ))}
+          </tbody>
+        </table>
+        <p className="mt-1 text-xs text-ink-muted">
+          {rows.length < eq.length ? `Every ${stride}th point and the last; the CSV export has all ${eq.length}. ` : ""}
+          Mole fractions of the gas phase; condensed species are pure phases at unit activity. {over !== undefined ? "* the naive error exceeds the 1σ of the corrected fraction." : ""}
+        </p>
+      </div>
+    </div>
+  );
+}
