@@ -86,7 +86,14 @@ export function CaseBuilder({ options, initial }: { options: BuilderOption[]; in
     return [...seen].sort((a, b) => a[0].localeCompare(b[0]));
   }, [options]);
 
-  const update = (i: number, patch: Partial<Row>) =>
+  /** Editing a field clears its error (and the banner); the next save checks again. */
+  const touch = (...prefixes: string[]) => {
+    setErrors((e) => Object.fromEntries(Object.entries(e).filter(([k]) => !prefixes.some((p) => k === p || k.startsWith(`${p}.`)))));
+    setBanner(null);
+  };
+
+  const update = (i: number, patch: Partial<Row>) => {
+    touch(`terms.${i}`, "terms");
     setRows((rs) =>
       rs.map((r, j) => {
         if (j !== i) return r;
@@ -99,6 +106,7 @@ export function CaseBuilder({ options, initial }: { options: BuilderOption[]; in
         return next;
       }),
     );
+  };
 
   const signed = rows.map((r) => ({ ...r, coefficient: (r.side === "reactant" ? -1 : 1) * Number(r.amount) }));
   const complete = signed.filter((r) => r.formula && Number.isFinite(r.coefficient) && r.coefficient !== 0);
@@ -167,7 +175,7 @@ export function CaseBuilder({ options, initial }: { options: BuilderOption[]; in
       )}
       <section className="grid gap-4 rounded-lg border border-ink-line bg-white p-4 shadow-card md:grid-cols-2">
         <Field label="Title" name="title" error={err("title")}>
-          <TextInput name="title" value={title} onChange={(e) => setTitle(e.target.value)} error={err("title")} placeholder="Shift converter, start-up span" />
+          <TextInput name="title" value={title} onChange={(e) => { touch("title"); setTitle(e.target.value); }} error={err("title")} placeholder="Shift converter, start-up span" />
         </Field>
         <Field label="Notes" name="notes" error={err("notes")} hint="What the case is for, operating pressure, anything a reviewer should know.">
           <textarea id="notes" name="notes" className={inputClass} rows={2} value={notes} onChange={(e) => setNotes(e.target.value)} />
@@ -233,7 +241,7 @@ export function CaseBuilder({ options, initial }: { options: BuilderOption[]; in
                     </p>
                   )}
                 </div>
-                <Button type="button" variant="ghost" aria-label={`Remove term ${n}`} onClick={() => setRows((rs) => rs.filter((_, j) => j !== i))} disabled={rows.length <= 2}>
+                <Button type="button" variant="ghost" aria-label={`Remove term ${n}`} onClick={() => { touch("terms"); setRows((rs) => rs.filter((_, j) => j !== i)); }} disabled={rows.length <= 2}>
                   Remove
                 </Button>
               </div>
@@ -277,18 +285,18 @@ export function CaseBuilder({ options, initial }: { options: BuilderOption[]; in
           {mode === "span" ? (
             <div className="grid grid-cols-3 gap-2">
               <Field label={`From (${UNIT_LABELS[unit]})`} name="temperatures.fromK" error={err("temperatures.fromK")}>
-                <TextInput name="temperatures.fromK" inputMode="decimal" value={from} onChange={(e) => setFrom(e.target.value)} error={err("temperatures.fromK")} />
+                <TextInput name="temperatures.fromK" inputMode="decimal" value={from} onChange={(e) => { touch("temperatures"); setFrom(e.target.value); }} error={err("temperatures.fromK")} />
               </Field>
               <Field label={`To (${UNIT_LABELS[unit]})`} name="temperatures.toK" error={err("temperatures.toK")}>
-                <TextInput name="temperatures.toK" inputMode="decimal" value={to} onChange={(e) => setTo(e.target.value)} error={err("temperatures.toK")} />
+                <TextInput name="temperatures.toK" inputMode="decimal" value={to} onChange={(e) => { touch("temperatures"); setTo(e.target.value); }} error={err("temperatures.toK")} />
               </Field>
               <Field label={`Step (${UNIT_LABELS[unit === "K" ? "K" : unit]})`} name="temperatures.stepK" error={err("temperatures.stepK")}>
-                <TextInput name="temperatures.stepK" inputMode="decimal" value={step} onChange={(e) => setStep(e.target.value)} error={err("temperatures.stepK")} />
+                <TextInput name="temperatures.stepK" inputMode="decimal" value={step} onChange={(e) => { touch("temperatures"); setStep(e.target.value); }} error={err("temperatures.stepK")} />
               </Field>
             </div>
           ) : (
             <Field label={`Temperatures (${UNIT_LABELS[unit]}), separated by commas or spaces`} name="temperatures.listK" error={err("temperatures.listK") ?? Object.entries(errors).find(([k]) => k.startsWith("temperatures.listK."))?.[1]}>
-              <textarea id="temperatures.listK" name="temperatures.listK" className={inputClass} rows={2} value={listText} onChange={(e) => setListText(e.target.value)} />
+              <textarea id="temperatures.listK" name="temperatures.listK" className={inputClass} rows={2} value={listText} onChange={(e) => { touch("temperatures"); setListText(e.target.value); }} />
             </Field>
           )}
           {err("temperatures") && <p role="alert" className="text-xs font-medium text-flag-700">{err("temperatures")}</p>}
@@ -298,17 +306,17 @@ export function CaseBuilder({ options, initial }: { options: BuilderOption[]; in
           <div className="flex items-end gap-2">
             <div className="flex-1">
               <Field label="Reference temperature" name="referenceK" error={err("referenceK")} hint="The naive line is ΔrH − T·ΔrS taken here.">
-                <TextInput name="referenceK" inputMode="decimal" value={ref} onChange={(e) => setRef(e.target.value)} error={err("referenceK")} />
+                <TextInput name="referenceK" inputMode="decimal" value={ref} onChange={(e) => { touch("referenceK"); setRef(e.target.value); }} error={err("referenceK")} />
               </Field>
             </div>
             <div className="pb-5">{unitSelect("refUnit", refUnit, setRefUnit, "Reference temperature unit")}</div>
           </div>
           <div className="grid grid-cols-2 gap-2">
             <Field label="Tolerance on ΔrG (kJ/mol)" name="toleranceKJ" error={err("toleranceKJ")}>
-              <TextInput name="toleranceKJ" inputMode="decimal" value={tol} onChange={(e) => setTol(e.target.value)} error={err("toleranceKJ")} />
+              <TextInput name="toleranceKJ" inputMode="decimal" value={tol} onChange={(e) => { touch("toleranceKJ"); setTol(e.target.value); }} error={err("toleranceKJ")} />
             </Field>
             <Field label="Tolerance on K (factor, optional)" name="toleranceKFactor" error={err("toleranceKFactor")}>
-              <TextInput name="toleranceKFactor" inputMode="decimal" value={kFactor} onChange={(e) => setKFactor(e.target.value)} error={err("toleranceKFactor")} placeholder="e.g. 2" />
+              <TextInput name="toleranceKFactor" inputMode="decimal" value={kFactor} onChange={(e) => { touch("toleranceKFactor"); setKFactor(e.target.value); }} error={err("toleranceKFactor")} placeholder="e.g. 2" />
             </Field>
           </div>
         </div>

@@ -56,8 +56,9 @@ export const caseInputSchema = z
     });
     if (v.terms.length >= 2 && !v.terms.some((t) => t.coefficient < 0)) ctx.addIssue({ code: "custom", path: ["terms"], message: "Give at least one reactant a negative coefficient." });
     if (v.terms.length >= 2 && !v.terms.some((t) => t.coefficient > 0)) ctx.addIssue({ code: "custom", path: ["terms"], message: "Give at least one product a positive coefficient." });
-    const balance = elementBalance(v.terms);
-    if (!balance.ok) ctx.addIssue({ code: "custom", path: ["terms"], message: balance.message });
+    // Rows without a species already say "Pick a species."; the balance waits for them.
+    const balance = v.terms.every((t) => t.formula) ? elementBalance(v.terms) : null;
+    if (balance && !balance.ok) ctx.addIssue({ code: "custom", path: ["terms"], message: balance.message });
 
     const positive = (q: Quantity, path: (string | number)[]) => {
       const k = toKelvin(q);
