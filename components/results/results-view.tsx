@@ -26,9 +26,10 @@ export function ResultsView({ caseId, revision, stamp }: { caseId: number; revis
   // The case's lockVersion is part of the key: an edit, a submission or a decision fetches afresh.
   const { data, error, isLoading } = useSWR<ResultsDto, ApiError, [string, number]>([`/api/v1/cases/${caseId}/results${q}`, stamp], ([url]) => fetchJson<ResultsDto>(url), {
     revalidateOnFocus: false,
+    keepPreviousData: true,
   });
 
-  if (isLoading) return <Card><p className="text-sm text-ink-muted">Evaluating…</p></Card>;
+  if (isLoading) return <Card><p className="text-sm text-ink-muted">Loading the results…</p></Card>;
   if (error || !data) {
     return (
       <Card title="Results">

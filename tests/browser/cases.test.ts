@@ -142,6 +142,7 @@ describe("engineer → reviewer journey", () => {
     await page.getByRole("button", { name: "Approve case" }).click();
     await page.waitForFunction(() => document.querySelector('[data-testid="case-status"]')?.getAttribute("data-status") === "approved");
     expect(await page.getByTestId("snapshots").locator("li").count()).toBe(2);
+    await page.getByTestId("snapshot-hash").waitFor();
     await shot(page, "case-approved");
 
     await page.getByRole("link", { name: "Printable report" }).click();
