@@ -9,6 +9,12 @@ export type CurveLike = {
   chains: { phase: string; tminK: number; tmaxK: number }[];
 };
 
+/**
+ * The palette (tailwind.config.ts) as plain values: constants exported from a "use client"
+ * module reach a server component only as references, so server pages take colours from here.
+ */
+export const COLORS = { ember: "#e0591b", frost: "#1f7a99", flag: "#b42323", moss: "#2f7a3b", ink: "#3d4656", muted: "#5f6878" };
+
 export const PHASE_LABELS: Record<string, string> = { cr: "solid", l: "liquid", g: "gas" };
 export const phaseLabel = (p: string) => PHASE_LABELS[p] ?? (p.startsWith("cr-") ? `solid ${p.slice(3)}` : p);
 
@@ -47,8 +53,8 @@ export function validityMarks(c: CurveLike, color: string): MarkX[] {
   const hi = c.points[c.points.length - 1]?.tK ?? 0;
   const marks: MarkX[] = [];
   for (const ch of c.chains) {
-    if (ch.tminK > lo && ch.tminK < hi) marks.push({ x: ch.tminK, label: `${phaseLabel(ch.phase)} from ${ch.tminK} K`, color, dashed: true });
-    if (ch.tmaxK > lo && ch.tmaxK < hi) marks.push({ x: ch.tmaxK, label: `${phaseLabel(ch.phase)} to ${ch.tmaxK} K`, color, dashed: true });
+    if (ch.tminK > lo && ch.tminK < hi) marks.push({ x: ch.tminK, label: `${ch.tminK} K`, color, dashed: true });
+    if (ch.tmaxK > lo && ch.tmaxK < hi) marks.push({ x: ch.tmaxK, label: `${ch.tmaxK} K`, color, dashed: true });
   }
   return marks;
 }

@@ -1,5 +1,5 @@
-import { CHART_COLORS, LineSeriesChart, type SeriesSpec } from "@/components/charts/line-series-chart";
-import { curveRows, extrapolatedStretches, validityMarks, type CurveLike } from "./curve-rows";
+import { LineSeriesChart, type SeriesSpec } from "@/components/charts/line-series-chart";
+import { COLORS as CHART_COLORS, curveRows, extrapolatedStretches, validityMarks, type CurveLike } from "./curve-rows";
 
 /** Cp(T), H(T), S(T) of one version, or of two overlaid with their difference. Renders only. */
 export function PropertyCharts({ a, b, labelA, labelB, stacked = false }: { a: CurveLike; b?: CurveLike; labelA: string; labelB?: string; stacked?: boolean }) {

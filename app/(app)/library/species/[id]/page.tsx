@@ -14,6 +14,8 @@ import { FAMILY_LABELS } from "@/lib/validation/library";
 
 type Props = { params: Promise<{ id: string }>; searchParams: Promise<Record<string, string | undefined>> };
 
+const SHORT: Record<string, string> = { "nasa7-2015": "NASA-7 2015", "nasa7-gri30": "GRI 3.0", "shomate-janaf": "Shomate", measured: "fitted", custom: "team" };
+
 const num = (s: string | undefined) => (s && Number.isFinite(Number(s)) && Number(s) > 0 ? Number(s) : undefined);
 
 export default async function SpeciesPage({ params, searchParams }: Props) {
@@ -47,6 +49,8 @@ export default async function SpeciesPage({ params, searchParams }: Props) {
     }
   }
   const label = (v: (typeof all)[number]) => `${v.model.name} v${v.versionNumber}`;
+  // Short names for the legends, so they fit beside the curves.
+  const short = (v: (typeof all)[number]) => `${SHORT[v.model.family] ?? v.model.family}${v.model.variant ? ` ${v.model.variant}` : ""}${v.model.scope === "team" ? " (team)" : ""} v${v.versionNumber}`;
   const href = (q: Record<string, string | number | undefined>) =>
     `/library/species/${id}?${new URLSearchParams(Object.entries(q).filter(([, v]) => v !== undefined).map(([k, v]) => [k, String(v)]))}`;
   return (
@@ -97,7 +101,7 @@ export default async function SpeciesPage({ params, searchParams }: Props) {
             </form>
           )}
           {curveError && <p role="alert" className="text-sm text-flag-700">{curveError}</p>}
-          {charts && <PropertyCharts a={charts.a} b={charts.b} labelA={label(chosen!)} labelB={other ? label(other) : undefined} />}
+          {charts && <PropertyCharts a={charts.a} b={charts.b} labelA={short(chosen!)} labelB={other ? short(other) : undefined} />}
           {charts && charts.a.warnings.length > 0 && (
             <ul className="mt-3 space-y-1 text-xs text-ember-700">
               {charts.a.warnings.slice(0, 6).map((w, i) => <li key={i}>{w.code}: {w.message}</li>)}
