@@ -72,9 +72,6 @@ export type ModelDetailDto = ModelSummaryDto & { species: SpeciesDto; versions: 
 export type SpeciesDetailDto = SpeciesDto & { models: ModelDetailDto[] };
 export type VersionAuditDto = { id: number; action: string; actorName: string | null; at: string; before: unknown; after: unknown };
 
-/** Case-insensitive search on both dialects (SQLite LIKE already ignores ASCII case). */
-const likeOp = () => (isPostgres() ? Op.iLike : Op.like);
-
 const scopeOf = (teamId: number | null): Scope => (teamId === null ? "reference" : "team");
 
 function speciesDto(s: Species): SpeciesDto {
