@@ -1,6 +1,6 @@
 "use client";
 
-import { Area, CartesianGrid, ComposedChart, Legend, Line, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
+import { Area, CartesianGrid, ComposedChart, Line, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
 import { CHART_COLORS } from "./line-series-chart";
 
 export type CompositionSeries = {
@@ -37,6 +37,18 @@ export function CompositionChart({
   const fmt = (v: number) => (percent ? `${Number((100 * v).toPrecision(3))} %` : String(Number(v.toPrecision(4))));
   return (
     <figure className="w-full break-inside-avoid" data-testid={testId} aria-label={ariaLabel} role="img">
+      {/* An HTML legend wraps on a phone, where the chart's own would overlap the plot. */}
+      <ul className="mb-1 flex flex-wrap gap-x-3 gap-y-1 text-xs text-ink-soft" aria-hidden="true">
+        {series.map((s) => (
+          <li key={s.key} className="inline-flex items-center gap-1">
+            <svg width="18" height="8" className="shrink-0">
+              <line x1="0" y1="4" x2="18" y2="4" stroke={s.color} strokeWidth="2" strokeDasharray={s.dashed ? "4 3" : undefined} />
+            </svg>
+            {s.name}
+            {s.bandKey ? " ±1σ" : ""}
+          </li>
+        ))}
+      </ul>
       <div style={{ height }} className="w-full">
         <ResponsiveContainer width="100%" height="100%">
           <ComposedChart data={data} margin={{ top: 8, right: 16, bottom: 24, left: 8 }}>
@@ -78,7 +90,6 @@ export function CompositionChart({
               labelFormatter={(v: unknown) => `T = ${Number(v)} K`}
               contentStyle={{ fontSize: 12 }}
             />
-            <Legend verticalAlign="top" height={36} wrapperStyle={{ fontSize: 12 }} />
           </ComposedChart>
         </ResponsiveContainer>
       </div>

@@ -248,7 +248,7 @@ export function EquilibriumPanel({
                   className={inputClass}
                   value={reactionsText}
                   onChange={(e) => setReactionsText(e.target.value)}
-                  placeholder={"CH4(g) + H2O(g) -> CO(g) + 3 H2(g)\nCO(g) + H2O(g) -> CO2(g) + H2(g)"}
+                  placeholder="e.g. CO(g) + H2O(g) -> CO2(g) + H2(g)"
                 />
               </Field>
               {extraKeys.map((k) => (

@@ -6,7 +6,9 @@ import { Badge } from "@/components/ui/badge";
 import type { EvaluateResult } from "@/lib/thermo/evaluate";
 import { colorOf, compositionRows, gasSpecies, keyRows } from "./series";
 
-const pct = (x: number | null | undefined, digits = 3) => (x === null || x === undefined ? "—" : `${Number((100 * x).toPrecision(digits))} %`);
+/** A fraction as a percentage with `digits` significant figures, trailing zeros kept so columns line up. */
+const pct = (x: number | null | undefined, digits = 3) => (x === null || x === undefined ? "—" : x === 0 ? "0 %" : `${(100 * x).toPrecision(digits)} %`);
+const plusMinus = (s: number | null | undefined) => (s ? ` ± ${pct(s, 2)}` : "");
 const num = (x: number | null | undefined, digits = 4) => (x === null || x === undefined ? "—" : String(Number(x.toPrecision(digits))));
 
 /** At most this many table rows on screen; the CSV export has every point. */
@@ -105,11 +107,11 @@ export function EquilibriumResults({ result, compact = false }: { result: Evalua
                 <td className={td}>{pct(p.naive.keyConversion, 4)}</td>
                 <td className={td}>
                   {pct(p.keyFraction)}
-                  {p.sigma?.keyFraction != null ? ` ± ${pct(p.sigma.keyFraction, 2)}` : ""}
+                  {plusMinus(p.sigma?.keyFraction)}
                 </td>
                 <td className={td}>
                   {pct(p.naive.keyFraction)}
-                  {p.naive.sigma?.keyFraction != null ? ` ± ${pct(p.naive.sigma.keyFraction, 2)}` : ""}
+                  {plusMinus(p.naive.sigma?.keyFraction)}
                 </td>
                 <td className={td}>
                   {pct(p.keyFractionDiff)}
@@ -125,7 +127,7 @@ export function EquilibriumResults({ result, compact = false }: { result: Evalua
           </tbody>
         </table>
         <p className="mt-1 text-xs text-ink-muted">
-          {rows.length < eq.length ? `Every ${stride}th point and the last; the CSV export has all ${eq.length}. ` : ""}
+          {rows.length < eq.length ? `One row in every ${stride} points, and the last; the CSV export has all ${eq.length}. ` : ""}
           Mole fractions of the gas phase; condensed species are pure phases at unit activity. {over !== undefined ? "* the naive error exceeds the 1σ of the corrected fraction." : ""}
         </p>
       </div>
