@@ -15,7 +15,7 @@ export function EquilibriumReport({ result, sources }: { result: EvaluateResult;
       <EquilibriumResults result={result} compact />
       {sources && (
         <div className="break-inside-avoid">
-          <SourceComparisonView data={sources} />
+          <SourceComparisonView data={sources} compact />
           <p className="mt-1 text-xs text-ink-muted">Computed when this report was printed from the approved versions of each family; not part of the snapshot.</p>
         </div>
       )}

@@ -37,6 +37,8 @@ export function EquilibriumResults({ result, compact = false }: { result: Evalua
   const over = info.naiveExceedsUncertaintyK;
   const notConverged = eq.filter((p) => !p.converged || !p.naive.converged).length;
   const worst = eq.reduce((a, p) => (Math.abs(p.keyFractionDiff) > Math.abs(a.keyFractionDiff) ? p : a), eq[0]);
+  // The printed report keeps the key species' columns only; the other fractions are in the charts and the CSV.
+  const others = compact ? [] : gas.filter((k) => k !== key);
   const th = "border-b border-ink-line px-2 py-1 text-right font-medium whitespace-nowrap";
   const td = "px-2 py-0.5 text-right tabular whitespace-nowrap";
   return (
@@ -92,7 +94,7 @@ export function EquilibriumResults({ result, compact = false }: { result: Evalua
               <th className={th}>{key} fraction corrected ±1σ</th>
               <th className={th}>naive ±1σ</th>
               <th className={th}>naive − corrected</th>
-              {gas.filter((k) => k !== key).map((k) => (
+              {others.map((k) => (
                 <th key={k} className={th}>
                   {k}
                 </th>
@@ -117,7 +119,7 @@ export function EquilibriumResults({ result, compact = false }: { result: Evalua
                   {pct(p.keyFractionDiff)}
                   {p.naiveExceedsUncertainty ? " *" : ""}
                 </td>
-                {gas.filter((k) => k !== key).map((k) => (
+                {others.map((k) => (
                   <td key={k} className={td}>
                     {pct(p.moleFractions[k])}
                   </td>

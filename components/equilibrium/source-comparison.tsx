@@ -11,7 +11,7 @@ const num = (x: number | null | undefined, digits = 4) => (x === null || x === u
 const pct = (x: number | null | undefined, digits = 3) => (x === null || x === undefined ? "—" : `${Number((100 * x).toPrecision(digits))} %`);
 
 /** One case run with every approved data family that covers its species: the spread of ΔrG, log10 K and the key outlet fraction. */
-export function SourceComparisonView({ data }: { data: SourcesDto }) {
+export function SourceComparisonView({ data, compact = false }: { data: SourcesDto; compact?: boolean }) {
   if (!data.comparison) {
     return (
       <p className="rounded-md bg-paper-deep px-3 py-2 text-sm" data-testid="sources-message">
@@ -30,8 +30,9 @@ export function SourceComparisonView({ data }: { data: SourcesDto }) {
   });
   const stride = Math.max(1, Math.ceil(spread.length / 16));
   const shown = spread.map((s, i) => ({ s, i })).filter(({ i }) => i % stride === 0 || i === spread.length - 1);
-  const th = "border-b border-ink-line px-2 py-1 text-right font-medium whitespace-nowrap";
-  const td = "px-2 py-0.5 text-right tabular whitespace-nowrap";
+  const pad = compact ? "px-1" : "px-2";
+  const th = `border-b border-ink-line ${pad} py-1 text-right font-medium whitespace-nowrap`;
+  const td = `${pad} py-0.5 text-right tabular whitespace-nowrap`;
   const worstLogK = spread.reduce((a, s) => Math.max(a, s.log10K.range), 0);
   return (
     <section className="space-y-3" data-testid="sources">
@@ -54,7 +55,7 @@ export function SourceComparisonView({ data }: { data: SourcesDto }) {
       </p>
       {eq && <CompositionChart data={rows} series={series} yLabel="mole fraction" testId="sources-chart" ariaLabel={`${key} outlet fraction per data family`} height={240} />}
       <div className="overflow-x-auto">
-        <table className="min-w-full text-xs" data-testid="sources-table">
+        <table className={`min-w-full ${compact ? "text-[10px]" : "text-xs"}`} data-testid="sources-table">
           <thead>
             <tr>
               <th className={th}>T (K)</th>
