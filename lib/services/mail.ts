@@ -1,9 +1,9 @@
 import "server-only";
 import crypto from "node:crypto";
-import { Op, QueryTypes, type Transaction } from "sequelize";
+import { QueryTypes, type Transaction } from "sequelize";
 import type { Transporter } from "nodemailer";
-import { requirePermission, type Actor } from "@/lib/auth/guards";
-import type { Role } from "@/lib/auth/permissions";
+import { requireUser, type Actor } from "@/lib/auth/guards";
+import { can, type Role } from "@/lib/auth/permissions";
 import { db, isPostgres, models } from "@/lib/db";
 import { env } from "@/lib/env";
 import type { MailKind } from "@/models/mail-message";
@@ -106,25 +106,28 @@ export async function deliverDueMail(transport: Transporter): Promise<{ sent: nu
 }
 
 export type CaughtMailDto = { id: number; to: string[]; subject: string; text: string; receivedAt: string };
-export type OutboxDto = { caught: CaughtMailDto[]; queue: { queued: number; sending: number; sent: number; failed: number }; recentFailures: { id: number; subject: string; to: string[]; attempts: number; lastError: string | null }[] };
+export type OutboxDto = { caught: CaughtMailDto[]; queue: { queued: number; sending: number; sent: number; failed: number }; scope: "team" | "mine"; recentFailures: { id: number; subject: string; to: string[]; attempts: number; lastError: string | null }[] };
 
 /**
- * What the local catcher received, for admins. The catcher is shared by the
- * whole demo install, so messages are filtered to this team's members and invitees.
+ * What the local catcher received. Admins see the team's mail (members and
+ * invitees); everyone else sees the messages addressed to them. The catcher is
+ * shared by the whole demo install, so messages are filtered by address.
  */
 export async function listOutbox(actor: Actor | null, limit = 50): Promise<OutboxDto> {
-  const me = requirePermission(actor, "outbox.view");
+  const me = requireUser(actor);
+  const everything = can(me.role, "outbox.view");
   const { CaughtMail, MailMessage } = models();
-  const teamMail = await MailMessage.findAll({ where: { teamId: me.teamId }, attributes: ["recipients"] });
-  const addresses = new Set(teamMail.flatMap((m) => m.recipients));
-  const caught = (await CaughtMail.findAll({ order: [["id", "DESC"]], limit: 500 })).filter((c) => c.envelopeTo.some((a) => addresses.has(a))).slice(0, limit);
-  const counts = await MailMessage.findAll({ where: { teamId: me.teamId }, attributes: ["status"] });
+  const teamMail = await MailMessage.findAll({ where: { teamId: me.teamId } });
+  const mine = (m: { recipients: string[] }) => everything || m.recipients.includes(me.email);
+  const addresses = new Set(teamMail.filter(mine).flatMap((m) => m.recipients));
+  const caught = (await CaughtMail.findAll({ order: [["id", "DESC"]], limit: 500 })).filter((c) => c.envelopeTo.some((a) => addresses.has(a) && (everything || a === me.email))).slice(0, limit);
   const queue = { queued: 0, sending: 0, sent: 0, failed: 0 };
-  for (const c of counts) queue[c.status as keyof typeof queue] += 1;
-  const failures = await MailMessage.findAll({ where: { teamId: me.teamId, lastError: { [Op.ne]: null } }, order: [["id", "DESC"]], limit: 10 });
+  for (const m of teamMail.filter(mine)) queue[m.status as keyof typeof queue] += 1;
+  const failures = teamMail.filter((m) => mine(m) && m.lastError !== null).sort((a, b) => b.id - a.id).slice(0, 10);
   return {
     caught: caught.map((c) => ({ id: c.id, to: c.envelopeTo, subject: c.subject, text: c.text, receivedAt: c.receivedAt.toISOString() })),
     queue,
+    scope: everything ? "team" : "mine",
     recentFailures: failures.map((f) => ({ id: f.id, subject: f.subject, to: f.recipients, attempts: f.attempts, lastError: f.lastError })),
   };
 }

@@ -90,6 +90,15 @@ describe("engineer → reviewer journey", () => {
   it("the reviewer opens it from the queue, compares naive and corrected, and returns it", async () => {
     const { page } = b;
     await signIn(page, "rory.reviewer@example.test");
+    // The request arrives by mail (the local catcher in demo mode); its link opens the case.
+    await page.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "Outbox" }).click();
+    const mail = page.getByTestId("caught-message").filter({ hasText: `Review requested: ${TITLE} (revision 1)` }).first();
+    for (let i = 0; i < 20 && (await mail.count()) === 0; i++) {
+      await page.waitForTimeout(500);
+      await page.reload();
+    }
+    await shot(page, "outbox-review-requested");
+    expect(await mail.getByRole("link").first().getAttribute("href")).toBe(`${baseURL()}/cases/${caseId}`);
     await page.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "Reviews" }).click();
     await page.getByTestId("review-queue").getByRole("link", { name: TITLE }).click();
     await page.waitForURL(new RegExp(`/cases/${caseId}$`));

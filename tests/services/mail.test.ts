@@ -70,7 +70,15 @@ describe("mail end to end", () => {
     expect(all.length).toBe(10);
   });
 
-  it("refuses the outbox to a non-admin", async () => {
-    await expect(listOutbox(await actorOf("engineer"))).rejects.toMatchObject({ status: 403 });
+  it("shows a non-admin only the mail addressed to them", async () => {
+    const erin = await actorOf("engineer");
+    const admin = await actorOf("admin");
+    await db().transaction((t) => enqueueMail(t, { kind: "review-decided", teamId: erin.teamId, to: erin.email, subject: "For Erin", text: "t" }));
+    await deliverDueMail(createMailTransport());
+    const mine = await listOutbox(erin);
+    expect(mine.scope).toBe("mine");
+    expect(mine.caught.map((c) => c.subject)).toEqual(["For Erin"]);
+    expect((await listOutbox(admin)).caught.map((c) => c.subject)).toContain("Join Larkspur Hydrogen Works on Heatpath");
+    await expect(listOutbox(null)).rejects.toMatchObject({ status: 401 });
   });
 });

@@ -29,7 +29,10 @@ export default async function OutboxPage() {
     <>
       <PageHeader
         title="Outbox"
-        lead={isProduction ? "Delivery status of the team's outgoing mail." : "Demo mode: every message the app sends lands in the local mail catcher on 127.0.0.1 and is shown here."}
+        lead={
+          (outbox.scope === "team" ? "All of the team's mail. " : "Mail addressed to you. ") +
+          (isProduction ? "Delivery status of outgoing messages." : "Demo mode: every message the app sends lands in the local mail catcher on 127.0.0.1 and is shown here.")
+        }
       />
       <div className="mb-6 flex flex-wrap gap-2 text-sm" data-testid="queue-counts">
         <Badge tone="frost">{queue.queued} queued</Badge>
