@@ -1,5 +1,5 @@
 import "server-only";
-import Papa from "papaparse";
+import { toCsv } from "@/lib/csv";
 import { Op, type Transaction } from "sequelize";
 import { requirePermission, requireSameTeam, type Actor } from "@/lib/auth/guards";
 import { can } from "@/lib/auth/permissions";
@@ -336,13 +336,10 @@ export function resultCsv(result: EvaluateResult): string {
   // Uncertainty and equilibrium columns follow the points' own, only when the result has them.
   const extra = equilibriumCsvColumns(result);
   const rows = result.points.map((p, i) => [
-    ...CSV_COLUMNS.map((c) => {
-      const v = (p as unknown as Record<string, unknown>)[c];
-      return v === null || v === undefined ? "" : String(v);
-    }),
-    ...extra.map((col) => (col.values[i] === null || col.values[i] === undefined ? "" : String(col.values[i]))),
+    ...CSV_COLUMNS.map((c) => (p as unknown as Record<string, string | number | boolean | null>)[c]),
+    ...extra.map((col) => col.values[i] as string | number | boolean | null | undefined),
   ]);
-  return Papa.unparse({ fields: [...CSV_COLUMNS, ...extra.map((c) => c.header)], data: rows }, { newline: "\n" }) + "\n";
+  return toCsv([...CSV_COLUMNS, ...extra.map((c) => c.header)], rows);
 }
 
 export async function exportCsv(actor: Actor | null, caseId: number, revision?: number): Promise<{ filename: string; csv: string }> {
