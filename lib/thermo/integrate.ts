@@ -136,14 +136,131 @@ const W3_CENTER = 8 / 9;
 let scratchX = new Float64Array(0);
 let scratchF = new Float64Array(0);
 
+// Five-point Gauss–Lobatto rule (nodes 0, ±√(3/7), ±1; exact to degree 7) with Simpson's rule
+// on three of its nodes (0, ±1; degree 3) as the error estimate. The end nodes are the grid
+// temperatures, so neighbouring intervals share them and the grid's own Cp values come free.
+const XL = Math.sqrt(3 / 7);
+const WL_END = 1 / 10;
+const WL_IN = 49 / 90;
+const WL_CENTER = 32 / 45;
+const WS_END = 1 / 3;
+const WS_CENTER = 4 / 3;
+
+let lobX = new Float64Array(0);
+let lobF = new Float64Array(0);
+let redoA = new Float64Array(0);
+let redoB = new Float64Array(0);
+let redoH = new Float64Array(0);
+let redoS = new Float64Array(0);
+let redoIndex = new Int32Array(0);
+
 /**
  * ∫ Cp dT and ∫ Cp/T dT over many intervals [a[k], b[k]] (a[k] ≤ b[k]) at once, for a
- * cumulative pass along a grid. First pass: the 7 Kronrod (G3/K7) nodes of every interval
- * are evaluated in one batch call; each interval whose K7 − G3 difference is above the
- * tolerance (for either integral) is redone by the adaptive G7/K15 routine. Results go to
- * outH[k], outS[k].
+ * cumulative pass along a grid. First tier: a five-point Lobatto rule per interval, its
+ * three interior nodes and the interval ends evaluated in one batch call (an end shared with
+ * the previous interval, a[k] = b[k−1], is evaluated once); the Simpson rule on the same nodes
+ * is the error estimate. Intervals above the tolerance (either integral) go to the G3/K7
+ * batch tier, and from there to adaptive G7/K15. Results go to outH[k], outS[k]; Cp at the
+ * ends to outCpA[k], outCpB[k] when given.
  */
 export function integrateIntervals(
+  cpBatch: CpBatch,
+  cp: CpFunction,
+  a: Float64Array,
+  b: Float64Array,
+  m: number,
+  outH: Float64Array,
+  outS: Float64Array,
+  outCpA?: Float64Array,
+  outCpB?: Float64Array,
+): void {
+  // One batch: the 3 interior nodes of every interval, then the distinct ends in order.
+  if (lobX.length < 5 * m) {
+    lobX = new Float64Array(5 * m);
+    lobF = new Float64Array(5 * m);
+  }
+  const X = lobX;
+  const F = lobF;
+  let ne = 3 * m;
+  for (let k = 0; k < m; k++) {
+    if (k === 0 || a[k] !== b[k - 1]) X[ne++] = a[k];
+    X[ne++] = b[k];
+    const c = 0.5 * (a[k] + b[k]);
+    const dx = 0.5 * (b[k] - a[k]) * XL;
+    X[3 * k] = c - dx;
+    X[3 * k + 1] = c;
+    X[3 * k + 2] = c + dx;
+  }
+  cpBatch(X, F, ne);
+  quad.evaluations += ne;
+  let nr = 0;
+  let e = 3 * m;
+  for (let k = 0; k < m; k++) {
+    const ia = k === 0 || a[k] !== b[k - 1] ? e++ : e - 1;
+    const ib = e++;
+    const xa = X[ia];
+    const xb = X[ib];
+    const fa = F[ia];
+    const fb = F[ib];
+    if (outCpA) outCpA[k] = fa;
+    if (outCpB) outCpB[k] = fb;
+    const half = 0.5 * (xb - xa);
+    if (half === 0) {
+      outH[k] = 0;
+      outS[k] = 0;
+      continue;
+    }
+    const o = 3 * k;
+    const f1 = F[o];
+    const fc = F[o + 1];
+    const f2 = F[o + 2];
+    const ends = fa + fb;
+    const endsS = fa / xa + fb / xb;
+    const gc = fc / X[o + 1];
+    const lh = WL_END * ends + WL_IN * (f1 + f2) + WL_CENTER * fc;
+    const ls = WL_END * endsS + WL_IN * (f1 / X[o] + f2 / X[o + 2]) + WL_CENTER * gc;
+    const sh = WS_END * ends + WS_CENTER * fc;
+    const ss = WS_END * endsS + WS_CENTER * gc;
+    const h = lh * half;
+    const sv = ls * half;
+    const good =
+      Math.abs((lh - sh) * half) <= REL_TOL * Math.abs(h) + 1e-300 && Math.abs((ls - ss) * half) <= REL_TOL * Math.abs(sv) + 1e-300;
+    if (good) {
+      outH[k] = h;
+      outS[k] = sv;
+    } else {
+      if (redoA.length < m) {
+        redoA = new Float64Array(m);
+        redoB = new Float64Array(m);
+        redoH = new Float64Array(m);
+        redoS = new Float64Array(m);
+        redoIndex = new Int32Array(m);
+      }
+      redoA[nr] = xa;
+      redoB[nr] = xb;
+      redoIndex[nr++] = k;
+    }
+  }
+  if (nr === 0) return;
+  // The redo arrays may be reused by a nested call only after these results are copied out.
+  const ra = redoA.slice(0, nr);
+  const rb = redoB.slice(0, nr);
+  const ri = redoIndex.slice(0, nr);
+  const rh = redoH.length >= nr ? redoH : new Float64Array(nr);
+  const rs = redoS.length >= nr ? redoS : new Float64Array(nr);
+  integrateIntervalsK7(cpBatch, cp, ra, rb, nr, rh, rs);
+  for (let q = 0; q < nr; q++) {
+    outH[ri[q]] = rh[q];
+    outS[ri[q]] = rs[q];
+  }
+}
+
+/**
+ * The second tier: G3/K7 per interval, the 7 Kronrod nodes of every interval in one batch
+ * call; an interval whose K7 − G3 difference is above the tolerance is redone by adaptive
+ * G7/K15.
+ */
+function integrateIntervalsK7(
   cpBatch: CpBatch,
   cp: CpFunction,
   a: Float64Array,

@@ -128,6 +128,8 @@ let bufA = new Float64Array(0);
 let bufB = new Float64Array(0);
 let bufH = new Float64Array(0);
 let bufS = new Float64Array(0);
+let bufCA = new Float64Array(0);
+let bufCB = new Float64Array(0);
 
 function ensure(n: number): void {
   if (bufA.length < n) {
@@ -135,6 +137,8 @@ function ensure(n: number): void {
     bufB = new Float64Array(n);
     bufH = new Float64Array(n);
     bufS = new Float64Array(n);
+    bufCA = new Float64Array(n);
+    bufCB = new Float64Array(n);
   }
 }
 
@@ -167,7 +171,7 @@ export function chainOnGrid(chain: Chain, T: Float64Array, cp: Float64Array, h: 
           bufB[q] = j === split - 1 ? a.tK : T[j + 1];
         }
       }
-      integrateIntervals(seg.cpBatch, seg.cp, bufA, bufB, m, bufH, bufS);
+      integrateIntervals(seg.cpBatch, seg.cp, bufA, bufB, m, bufH, bufS, bufCA, bufCB);
       let hh = a.hJ;
       let ss = a.sJ;
       for (let j = split; j < i1; j++) {
@@ -185,8 +189,13 @@ export function chainOnGrid(chain: Chain, T: Float64Array, cp: Float64Array, h: 
         s[j] = ss;
       }
     }
-    for (let j = i0; j < i1; j++) bufA[j - i0] = T[j];
-    seg.cpBatch(bufA.subarray(0, m), cp.subarray(i0, i1), m);
+    if (seg.breaks) {
+      for (let j = i0; j < i1; j++) bufA[j - i0] = T[j];
+      seg.cpBatch(bufA.subarray(0, m), cp.subarray(i0, i1), m);
+    } else {
+      // The interval ends are the grid temperatures: their Cp came with the integration.
+      for (let j = i0; j < i1; j++) cp[j] = j >= split ? bufCB[j - i0] : bufCA[j - i0];
+    }
     i0 = i1;
   }
 }
