@@ -2,10 +2,11 @@ import "server-only";
 import { getIronSession, type SessionOptions } from "iron-session";
 import { cookies } from "next/headers";
 import { env, isProduction } from "@/lib/env";
-import { actorFor } from "@/lib/services/auth";
+import { actorFor, endSessionsOf } from "@/lib/services/auth";
 import type { Actor } from "./guards";
 
-export type SessionData = { userId?: number; teamId?: number };
+/** What the sealed cookie holds. `issuedAt` (ms) lets sign-out end sessions that were copied. */
+export type SessionData = { userId?: number; teamId?: number; issuedAt?: number };
 
 export const SESSION_COOKIE = "heatpath_session";
 
@@ -20,23 +21,30 @@ export async function getSession() {
   return getIronSession<SessionData>(await cookies(), sessionOptions);
 }
 
-/** The signed-in actor, or null. Services decide what null means. */
+/** The signed-in actor, or null (no cookie, or a session ended by sign-out). Services decide what null means. */
 export async function getActor(): Promise<Actor | null> {
   const session = await getSession();
   if (!session.userId) return null;
-  return actorFor(session.userId, session.teamId);
+  return actorFor(session.userId, session.teamId, session.issuedAt ?? 0);
 }
 
+/** A new sealed cookie at every sign-in: nothing of an earlier session carries over. */
 export async function startSession(userId: number, teamId: number): Promise<void> {
   const session = await getSession();
   session.destroy();
   const fresh = await getSession();
   fresh.userId = userId;
   fresh.teamId = teamId;
+  fresh.issuedAt = Date.now();
   await fresh.save();
 }
 
+/**
+ * Clear the cookie and refuse every session of this account issued until now,
+ * so a copy of the cookie is worthless after sign-out (on every device).
+ */
 export async function endSession(): Promise<void> {
   const session = await getSession();
+  if (session.userId) await endSessionsOf(session.userId);
   session.destroy();
 }

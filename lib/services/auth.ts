@@ -29,11 +29,15 @@ export async function authenticate(input: SignInInput, options: { clientAddress?
   return { userId: user.id, teamId: membership.teamId };
 }
 
-/** Build the actor for a session, or null when the user or membership is gone. */
-export async function actorFor(userId: number, teamId?: number): Promise<Actor | null> {
+/**
+ * Build the actor for a session, or null when the user or membership is gone
+ * or the session was issued before the account last signed out.
+ */
+export async function actorFor(userId: number, teamId?: number, issuedAtMs?: number): Promise<Actor | null> {
   const { User, Membership, Team } = models();
   const user = await User.findByPk(userId);
   if (!user) return null;
+  if (issuedAtMs !== undefined && user.sessionsValidAfter && issuedAtMs < user.sessionsValidAfter.getTime()) return null;
   const membership = await Membership.findOne({
     where: teamId ? { userId, teamId } : { userId },
     include: [{ model: Team, as: "team" }],
@@ -58,4 +62,9 @@ export function toMe(actor: Actor): MeDto {
     team: { id: actor.teamId, name: actor.teamName },
     role: actor.role,
   };
+}
+
+/** Sign-out: sessions of this account issued before now are refused from here on. */
+export async function endSessionsOf(userId: number): Promise<void> {
+  await models().User.update({ sessionsValidAfter: new Date() }, { where: { id: userId } });
 }

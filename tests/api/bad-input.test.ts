@@ -58,3 +58,24 @@ describe("sign-in refusals", () => {
     expect(cookieJar.has("heatpath_session")).toBe(true);
   });
 });
+
+describe("sessions", () => {
+  it("issue a new cookie at each sign-in and refuse a copied cookie after sign-out", async () => {
+    const { getActor } = await import("@/lib/auth/session");
+    await signInAs("anonymous");
+    await signIn({ email: "rory.reviewer@example.test", password: "larkspur-demo-2026" });
+    const first = cookieJar.get("heatpath_session")!.value;
+    await new Promise((r) => setTimeout(r, 5));
+    await signIn({ email: "rory.reviewer@example.test", password: "larkspur-demo-2026" });
+    const second = cookieJar.get("heatpath_session")!.value;
+    expect(second).not.toBe(first);
+    expect((await getActor())?.email).toBe("rory.reviewer@example.test");
+
+    const response = await session.DELETE(jsonRequest("DELETE", "/api/v1/session"), undefined);
+    expect(response.status).toBe(204);
+    expect(cookieJar.has("heatpath_session")).toBe(false);
+    // Someone kept a copy of the cookie: it no longer signs anyone in.
+    cookieJar.set("heatpath_session", second);
+    expect(await getActor()).toBeNull();
+  });
+});
