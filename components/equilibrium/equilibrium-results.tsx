@@ -103,7 +103,7 @@ export function EquilibriumResults({ result, compact = false }: { result: Evalua
           </thead>
           <tbody>
             {rows.map((p) => (
-              <tr key={p.tK} className={p.naiveExceedsUncertainty ? "font-semibold" : undefined}>
+              <tr key={p.tK}>
                 <td className={td}>{num(p.tK, 6)}</td>
                 <td className={td}>{pct(p.keyConversion, 4)}</td>
                 <td className={td}>{pct(p.naive.keyConversion, 4)}</td>
@@ -115,7 +115,7 @@ export function EquilibriumResults({ result, compact = false }: { result: Evalua
                   {pct(p.naive.keyFraction)}
                   {plusMinus(p.naive.sigma?.keyFraction)}
                 </td>
-                <td className={td}>
+                <td className={`${td} ${p.naiveExceedsUncertainty ? "font-semibold text-flag-700" : ""}`}>
                   {pct(p.keyFractionDiff)}
                   {p.naiveExceedsUncertainty ? " *" : ""}
                 </td>
