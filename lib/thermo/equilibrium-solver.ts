@@ -106,19 +106,32 @@ export function solveDense(A: number[][], b: number[]): number[] | null {
   return x;
 }
 
-/** d(extents)/d(g) = −J⁻¹ Nᵀ at an interior solution; zero rows for reactions pinned at a bound. */
-function sensitivityOf(p: EquilibriumProblem, n: Float64Array, atBound: boolean[]): number[][] {
+/**
+ * d(extents)/d(g) at a solution: −J⁻¹ Nᵀ, with the rows of reactions pinned at a bound left
+ * at zero, and, for a set, the pinned (absent) condensed species held at zero through the KKT
+ * system [J Aᵀ; A 0].
+ */
+function sensitivityOf(p: EquilibriumProblem, n: Float64Array, atBound: boolean[], pinned: number[] = []): number[][] {
   const R = p.nu.length;
   const S = n.length;
   const free = [...Array(R).keys()].filter((j) => !atBound[j]);
   const out = Array.from({ length: R }, () => new Array(S).fill(0));
   if (free.length === 0) return out;
   const Jfull = hessian(p, n);
-  const J = free.map((j) => free.map((k) => Jfull[j][k]));
+  const F = free.length;
+  const P = pinned.length;
+  const M = Array.from({ length: F + P }, () => new Array(F + P).fill(0));
+  free.forEach((j, a) => free.forEach((k, b) => (M[a][b] = Jfull[j][k])));
+  pinned.forEach((i, q) =>
+    free.forEach((j, a) => {
+      M[F + q][a] = p.nu[j][i];
+      M[a][F + q] = p.nu[j][i];
+    }),
+  );
   for (let i = 0; i < S; i++) {
-    const rhs = free.map((j) => -p.nu[j][i]);
+    const rhs = [...free.map((j) => -p.nu[j][i]), ...new Array(P).fill(0)];
     if (rhs.every((v) => v === 0)) continue;
-    const x = solveDense(J, rhs);
+    const x = solveDense(M, rhs);
     if (!x) continue;
     free.forEach((j, q) => (out[j][i] = Number.isFinite(x[q]) ? x[q] : 0));
   }
@@ -215,24 +228,28 @@ function finish(
   converged: boolean,
   iterations: number,
   atBound: boolean[],
+  constrained?: { residual: number; pinned: number[] },
 ): EquilibriumSolution {
-  const ng = gasTotal(moles, p.gas);
-  const lnNg = Math.log(ng);
   let residual = 0;
-  p.nu.forEach((row, j) => {
-    if (atBound[j]) return;
-    const f = reactionAffinity(row, moles, p, lnNg);
-    residual = Math.max(residual, Number.isFinite(f) ? Math.abs(f) : Infinity);
-  });
-  return { extents, moles, converged, iterations, residual, atBound, sensitivity: sensitivityOf(p, moles, atBound) };
+  if (constrained) residual = constrained.residual;
+  else {
+    const lnNg = Math.log(gasTotal(moles, p.gas));
+    p.nu.forEach((row, j) => {
+      if (atBound[j]) return;
+      const f = reactionAffinity(row, moles, p, lnNg);
+      residual = Math.max(residual, Number.isFinite(f) ? Math.abs(f) : Infinity);
+    });
+  }
+  return { extents, moles, converged, iterations, residual, atBound, sensitivity: sensitivityOf(p, moles, atBound, constrained?.pinned) };
 }
 
 /**
  * A starting point with every species of the set present: pass over the reactions and move
  * each one that can make an absent species from species that are present, by a quarter of
- * what would exhaust its first reactant. Returns the indices still absent when none can move.
+ * what would exhaust its first reactant. Returns the indices still absent when none can move
+ * (except those `mayBeAbsent` allows: pure condensed phases, which may stay at zero).
  */
-function interiorStart(p: EquilibriumProblem): { xi: number[]; n: Float64Array; absent: number[] } {
+function interiorStart(p: EquilibriumProblem, mayBeAbsent: (i: number) => boolean = () => false): { xi: number[]; n: Float64Array; absent: number[] } {
   const R = p.nu.length;
   const S = p.n0.length;
   const xi = new Array(R).fill(0);
@@ -258,7 +275,7 @@ function interiorStart(p: EquilibriumProblem): { xi: number[]; n: Float64Array; 
     if (!moved) break;
   }
   const absent: number[] = [];
-  for (let i = 0; i < S; i++) if (involved(i) && !(n[i] > 0)) absent.push(i);
+  for (let i = 0; i < S; i++) if (involved(i) && !(n[i] > 0) && !mayBeAbsent(i)) absent.push(i);
   return { xi, n, absent };
 }
 
@@ -276,50 +293,98 @@ function gibbs(p: EquilibriumProblem, n: Float64Array): number {
 
 /**
  * Several simultaneous reactions: minimise G/RT over the extents. Newton steps on the Hessian
- * with a fraction-to-the-boundary rule (no amount may fall to or below zero) and Armijo
- * backtracking on G/RT. Converged when every reaction's ΔrG/RT at the composition is below
- * 1e-10 in magnitude.
+ * with a fraction-to-the-boundary rule (no gas amount may fall to or below zero) and Armijo
+ * backtracking on G/RT. A pure condensed species is a phase that may vanish: a step that
+ * exhausts it stops exactly there and pins it at zero (an active constraint in a KKT step);
+ * it is released when its multiplier says forming it would lower G. Converged when the
+ * projected ΔrG/RT of every reaction is below 1e-10 and every pinned phase would raise G.
  */
 export function solveSet(p: EquilibriumProblem, maxIter = 200): EquilibriumSolution {
   const R = p.nu.length;
   const S = p.n0.length;
-  const start = interiorStart(p);
+  const start = interiorStart(p, (i) => !p.gas[i]);
   let xi = start.xi;
   let n = start.n;
+  const involved = (i: number) => p.nu.some((row) => row[i] !== 0);
+  const pinned = new Set<number>();
+  for (let i = 0; i < S; i++) if (!p.gas[i] && involved(i) && !(n[i] > 0)) pinned.add(i);
   const scale = Math.max(...Array.from(p.n0));
   let G = gibbs(p, n);
   let iterations = 0;
   let converged = false;
+  let residual = Infinity;
+  let releases = 0;
   const affinities = (m: Float64Array) => {
     const lnNg = Math.log(gasTotal(m, p.gas));
     return p.nu.map((row) => reactionAffinity(row, m, p, lnNg));
   };
   for (; iterations < maxIter; iterations++) {
     const F = affinities(n);
-    if (F.every((f) => Math.abs(f) < 1e-10)) {
-      converged = true;
-      break;
+    const pins = [...pinned];
+    const P = pins.length;
+    const J = hessian(p, n);
+    const trace = J.reduce((a, row, j) => a + Math.abs(row[j]), 0) / R || 1;
+    const kkt = (mu: number) => {
+      const M = Array.from({ length: R + P }, () => new Array(R + P).fill(0));
+      for (let j = 0; j < R; j++) for (let k = 0; k < R; k++) M[j][k] = J[j][k] + (j === k ? mu * trace : 0);
+      pins.forEach((i, q) => {
+        for (let j = 0; j < R; j++) {
+          M[R + q][j] = p.nu[j][i];
+          M[j][R + q] = p.nu[j][i];
+        }
+      });
+      return solveDense(M, [...F.map((f) => -f), ...pins.map((i) => -n[i])]);
+    };
+    let sol = kkt(0);
+    // A reaction among condensed species only has no curvature; regularise the step.
+    for (let mu = 1e-12; !sol && mu < 1e6; mu *= 100) sol = kkt(mu);
+    if (!sol) break;
+    const d = sol.slice(0, R);
+    const lam = sol.slice(R);
+    // Projected residual: ΔrG/RT of each reaction less what the pinned phases hold back.
+    residual = 0;
+    for (let j = 0; j < R; j++) {
+      let r = F[j];
+      pins.forEach((i, q) => (r += p.nu[j][i] * lam[q]));
+      residual = Math.max(residual, Math.abs(r));
     }
-    let J = hessian(p, n);
-    let d = solveDense(J, F.map((f) => -f));
-    for (let mu = 1e-12; !d && mu < 1e6; mu *= 100) {
-      // A reaction among condensed species only has no curvature; regularise the step.
-      const trace = J.reduce((a, row, j) => a + Math.abs(row[j]), 0) / R || 1;
-      J = J.map((row, j) => row.map((v, k) => (j === k ? v + mu * trace : v)));
-      d = solveDense(J, F.map((f) => -f));
+    if (residual < 1e-10) {
+      // μ = −λ ≥ 0 for a phase rightly absent; a negative one would lower G by forming.
+      const release = pins.filter((_, q) => lam[q] > 1e-9);
+      if (release.length === 0 || releases >= 2 * S) {
+        converged = release.length === 0;
+        break;
+      }
+      for (const i of release) pinned.delete(i);
+      releases++;
+      continue;
     }
-    if (!d) break;
     const dn = new Float64Array(S);
     for (let i = 0; i < S; i++) for (let j = 0; j < R; j++) dn[i] += p.nu[j][i] * d[j];
-    let aMax = Infinity;
-    for (let i = 0; i < S; i++) if (dn[i] < 0 && n[i] > 0) aMax = Math.min(aMax, n[i] / -dn[i]);
-    let a = Math.min(1, 0.99 * aMax);
-    const slope = F.reduce((s, f, j) => s + f * d![j], 0);
+    let aGas = Infinity;
+    let aCond = Infinity;
+    let hit = -1;
+    for (let i = 0; i < S; i++) {
+      if (!(dn[i] < 0) || pinned.has(i) || !(n[i] > 0)) continue;
+      const a = n[i] / -dn[i];
+      if (p.gas[i]) aGas = Math.min(aGas, a);
+      else if (a < aCond) {
+        aCond = a;
+        hit = i;
+      }
+    }
+    let a = Math.min(1, 0.99 * aGas);
+    let pinHit = false;
+    if (aCond <= a) {
+      a = aCond;
+      pinHit = true;
+    }
+    const slope = F.reduce((sum, f, j) => sum + f * d[j], 0);
     let accepted = false;
     const trial = new Float64Array(S);
     for (let k = 0; k < 60; k++) {
-      for (let i = 0; i < S; i++) trial[i] = n[i] + a * dn[i];
-      if (trial.every((v, i) => v > 0 || (v === 0 && dn[i] === 0 && n[i] === 0))) {
+      for (let i = 0; i < S; i++) trial[i] = pinned.has(i) || (pinHit && i === hit) ? 0 : n[i] + a * dn[i];
+      if (trial.every((v, i) => v > 0 || (v === 0 && (pinned.has(i) || (pinHit && i === hit) || dn[i] === 0)))) {
         const Gt = gibbs(p, trial);
         if (Gt <= G + 1e-4 * a * slope || Math.abs(Gt - G) <= 1e-15 * Math.abs(G)) {
           G = Gt;
@@ -328,28 +393,25 @@ export function solveSet(p: EquilibriumProblem, maxIter = 200): EquilibriumSolut
         }
       }
       a *= 0.5;
+      pinHit = false;
     }
-    if (!accepted) {
-      // Rounding floor: accept a full step only if it lowers the residual.
-      break;
-    }
-    xi = xi.map((x, j) => x + a * d![j]);
+    if (!accepted) break;
+    xi = xi.map((x, j) => x + a * d[j]);
+    if (pinHit) pinned.add(hit);
     // Amounts from the extents, so the element balance is the feed's to rounding.
     const fresh = new Float64Array(S);
     for (let i = 0; i < S; i++) {
       let v = p.n0[i];
       for (let j = 0; j < R; j++) v += p.nu[j][i] * xi[j];
-      fresh[i] = v > 0 ? v : trial[i];
+      fresh[i] = pinned.has(i) ? 0 : v > 0 ? v : trial[i];
     }
     n = fresh;
-    if (Math.abs(a) * Math.max(...d.map(Math.abs)) < 1e-16 * scale) {
-      const Fn = affinities(n);
-      converged = Fn.every((f) => Math.abs(f) < 1e-8);
+    if (Math.abs(a) * Math.max(...d.map(Math.abs)) < 1e-16 * scale && !pinHit) {
       iterations++;
       break;
     }
   }
-  return finish(p, xi, n, converged, iterations, new Array(R).fill(false));
+  return finish(p, xi, n, converged, iterations, new Array(R).fill(false), { residual, pinned: [...pinned] });
 }
 
 /**

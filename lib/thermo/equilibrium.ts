@@ -181,7 +181,9 @@ export function equilibriumOnGrid(input: EquilibriumInput): {
   const k = index.get(key)!;
 
   if (nu.length > 1) {
-    const probe = interiorStart({ n0, nu, gas: new Array(S).fill(true), g: new Float64Array(S), lnP: 0 });
+    // A species marked condensed may stay absent (a phase that does not form); a gas may not.
+    const condensed = (i: number) => list[i].phase !== undefined && list[i].phase !== "g";
+    const probe = interiorStart({ n0, nu, gas: list.map((_, i) => !condensed(i)), g: new Float64Array(S), lnP: 0 }, condensed);
     if (probe.absent.length > 0) {
       const names = probe.absent.map((i) => `"${list[i].key}"`).join(", ");
       refuse(

@@ -213,6 +213,51 @@ describe("simultaneous reactions: reformer with shift", () => {
   });
 });
 
+describe("a set with a pure condensed phase that may vanish (carbon on a reformer)", () => {
+  // Graphite with a constant Cp of 8.53 J/(mol·K) and S° 5.74 J/(mol·K) (common practice values
+  // at 298 K, from memory): a toy for the solver, not a carbon-limit calculation.
+  const graphite: SpeciesInput = {
+    segments: [{ phase: "cr", form: "constant", tminK: 200, tmaxK: 3000, coeffs: { cpJ: 8.53 } }],
+    reference: { tK: 298.15, phase: "cr", hkJ: 0, sJ: 5.74 },
+  };
+  const CRACK = "CH4(g) -> C(cr) + 2 H2(g)";
+  const species = { ...gasSet("CH4", "H2O", "CO", "CO2", "H2"), "C(cr)": graphite };
+  const at = (feed: Record<string, number>, reactions: string[]) =>
+    run({ reaction: REFORM, species, temperatures: { listK: [800, 1000, 1200] }, equilibrium: { feed, pressureBar: 1, reactions } });
+  it("with plenty of steam no carbon forms: exactly zero, the same outlet as without the cracking reaction", () => {
+    const withC = at({ "CH4(g)": 1, "H2O(g)": 3 }, [REFORM, SHIFT, CRACK]);
+    const without = at({ "CH4(g)": 1, "H2O(g)": 3 }, [REFORM, SHIFT]);
+    withC.equilibrium!.forEach((p, i) => {
+      expect(p.converged && p.naive.converged).toBe(true);
+      expect(p.moles["C(cr)"]).toBe(0);
+      for (const k of Object.keys(without.equilibrium![i].moles)) expect(p.moles[k]).toBeCloseTo(without.equilibrium![i].moles[k], 10);
+      // Forming carbon would raise G: ln Q of the cracking reaction is above ln K (ideal gas, common practice).
+      const x = p.moleFractions;
+      expect(Math.log10(x["H2(g)"] ** 2 / x["CH4(g)"])).toBeGreaterThan(p.log10K[2]);
+    });
+    expectBalanced(withC);
+  });
+  it("with little steam carbon deposits and the cracking reaction sits at its K", () => {
+    const r = at({ "CH4(g)": 1, "H2O(g)": 0.3 }, [REFORM, SHIFT, CRACK]);
+    for (const p of r.equilibrium!) {
+      expect(p.converged).toBe(true);
+      expect(p.moles["C(cr)"]).toBeGreaterThan(0);
+      const x = p.moleFractions;
+      expect(Math.log10(x["H2(g)"] ** 2 / x["CH4(g)"])).toBeCloseTo(p.log10K[2], 9);
+      expect(p.moleFractions).not.toHaveProperty("C(cr)");
+    }
+    expectBalanced(r);
+  });
+  it("carbon in the feed that the steam can take up is gasified to exactly zero", () => {
+    const r = at({ "CH4(g)": 1, "H2O(g)": 3, "C(cr)": 0.5 }, [REFORM, SHIFT, CRACK]);
+    for (const p of r.equilibrium!) {
+      expect(p.converged).toBe(true);
+      expect(p.moles["C(cr)"]).toBe(0);
+    }
+    expectBalanced(r);
+  });
+});
+
 describe("extreme K and bounds", () => {
   // Toy species: constant Cp, with CO2's reference enthalpy shifted so that log10 K ≈ ±300 at 1000 K
   // and ≈ ±600 at 500 K. Reference values are common practice magnitudes (from memory).
