@@ -21,6 +21,8 @@ export interface EquilibriumProblem {
   g: Float64Array;
   /** ln(p / 1 bar). */
   lnP: number;
+  /** Compute d(extents)/d(g) (for uncertainty bands); off saves the linear solves. */
+  sensitivity?: boolean;
 }
 
 export interface EquilibriumSolution {
@@ -32,7 +34,7 @@ export interface EquilibriumSolution {
   residual: number;
   /** Reactions whose extent sits at a bound of the feasible range (an amount exactly 0). */
   atBound: boolean[];
-  /** d(extents)/d(g): R × S sensitivity of the extents to μ°/RT, for uncertainty propagation. */
+  /** d(extents)/d(g): R × S sensitivity of the extents to μ°/RT, for uncertainty propagation (empty when not asked for). */
   sensitivity: number[][];
 }
 
@@ -240,7 +242,8 @@ function finish(
       residual = Math.max(residual, Number.isFinite(f) ? Math.abs(f) : Infinity);
     });
   }
-  return { extents, moles, converged, iterations, residual, atBound, sensitivity: sensitivityOf(p, moles, atBound, constrained?.pinned) };
+  const sensitivity = p.sensitivity === false ? [] : sensitivityOf(p, moles, atBound, constrained?.pinned);
+  return { extents, moles, converged, iterations, residual, atBound, sensitivity };
 }
 
 /**

@@ -15,6 +15,9 @@ import { parsePressureBar } from "./units";
 
 const LN10 = Math.LN10;
 
+/** Largest grid an equilibrium is solved on (each point is a solve, and a result row of every species). */
+export const MAX_EQUILIBRIUM_POINTS = 5000;
+
 /** Standard uncertainties (1σ) that ride beside the values they cover. */
 export interface CompositionSigma {
   extents: number[];
@@ -196,6 +199,13 @@ export function equilibriumOnGrid(input: EquilibriumInput): {
 
   const { T, referenceK } = input;
   const n = T.length;
+  if (n > MAX_EQUILIBRIUM_POINTS) {
+    refuse(
+      "too-many-points",
+      `equilibrium: ${n} temperatures exceed the limit of ${MAX_EQUILIBRIUM_POINTS} for an equilibrium composition; use a larger stepK`,
+      { points: n, limit: MAX_EQUILIBRIUM_POINTS },
+    );
+  }
   const warnings: EngineWarning[] = [];
   for (const sp of list) {
     if (!sp.reacting) continue;
@@ -246,8 +256,8 @@ export function equilibriumOnGrid(input: EquilibriumInput): {
         sigNaive[i] = sigmaGNaive(sp.u, tK) / RT;
       }
     });
-    const corrected = compose({ n0, nu, gas, g, lnP }, list, k, anyUncertainty ? sig : null);
-    const naive = compose({ n0, nu, gas: gasNaive, g: gNaive, lnP }, list, k, anyUncertainty ? sigNaive : null);
+    const corrected = compose({ n0, nu, gas, g, lnP, sensitivity: anyUncertainty }, list, k, anyUncertainty ? sig : null);
+    const naive = compose({ n0, nu, gas: gasNaive, g: gNaive, lnP, sensitivity: anyUncertainty }, list, k, anyUncertainty ? sigNaive : null);
     const diff = naive.keyFraction !== null && corrected.keyFraction !== null ? naive.keyFraction - corrected.keyFraction : 0;
     const point: EquilibriumPoint = { tK, ...corrected, naive, keyFractionDiff: diff };
     if (anyUncertainty && corrected.sigma) {

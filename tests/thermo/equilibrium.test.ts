@@ -379,6 +379,12 @@ describe("refusals with exact messages", () => {
   ])("%j → %s", (eq, code, message) => {
     expect(refusal(eq)).toEqual({ code, message });
   });
+  it("refuses a grid beyond the equilibrium limit (each point is a solve)", () => {
+    expect(refusal({ feed: { "CO(g)": 1, "H2O(g)": 1 } }, { temperatures: { fromK: 500, toK: 1000, stepK: 0.1 } })).toEqual({
+      code: "too-many-points",
+      message: "equilibrium: 5001 temperatures exceed the limit of 5000 for an equilibrium composition; use a larger stepK",
+    });
+  });
   it("refuses a negative uncertainty with its field", () => {
     const sp = { ...species, "CO(g)": { ...species["CO(g)"], uncertainty: { dfHkJ: "-0.2 kJ/mol" } } };
     expect(refusal({ feed: { "CO(g)": 1, "H2O(g)": 1 } }, { species: sp })).toEqual({
