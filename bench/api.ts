@@ -97,6 +97,7 @@ async function main() {
 
     await load(`${base}/api/v1/health`); // warm-up, discarded
     const health = await load(`${base}/api/v1/health`);
+    const me = await load(`${base}/api/v1/me`, { headers: { cookie } });
     const evaluate = await load(`${base}/api/v1/evaluate`, { method: "POST", body, headers: { "content-type": "application/json", cookie } });
     const js = (() => {
       try {
@@ -110,6 +111,7 @@ async function main() {
     console.log(`\nHeatpath API benchmark — ${CONNECTIONS} connections, ${SECONDS} s per target, next start on 127.0.0.1 (${os.cpus().length} cores)\n`);
     console.log("| target | requests/s | p50 ms | p95 ms | non-2xx |\n|---|---|---|---|---|");
     console.log(row("GET /api/v1/health", health));
+    console.log(row("GET /api/v1/me (session + membership lookup)", me));
     console.log(row(`POST /api/v1/evaluate (${points} points, 4 species, NASA-7)`, evaluate));
     const ratio = evaluate.rps / health.rps;
     console.log(`\nevaluate / health throughput: ${ratio.toFixed(2)} (target ≥ 0.5: ${ratio >= 0.5 ? "met" : "not met"})`);

@@ -15,7 +15,9 @@ import {
 } from "recharts";
 
 /** Colours of the palette (tailwind.config.ts): ember = corrected, frost = naive, flag = beyond tolerance. */
-export const CHART_COLORS = { ember: "#e0591b", frost: "#1f7a99", flag: "#b42323", moss: "#2f7a3b", ink: "#3d4656", muted: "#5f6878", line: "#d9d2c5" };
+import { CHART_COLORS } from "./colors";
+
+export { CHART_COLORS };
 
 export type SeriesSpec = { key: string; name: string; color: string; dashed?: boolean; width?: number };
 export type BandSpec = { key: string; name: string; color: string };

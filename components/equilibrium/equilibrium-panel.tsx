@@ -1,5 +1,6 @@
 "use client";
 
+import dynamic from "next/dynamic";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import useSWR, { useSWRConfig } from "swr";
@@ -12,8 +13,11 @@ import type { ResultsDto } from "@/lib/services/cases";
 import type { PinOptionDto } from "@/lib/services/pins";
 import type { EvaluateResult } from "@/lib/thermo/evaluate";
 import type { CaseEquilibrium, ExtraTerm } from "@/lib/validation/equilibrium";
-import { EquilibriumResults } from "./equilibrium-results";
-import { SourceComparisonView, type SourcesDto } from "./source-comparison";
+import type { SourcesDto } from "./source-comparison";
+
+// Charts load only once there is something to draw, keeping recharts out of the page's first load.
+const EquilibriumResults = dynamic(() => import("./equilibrium-results").then((m) => m.EquilibriumResults), { ssr: false });
+const SourceComparisonView = dynamic(() => import("./source-comparison").then((m) => m.SourceComparisonView), { ssr: false });
 
 type ApiError = { code: string; message: string; details?: { fields?: Record<string, string> } };
 

@@ -1,6 +1,6 @@
 "use client";
 
-import { CHART_COLORS } from "@/components/charts/line-series-chart";
+import { CHART_COLORS } from "@/components/charts/colors";
 import { CompositionChart, type CompositionSeries } from "@/components/charts/composition-chart";
 import { Badge } from "@/components/ui/badge";
 import type { EvaluateResult } from "@/lib/thermo/evaluate";

@@ -1,5 +1,6 @@
 "use client";
 
+import dynamic from "next/dynamic";
 import Link from "next/link";
 import useSWR from "swr";
 import { Badge } from "@/components/ui/badge";
@@ -8,10 +9,15 @@ import { Card } from "@/components/ui/card";
 import type { ResultsDto } from "@/lib/services/cases";
 import { Caution } from "./caution";
 import { NumbersTable } from "./numbers-table";
-import { ResultCharts } from "./result-charts";
 import { ResultSummary, WarningList } from "./result-summary";
 
 type ApiError = { code: string; message: string };
+
+/** The chart library is most of this page's JavaScript: the numbers come first, the charts load after them. */
+const ResultCharts = dynamic(() => import("./result-charts").then((m) => m.ResultCharts), {
+  ssr: false,
+  loading: () => <p className="py-8 text-center text-sm text-ink-muted">Drawing the charts…</p>,
+});
 
 export async function fetchJson<T>(url: string): Promise<T> {
   const res = await fetch(url, { headers: { accept: "application/json" } });

@@ -1,7 +1,8 @@
 "use client";
 
 import { useMemo } from "react";
-import { CHART_COLORS, type MarkX, type Stretch } from "@/components/charts/line-series-chart";
+import { CHART_COLORS } from "@/components/charts/colors";
+import type { MarkX, Stretch } from "@/components/charts/line-series-chart";
 import { downsample } from "@/lib/cases/downsample";
 import { kelvin } from "@/lib/cases/format";
 import type { EvaluateResult } from "@/lib/thermo/evaluate";
