@@ -56,7 +56,7 @@ export function ResultsView({ caseId, revision, stamp }: { caseId: number; revis
             <>
               <Badge tone="moss">Frozen snapshot · revision {data.revision}</Badge>
               <span className="text-xs text-ink-muted">
-                hash <code data-testid="snapshot-hash">{data.hash}</code>
+                hash <code className="break-all" data-testid="snapshot-hash">{data.hash}</code>
               </span>
             </>
           ) : (

@@ -128,7 +128,7 @@ export default async function CasePage({ params, searchParams }: Props) {
                       {when(s.createdAt)} · {s.createdByName}
                     </span>
                   </div>
-                  <code className="block truncate text-xs text-ink-muted" title={s.hash}>
+                  <code className="block break-all text-xs text-ink-muted" title={s.hash}>
                     {s.hash}
                   </code>
                   {s.decision ? (
