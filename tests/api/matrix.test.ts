@@ -35,6 +35,16 @@ describe("every route handler has a row", () => {
   });
 });
 
+describe.each(ROUTES.filter((r) => r.author))("$method $file ($name) by the author", (row) => {
+  it(`as the author (${row.author!.who})`, async () => {
+    const author = row.author!;
+    const prepared = await author.prepare();
+    await signInAs(author.who);
+    const response = await row.handler(jsonRequest(row.method, `/api/v1/${row.file}`, prepared.body), ctx(prepared.params ?? {}));
+    expect(response.status).toBe(author.expect);
+  });
+});
+
 describe.each(ROUTES)("$method $file ($name)", (row) => {
   it.each(ALL_WHO)("as %s", async (who) => {
     const prepared = row.prepare ? await row.prepare() : {};

@@ -37,6 +37,13 @@ async function awaiting(): Promise<string> {
   await submitCase(erin, c.id, 0);
   return String(c.id);
 }
+/** A fresh case by `who` awaiting review. */
+async function awaitingBy(who: "admin" | "steward"): Promise<string> {
+  const author = await actorOf(who);
+  const c = await createCase(author, caseInputSchema.parse(shiftCase(await pins())));
+  await submitCase(author, c.id, 0);
+  return String(c.id);
+}
 /** A case with two revisions: submitted, returned, resubmitted. */
 async function twoRevisions(): Promise<string> {
   const erin = await actorOf("engineer");
@@ -116,6 +123,8 @@ export const ROWS: Row[] = [
     handler: reviews.POST as Handler,
     prepare: async () => ({ params: { id: await awaiting() }, body: { decision: "approved", reason: "" } }),
     expect: { anonymous: 401, engineer: 403, steward: 403, reviewer: 201, admin: 201, other: 404 },
+    // Four-eyes: an admin may decide cases, but not one they wrote.
+    author: { who: "admin", prepare: async () => ({ params: { id: await awaitingBy("admin") }, body: { decision: "approved", reason: "" } }), expect: 403 },
   },
   { name: "review queue", file: "reviews", method: "GET", handler: queue.GET as Handler, expect: { anonymous: 401, engineer: 403, steward: 403, reviewer: 200, admin: 200, other: 200 } },
   { name: "pinnable versions", file: "pins", method: "GET", handler: pinsRoute.GET as Handler, expect: allowAll(200) },

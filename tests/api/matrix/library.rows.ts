@@ -104,7 +104,16 @@ export const ROWS: Row[] = [
     expect: stewards(200),
   },
   { name: "propose", file: "versions/[id]/propose", method: "POST", handler: propose.POST as Handler, prepare: async () => ({ params: { id: await larkspurVersion("draft") } }), expect: stewards(200) },
-  { name: "approve", file: "versions/[id]/approve", method: "POST", handler: approve.POST as Handler, prepare: async () => ({ params: { id: await larkspurVersion("proposed", "engineer") } }), expect: stewards(200) },
+  {
+    name: "approve",
+    file: "versions/[id]/approve",
+    method: "POST",
+    handler: approve.POST as Handler,
+    prepare: async () => ({ params: { id: await larkspurVersion("proposed", "engineer") } }),
+    expect: stewards(200),
+    // Four-eyes: a steward may approve, but not their own proposal.
+    author: { who: "steward", prepare: async () => ({ params: { id: await larkspurVersion("proposed", "steward") } }), expect: 403 },
+  },
   {
     name: "reject",
     file: "versions/[id]/reject",
@@ -112,6 +121,7 @@ export const ROWS: Row[] = [
     handler: reject.POST as Handler,
     prepare: async () => ({ params: { id: await larkspurVersion("proposed", "engineer") }, body: { reason: "Range too short." } }),
     expect: stewards(200),
+    author: { who: "steward", prepare: async () => ({ params: { id: await larkspurVersion("proposed", "steward") }, body: { reason: "Range too short." } }), expect: 403 },
   },
   { name: "copy reference", file: "versions/[id]/copy", method: "POST", handler: copy.POST as Handler, prepare: async () => ({ params: { id: await referenceVersion() } }), expect: stewards(201, 201) },
   { name: "version curve", file: "versions/[id]/curve", method: "GET", handler: curve.GET as Handler, prepare: async () => ({ params: { id: await larkspurVersion("draft") } }), expect: teamRead() },

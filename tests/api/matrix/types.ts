@@ -14,6 +14,11 @@ export type Row = {
   /** Fresh params and body for each call, since some calls consume records. Runs before signing in. */
   prepare?: () => Promise<{ params?: Record<string, string>; body?: unknown; headers?: Record<string, string> }>;
   expect: Expect;
+  /**
+   * The author of the record as a caller of their own: the record is prepared as `who`'s work
+   * and `who` calls. Four-eyes routes expect a refusal here even where the role may act.
+   */
+  author?: { who: Exclude<Who, "anonymous" | "other">; prepare: () => Promise<{ params?: Record<string, string>; body?: unknown }>; expect: number };
 };
 
 export const allowAll = (status: number): Expect => ({ anonymous: 401, engineer: status, steward: status, reviewer: status, admin: status, other: status });
