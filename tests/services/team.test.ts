@@ -117,3 +117,15 @@ describe("roles", () => {
     expect(await models().AuditEvent.count({ where: { action: "membership.removed", entityId: String(target.id) } })).toBe(1);
   });
 });
+
+describe("invitation expiry", () => {
+  it("refuses a link past its expiry, and lists it as expired", async () => {
+    const admin = await actorOf("admin");
+    const created = await invite(admin, { email: "late.larry@example.test", role: "engineer" });
+    const token = await tokenFor("late.larry@example.test");
+    await models().Invitation.update({ expiresAt: new Date(Date.now() - 1000) }, { where: { id: created.invitation.id } });
+    await expect(previewInvitation(token)).rejects.toMatchObject({ status: 404, code: "invalid-invitation" });
+    await expect(acceptInvitation({ token, name: "Larry", password: "kettle-7-boils" })).rejects.toMatchObject({ status: 404 });
+    expect((await listInvitations(admin)).find((i) => i.id === created.invitation.id)!.status).toBe("expired");
+  });
+});
