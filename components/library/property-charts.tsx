@@ -3,7 +3,8 @@ import { COLORS as CHART_COLORS, curveRows, extrapolatedStretches, validityMarks
 
 /** Cp(T), H(T), S(T) of one version, or of two overlaid with their difference. Renders only. */
 export function PropertyCharts({ a, b, labelA, labelB, stacked = false }: { a: CurveLike; b?: CurveLike; labelA: string; labelB?: string; stacked?: boolean }) {
-  const grid = stacked ? "grid gap-4" : "grid gap-6 lg:grid-cols-3";
+  // One chart per row: three across left each too narrow to read its range marks.
+  const grid = stacked ? "grid gap-4" : "grid gap-6";
   const rows = curveRows(a, b);
   const stretches = extrapolatedStretches(a);
   const marks = validityMarks(a, CHART_COLORS.muted);
