@@ -2,7 +2,7 @@ import fs from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import { chromium, type BrowserContext, type Page } from "playwright-core";
-import { inject } from "vitest";
+import { afterAll, beforeAll, inject } from "vitest";
 
 export const CHROMIUM = ["/usr/bin/chromium", "/usr/bin/chromium-browser"].find((p) => fs.existsSync(p));
 export const SHOTS = path.resolve("test-results/screens");
@@ -47,4 +47,18 @@ export async function signIn(page: Page, email: string, password = "larkspur-dem
 export async function signOut(page: Page) {
   await page.getByRole("button", { name: "Sign out" }).click();
   await page.waitForURL(/\/sign-in/);
+}
+
+export type BrowserSession = Awaited<ReturnType<typeof openBrowser>>;
+
+/** One browser for the whole test file: opened before the first test, closed after the last. */
+export function browserForFile(viewport?: { width: number; height: number }): BrowserSession {
+  const session = {} as BrowserSession;
+  beforeAll(async () => {
+    Object.assign(session, await openBrowser(viewport));
+  });
+  afterAll(async () => {
+    await session.close?.();
+  });
+  return session;
 }

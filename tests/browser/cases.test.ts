@@ -1,17 +1,9 @@
 import type { Page } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { describe, expect, it } from "vitest";
 import path from "node:path";
-import { baseURL, openBrowser, SHOTS, shot, signIn, signOut } from "./browser";
+import { baseURL, openBrowser, browserForFile, SHOTS, shot, signIn, signOut } from "./browser";
 
-type Session = Awaited<ReturnType<typeof openBrowser>>;
-let b: Session;
-
-beforeAll(async () => {
-  b = await openBrowser();
-});
-afterAll(async () => {
-  await b?.close();
-});
+const b = browserForFile();
 
 const TITLE = "Shift converter, bed 2 check";
 

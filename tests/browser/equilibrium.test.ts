@@ -5,22 +5,15 @@
  */
 import path from "node:path";
 import type { Locator, Page } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { baseURL, openBrowser, SHOTS, shot, signIn } from "./browser";
+import { describe, expect, it } from "vitest";
+import { baseURL, openBrowser, browserForFile, SHOTS, shot, signIn } from "./browser";
 
 /** A screenshot of one part of the page (the panel), beside the full-page ones. */
 async function partShot(part: Locator, name: string) {
   await part.screenshot({ path: path.join(SHOTS, `${name}.png`) });
 }
 
-type Session = Awaited<ReturnType<typeof openBrowser>>;
-let b: Session;
-beforeAll(async () => {
-  b = await openBrowser();
-});
-afterAll(async () => {
-  await b?.close();
-});
+const b = browserForFile();
 
 async function openCase(page: Page, title: string): Promise<string> {
   await page.goto(`${baseURL()}/cases`);

@@ -1,16 +1,8 @@
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { describe, expect, it } from "vitest";
 import { DEMO_ACCOUNTS } from "@/seeders/demo-accounts";
-import { baseURL, openBrowser, shot, signIn, signOut } from "./browser";
+import { baseURL, openBrowser, browserForFile, shot, signIn, signOut } from "./browser";
 
-type Session = Awaited<ReturnType<typeof openBrowser>>;
-let b: Session;
-
-beforeAll(async () => {
-  b = await openBrowser();
-});
-afterAll(async () => {
-  await b?.close();
-});
+const b = browserForFile();
 
 const LABEL = { engineer: "Engineer", steward: "Steward", reviewer: "Reviewer", admin: "Admin" } as const;
 const larkspur = DEMO_ACCOUNTS.filter((a) => a.team === "larkspur" && a.email !== "stella.steward@example.test");

@@ -4,18 +4,10 @@
  * Also the list, a species page with an overlay, and the editor's live preview. Screenshots go
  * to test-results/screens/library-*.png.
  */
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { baseURL, openBrowser, shot, signIn, signOut } from "./browser";
+import { describe, expect, it } from "vitest";
+import { baseURL, openBrowser, browserForFile, shot, signIn, signOut } from "./browser";
 
-type Session = Awaited<ReturnType<typeof openBrowser>>;
-let b: Session;
-
-beforeAll(async () => {
-  b = await openBrowser();
-});
-afterAll(async () => {
-  await b?.close();
-});
+const b = browserForFile();
 
 // Invented measurements of a catalyst support: Cp = 150 + 0.03 T − 2.5e6/T² (J/(mol·K)).
 const rows = Array.from({ length: 15 }, (_, i) => {
