@@ -1,9 +1,9 @@
+import { orNotFound } from "@/lib/pages";
 import { notFound, redirect } from "next/navigation";
 import { CaseBuilder } from "@/components/cases/case-builder";
 import { PageHeader } from "@/components/ui/card";
 import { requirePermission } from "@/lib/auth/guards";
 import { getActor } from "@/lib/auth/session";
-import { AppError } from "@/lib/errors";
 import { getCase } from "@/lib/services/cases";
 import { listPinOptions } from "@/lib/services/pins";
 
@@ -13,10 +13,7 @@ export default async function EditCasePage({ params }: { params: Promise<{ id: s
   const actor = requirePermission(await getActor(), "cases.create");
   const id = Number((await params).id);
   if (!Number.isInteger(id) || id <= 0) notFound();
-  const c = await getCase(actor, id).catch((e) => {
-    if (e instanceof AppError && e.status === 404) notFound();
-    throw e;
-  });
+  const c = await orNotFound(getCase(actor, id));
   if (!c.can.edit) redirect(`/cases/${id}`);
   const options = await listPinOptions(actor);
   // A kept pin may have been superseded since; it stays selectable for this case.

@@ -1,3 +1,4 @@
+import { orNotFound } from "@/lib/pages";
 import { notFound } from "next/navigation";
 import { temperaturesText } from "@/components/cases/inputs-card";
 import { EquilibriumReport } from "@/components/equilibrium/equilibrium-report";
@@ -9,7 +10,6 @@ import { requireUser } from "@/lib/auth/guards";
 import { getActor } from "@/lib/auth/session";
 import { fixed, sci } from "@/lib/cases/format";
 import { formatQuantity } from "@/lib/cases/temperature";
-import { AppError } from "@/lib/errors";
 import { getResults } from "@/lib/services/cases";
 import { reportSources } from "@/lib/services/equilibrium";
 
@@ -26,10 +26,7 @@ export default async function ReportPage({ params, searchParams }: Props) {
   const rev = (await searchParams).revision;
   const revision = rev && /^\d+$/.test(rev) ? Number(rev) : undefined;
   if (!Number.isInteger(id) || id <= 0) notFound();
-  const data = await getResults(actor, id, revision).catch((e) => {
-    if (e instanceof AppError && e.status === 404) notFound();
-    throw e;
-  });
+  const data = await orNotFound(getResults(actor, id, revision));
   const r = data.result;
   const pts = r.points;
   const stride = Math.max(1, Math.ceil(pts.length / SUMMARY_ROWS));

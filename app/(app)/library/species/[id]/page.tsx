@@ -1,5 +1,5 @@
+import { orNotFound } from "@/lib/pages";
 import Link from "next/link";
-import { notFound } from "next/navigation";
 import { PropertyCharts } from "@/components/library/property-charts";
 import { ScopeBadge, StatusBadge } from "@/components/library/status-badge";
 import { Caution } from "@/components/results/caution";
@@ -8,7 +8,6 @@ import { Card, PageHeader } from "@/components/ui/card";
 import { inputClass } from "@/components/ui/field";
 import { requireUser } from "@/lib/auth/guards";
 import { getActor } from "@/lib/auth/session";
-import { AppError } from "@/lib/errors";
 import { defaultRange, getSpecies, getVersion, versionCurve } from "@/lib/services/library";
 import { FAMILY_LABELS } from "@/lib/validation/library";
 
@@ -22,13 +21,7 @@ export default async function SpeciesPage({ params, searchParams }: Props) {
   const actor = requireUser(await getActor());
   const id = Number((await params).id);
   const sp = await searchParams;
-  let species;
-  try {
-    species = await getSpecies(actor, id);
-  } catch (e) {
-    if (e instanceof AppError && e.status === 404) notFound();
-    throw e;
-  }
+  const species = await orNotFound(getSpecies(actor, id));
   const all = species.models.flatMap((m) => m.versions.map((v) => ({ ...v, model: m })));
   const chosenId = num(sp.v) ?? all.find((v) => v.status === "approved")?.id ?? all[0]?.id;
   const chosen = all.find((v) => v.id === chosenId);

@@ -1,5 +1,5 @@
+import { orNotFound } from "@/lib/pages";
 import Link from "next/link";
-import { notFound } from "next/navigation";
 import { PropertyCharts } from "@/components/library/property-charts";
 import { phaseLabel } from "@/components/library/curve-rows";
 import { ScopeBadge, StatusBadge } from "@/components/library/status-badge";
@@ -9,7 +9,6 @@ import { Card, PageHeader } from "@/components/ui/card";
 import { can } from "@/lib/auth/permissions";
 import { requireUser } from "@/lib/auth/guards";
 import { getActor } from "@/lib/auth/session";
-import { AppError } from "@/lib/errors";
 import { getVersion, versionAudit, versionCurve } from "@/lib/services/library";
 import { FAMILY_LABELS } from "@/lib/validation/library";
 
@@ -42,13 +41,7 @@ function coeffText(coeffs: unknown): string {
 export default async function VersionPage({ params }: Props) {
   const actor = requireUser(await getActor());
   const id = Number((await params).id);
-  let v;
-  try {
-    v = await getVersion(actor, id);
-  } catch (e) {
-    if (e instanceof AppError && e.status === 404) notFound();
-    throw e;
-  }
+  const v = await orNotFound(getVersion(actor, id));
   const [audit, curve] = await Promise.all([versionAudit(actor, id), versionCurve(actor, id).catch((e: Error) => e)]);
   const team = v.scope === "team";
   const mine = v.authorId === actor.userId;

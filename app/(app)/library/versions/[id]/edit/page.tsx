@@ -1,11 +1,11 @@
+import { orNotFound } from "@/lib/pages";
 import Link from "next/link";
-import { notFound, redirect } from "next/navigation";
+import { redirect } from "next/navigation";
 import { VersionEditor } from "@/components/library/version-editor";
 import { PageHeader } from "@/components/ui/card";
 import { can } from "@/lib/auth/permissions";
 import { requireUser } from "@/lib/auth/guards";
 import { getActor } from "@/lib/auth/session";
-import { AppError } from "@/lib/errors";
 import { getVersion } from "@/lib/services/library";
 
 export const metadata = { title: "Edit draft" };
@@ -13,13 +13,7 @@ export const metadata = { title: "Edit draft" };
 export default async function EditVersionPage({ params }: { params: Promise<{ id: string }> }) {
   const actor = requireUser(await getActor());
   const id = Number((await params).id);
-  let v;
-  try {
-    v = await getVersion(actor, id);
-  } catch (e) {
-    if (e instanceof AppError && e.status === 404) notFound();
-    throw e;
-  }
+  const v = await orNotFound(getVersion(actor, id));
   const mayEdit = v.scope === "team" && v.status === "draft" && (v.authorId === actor.userId ? can(actor.role, "models.draft") : can(actor.role, "models.edit"));
   if (!mayEdit) redirect(`/library/versions/${id}`);
   return (
