@@ -5,6 +5,7 @@
 import { describe, expect, it } from "vitest";
 import { compareSources, evaluate, type EvaluateRequest, type SegmentInput, type SpeciesInput } from "@/lib/thermo";
 import { speciesEntry, type Family } from "./reference-data";
+import { seededNormals } from "../helpers/random";
 
 const SHIFT = "CO(g) + H2O(g) -> CO2(g) + H2(g)";
 const REFORM = "CH4(g) + H2O(g) -> CO(g) + 3 H2(g)";
@@ -19,18 +20,7 @@ const U: Record<string, { dfHkJ: number; sJ: number; cpRelative: number }> = {
   H2: { dfHkJ: 0, sJ: 0.003, cpRelative: 0.01 },
 };
 
-/** Seeded uniform (mulberry32) and normal (Box–Muller) draws. */
-function normals(seed: number): () => number {
-  let a = seed >>> 0;
-  const uniform = () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-  return () => Math.sqrt(-2 * Math.log(1 - uniform())) * Math.cos(2 * Math.PI * uniform());
-}
+const normals = seededNormals;
 
 /**
  * The first Shomate segment with ΔfH° shifted by dh (kJ/mol), S° by ds (J/(mol·K)) and Cp

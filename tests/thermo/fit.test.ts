@@ -2,19 +2,9 @@
 import { describe, expect, it } from "vitest";
 import { EngineRefusal, fitCp, R, speciesProperties } from "@/lib/thermo";
 import { speciesEntry } from "./reference-data";
+import { seededNormals } from "../helpers/random";
 
-/** Seeded RNG (mulberry32) and Box–Muller normal deviates, so the noise is the same every run. */
-function rng(seed: number) {
-  let a = seed >>> 0;
-  const uniform = () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-  return () => Math.sqrt(-2 * Math.log(1 - uniform())) * Math.cos(2 * Math.PI * uniform());
-}
+const rng = seededNormals;
 
 // The CO(g) Shomate set 298–1300 K (fit to NIST-JANAF, Chase 1998) generates the data.
 const co = speciesEntry("shomate", "CO", "g").segments[0];
