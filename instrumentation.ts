@@ -1,6 +1,7 @@
 /**
  * Runs once when an app server starts: refuse an unsafe production setup,
- * then start the mail worker (and, in demo mode, the local mail catcher).
+ * then start the engine's worker threads and the mail worker (and, in demo
+ * mode, the local mail catcher).
  */
 export async function register() {
   if (process.env.NEXT_RUNTIME !== "nodejs") return;
@@ -12,6 +13,8 @@ export async function register() {
     if (demo > 0) problems.push(`${demo} demo account(s) are present`);
   }
   if (problems.length) throw new Error(`Production mode refused: ${problems.join("; ")}.`);
+  const { enginePool } = await import("@/lib/engine-pool");
+  enginePool();
   const { startMailWorker } = await import("@/lib/mail-worker");
   await startMailWorker();
 }

@@ -17,6 +17,9 @@ const schema = z.object({
   SIGNIN_LIMIT_PER_ACCOUNT: z.coerce.number().int().positive().default(10),
   SIGNIN_LIMIT_PER_ADDRESS: z.coerce.number().int().positive().default(50),
   SIGNIN_WINDOW_SECONDS: z.coerce.number().int().positive().default(900),
+  ENGINE_THREADS: z.coerce.number().int().min(1).max(64).default(2),
+  ENGINE_TIME_LIMIT_MS: z.coerce.number().int().positive().default(10_000),
+  ENGINE_QUEUE_LIMIT: z.coerce.number().int().min(0).default(8),
 });
 
 export type Env = z.infer<typeof schema>;

@@ -2,7 +2,8 @@ import "server-only";
 import { z } from "zod";
 import { requirePermission, type Actor } from "@/lib/auth/guards";
 import { parseWith } from "@/lib/http";
-import { evaluate, type EvaluateResult } from "@/lib/thermo";
+import { runEngine } from "@/lib/engine-pool";
+import type { EvaluateResult } from "@/lib/thermo";
 import { caseEquilibriumSchema } from "@/lib/validation/equilibrium";
 import { buildRequest, getCase, updateCase, type CaseDto } from "./cases";
 import { pinTerms } from "@/lib/cases/equilibrium";
@@ -29,7 +30,7 @@ export async function previewCaseEquilibrium(actor: Actor | null, readBody: () =
   const c = await getCase(me, body.caseId);
   const inputs = { ...c.inputs, equilibrium: body.equilibrium };
   const pins = await loadPins(me.teamId, pinTerms(inputs), { allowAny: true });
-  return evaluate(buildRequest(inputs, pins));
+  return runEngine(buildRequest(inputs, pins));
 }
 
 /** Save (or clear, with null) a draft case's equilibrium: an ordinary case edit, audited, lock-checked. */

@@ -9,7 +9,8 @@ import { formatQuantity } from "@/lib/cases/temperature";
 import { db, models } from "@/lib/db";
 import { AppError, conflict, notFound } from "@/lib/errors";
 import { env } from "@/lib/env";
-import { ENGINE_VERSION, evaluate, type EvaluateRequest, type EvaluateResult } from "@/lib/thermo";
+import { runEngine } from "@/lib/engine-pool";
+import { ENGINE_VERSION, type EvaluateRequest, type EvaluateResult } from "@/lib/thermo";
 import type { CaseInput, CaseInputs, CaseStatus, CaseUpdate, CommentInput } from "@/lib/validation/cases";
 import type { Case } from "@/models/case";
 import type { CaseSnapshot, PinnedVersion } from "@/models/case-snapshot";
@@ -312,7 +313,7 @@ export async function getResults(actor: Actor | null, caseId: number, revision?:
   requirePermission(me, "evaluate.run");
   const pins = await loadPins(row.teamId, pinTerms(row.inputs), { allowAny: true });
   const request = buildRequest(row.inputs, pins);
-  const result = evaluate(request);
+  const result = await runEngine(request);
   return {
     source: "live",
     caseId,
@@ -527,7 +528,7 @@ async function requestReview(transaction: Transaction, me: Actor, row: Case, sna
 async function prepareRun(teamId: number, inputs: CaseInputs) {
   const pins = await loadPins(teamId, pinTerms(inputs), { allowAny: true });
   const request = buildRequest(inputs, pins);
-  const result = evaluate(request);
+  const result = await runEngine(request);
   return { pins, request, result };
 }
 

@@ -2,7 +2,8 @@ import "server-only";
 import { Op } from "sequelize";
 import { requirePermission, type Actor } from "@/lib/auth/guards";
 import { models } from "@/lib/db";
-import { compareSources, type EvaluateRequest, type SourceComparison, type SpeciesInput } from "@/lib/thermo";
+import { runEngineTask } from "@/lib/engine-pool";
+import { type EvaluateRequest, type SourceComparison, type SpeciesInput } from "@/lib/thermo";
 import { speciesOfPin } from "@/lib/cases/equilibrium";
 
 export { equilibriumCsvColumns, equilibriumRequestOf, pinTerms, speciesOfPin } from "@/lib/cases/equilibrium";
@@ -84,10 +85,10 @@ export async function compareFamilies(actor: Actor | null, readBody: () => Promi
       message: families.length === 0 ? "No data family has approved versions of every species in this case." : `Only the ${families[0].family} family has approved versions of every species; there is nothing to compare against.`,
     };
   }
-  const comparison = compareSources(
+  const comparison = await runEngineTask("compareSources", {
     request,
-    families.map((f) => ({ label: f.family, species: Object.fromEntries(species.get(f.family)!) })),
-  );
+    variants: families.map((f) => ({ label: f.family, species: Object.fromEntries(species.get(f.family)!) })),
+  });
   return { families, comparison, message: null };
 }
 
