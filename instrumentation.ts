@@ -5,13 +5,8 @@
  */
 export async function register() {
   if (process.env.NEXT_RUNTIME !== "nodejs") return;
-  const { isProduction, productionConfigProblems } = await import("@/lib/env");
-  const problems = productionConfigProblems();
-  if (isProduction) {
-    const { models } = await import("@/lib/db");
-    const demo = await models().User.count({ where: { isDemo: true } });
-    if (demo > 0) problems.push(`${demo} demo account(s) are present`);
-  }
+  const { productionProblems } = await import("@/lib/production");
+  const problems = await productionProblems();
   if (problems.length) throw new Error(`Production mode refused: ${problems.join("; ")}.`);
   const { enginePool } = await import("@/lib/engine-pool");
   enginePool();

@@ -29,7 +29,7 @@ export type EngineRunOptions = {
 export const ENGINE_BUSY_RETRY_SECONDS = 5;
 
 /** The worker module; resolved from the project root so the bundler leaves it alone (`next start` and vitest run from there). */
-export const ENGINE_WORKER_FILE = path.join(process.cwd(), "lib", "engine-worker.mjs");
+export const ENGINE_WORKER_FILE = path.join(/*turbopackIgnore: true*/ process.cwd(), "lib", "engine-worker.mjs");
 
 type PoolHolder = { __heatpathEnginePool?: Piscina; __heatpathEngineJobs?: number };
 const holder = globalThis as PoolHolder;

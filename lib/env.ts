@@ -1,14 +1,18 @@
 import { z } from "zod";
 
-/** The development secret: fine on a laptop, refused in production mode. */
+/**
+ * The secret that earlier copies of `.env.example` printed. Known to everyone, so it is
+ * refused in every mode (demo mode generates its own secret instead: lib/session-secret.ts).
+ */
 export const DEVELOPMENT_SESSION_SECRET = "heatpath-development-secret-change-me-0000000000";
 
 const schema = z.object({
   HEATPATH_MODE: z.enum(["demo", "production"]).default("demo"),
   DATABASE_PATH: z.string().min(1).default("data/heatpath.sqlite"),
   DATABASE_URL: z.string().optional(),
-  SESSION_SECRET: z.string().min(32, "SESSION_SECRET must be at least 32 characters").default(DEVELOPMENT_SESSION_SECRET),
-  APP_URL: z.string().url().default("http://127.0.0.1:3000"),
+  SESSION_SECRET: z.string().min(32, "SESSION_SECRET must be at least 32 characters").optional(),
+  // Required in production; in demo mode the default is the address this server listens on (see below).
+  APP_URL: z.string().url().optional(),
   SMTP_URL: z.string().optional(),
   MAIL_CATCHER_PORT: z.coerce.number().int().positive().default(2525),
   MAIL_FROM: z.string().default("Heatpath <no-reply@heatpath.example.test>"),
@@ -22,15 +26,32 @@ const schema = z.object({
   ENGINE_QUEUE_LIMIT: z.coerce.number().int().min(0).default(8),
 });
 
-export type Env = z.infer<typeof schema>;
+/** APP_URL is always a string: "" in production when it was not set (refused by productionConfigProblems). */
+export type Env = Omit<z.infer<typeof schema>, "APP_URL"> & { APP_URL: string };
 
-function read(): Env {
-  const parsed = schema.safeParse(process.env);
+/**
+ * The demo default for APP_URL: the host and port this server listens on. `npm start` passes
+ * HOST and PORT to the server; `next start -p N` sets PORT itself before the app code loads.
+ * A wildcard address (0.0.0.0, ::) is not an address to link to, so it becomes 127.0.0.1.
+ */
+export function demoAppUrl(source: Record<string, string | undefined> = process.env): string {
+  const host = source.HOST && !["0.0.0.0", "::", "[::]"].includes(source.HOST) ? source.HOST : "127.0.0.1";
+  const port = source.PORT && /^\d+$/.test(source.PORT) ? source.PORT : "3000";
+  return `http://${host.includes(":") && !host.startsWith("[") ? `[${host}]` : host}:${port}`;
+}
+
+export function readEnv(source: Record<string, string | undefined> = process.env): Env {
+  const parsed = schema.safeParse(source);
   if (!parsed.success) {
     const first = parsed.error.issues[0];
     throw new Error(`Invalid environment: ${first.path.join(".")}: ${first.message}`);
   }
-  return parsed.data;
+  const data = parsed.data;
+  return { ...data, APP_URL: data.APP_URL ?? (data.HEATPATH_MODE === "production" ? "" : demoAppUrl(source)) };
+}
+
+function read(): Env {
+  return readEnv(process.env);
 }
 
 /** Environment, read and checked once per process. */
@@ -45,7 +66,9 @@ export const isProduction = env.HEATPATH_MODE === "production";
 export function productionConfigProblems(e: Env = env): string[] {
   if (e.HEATPATH_MODE !== "production") return [];
   const problems: string[] = [];
-  if (e.SESSION_SECRET === DEVELOPMENT_SESSION_SECRET) problems.push("SESSION_SECRET is the development secret");
+  if (!e.SESSION_SECRET) problems.push("SESSION_SECRET is required in production mode");
+  else if (e.SESSION_SECRET === DEVELOPMENT_SESSION_SECRET) problems.push("SESSION_SECRET is the example secret from .env.example");
+  if (!e.APP_URL) problems.push("APP_URL is required in production mode (the public address used in mail links)");
   if (!e.SMTP_URL) problems.push("SMTP_URL is required in production mode");
   return problems;
 }

@@ -3,7 +3,8 @@
  * The same migrations and seeders the tests use.
  */
 import { closeDb, registry } from "@/lib/db";
-import { env, isProduction, productionConfigProblems } from "@/lib/env";
+import { env, isProduction } from "@/lib/env";
+import { productionProblems } from "@/lib/production";
 import path from "node:path";
 import { backupDatabase, restoreDatabase } from "@/lib/backup";
 import { migrateDownAll, migrator } from "@/lib/migrate";
@@ -58,11 +59,7 @@ async function main(command: string | undefined) {
       return;
     }
     case "check-production": {
-      const problems = productionConfigProblems();
-      if (isProduction) {
-        const demo = await models.User.count({ where: { isDemo: true } });
-        if (demo > 0) problems.push(`${demo} demo account(s) are present; remove them before running in production mode`);
-      }
+      const problems = await productionProblems();
       if (problems.length) throw new Error(`Production mode refused: ${problems.join("; ")}.`);
       break;
     }

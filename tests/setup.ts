@@ -8,6 +8,8 @@ import { cookieJar } from "./helpers/cookies";
 // Each test file gets its own SQLite file, set before lib/env is first imported.
 process.env.DATABASE_PATH ??= path.join(os.tmpdir(), `heatpath-test-${process.pid}-${crypto.randomBytes(4).toString("hex")}.sqlite`);
 process.env.HEATPATH_MODE ??= "demo";
+// A secret of this run's own, so tests do not write demo mode's generated secret file beside their databases in the temp folder.
+process.env.SESSION_SECRET ??= crypto.randomBytes(32).toString("hex");
 
 // `npm run test:postgres` passes a PostgreSQL admin URL instead: each test file
 // gets its own new database there, created before lib/env is first imported.

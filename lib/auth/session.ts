@@ -1,7 +1,8 @@
 import "server-only";
 import { getIronSession, type SessionOptions } from "iron-session";
 import { cookies } from "next/headers";
-import { env, isProduction } from "@/lib/env";
+import { isProduction } from "@/lib/env";
+import { resolveSessionSecret } from "@/lib/session-secret";
 import { actorFor, endSessionsOf } from "@/lib/services/auth";
 import type { Actor } from "./guards";
 
@@ -10,15 +11,21 @@ export type SessionData = { userId?: number; teamId?: number; issuedAt?: number 
 
 export const SESSION_COOKIE = "heatpath_session";
 
-export const sessionOptions: SessionOptions = {
-  password: env.SESSION_SECRET,
-  cookieName: SESSION_COOKIE,
-  ttl: 60 * 60 * 12,
-  cookieOptions: { httpOnly: true, sameSite: "lax", secure: isProduction, path: "/" },
-};
+let options: SessionOptions | undefined;
+
+/** Built on first use, so the secret is read (or, in demo mode, generated) by the running server, not by the build. */
+export function sessionOptions(): SessionOptions {
+  options ??= {
+    password: resolveSessionSecret(),
+    cookieName: SESSION_COOKIE,
+    ttl: 60 * 60 * 12,
+    cookieOptions: { httpOnly: true, sameSite: "lax", secure: isProduction, path: "/" },
+  };
+  return options;
+}
 
 export async function getSession() {
-  return getIronSession<SessionData>(await cookies(), sessionOptions);
+  return getIronSession<SessionData>(await cookies(), sessionOptions());
 }
 
 /** The signed-in actor, or null (no cookie, or a session ended by sign-out). Services decide what null means. */
