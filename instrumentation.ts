@@ -5,6 +5,9 @@
  */
 export async function register() {
   if (process.env.NEXT_RUNTIME !== "nodejs") return;
+  // Requests carry their socket address for the sign-in limits (Next gives handlers no socket).
+  const { installPeerAddressHook } = await import("@/lib/auth/peer-address");
+  installPeerAddressHook();
   const { productionProblems } = await import("@/lib/production");
   const problems = await productionProblems();
   if (problems.length) throw new Error(`Production mode refused: ${problems.join("; ")}.`);

@@ -1,3 +1,4 @@
+import { isIP } from "node:net";
 import { z } from "zod";
 
 /**
@@ -18,8 +19,18 @@ const schema = z.object({
   MAIL_FROM: z.string().default("Heatpath <no-reply@heatpath.example.test>"),
   BODY_LIMIT_BYTES: z.coerce.number().int().positive().default(1_048_576),
   LOG_SQL: z.enum(["0", "1"]).default("0"),
+  // Failures per account from one address; the account as a whole has a much higher ceiling.
   SIGNIN_LIMIT_PER_ACCOUNT: z.coerce.number().int().positive().default(10),
+  SIGNIN_CEILING_PER_ACCOUNT: z.coerce.number().int().positive().default(200),
   SIGNIN_LIMIT_PER_ADDRESS: z.coerce.number().int().positive().default(50),
+  // Unset: the socket address. A number of proxy hops, or a comma-separated list of proxy addresses (lib/auth/client.ts).
+  TRUST_PROXY: z
+    .string()
+    .trim()
+    .default("")
+    .refine((v) => v === "" || /^\d{1,2}$/.test(v) || v.split(",").every((a) => isIP(a.trim()) !== 0), {
+      message: "TRUST_PROXY must be a number of proxy hops or a comma-separated list of proxy IP addresses",
+    }),
   SIGNIN_WINDOW_SECONDS: z.coerce.number().int().positive().default(900),
   ENGINE_THREADS: z.coerce.number().int().min(1).max(64).default(2),
   ENGINE_TIME_LIMIT_MS: z.coerce.number().int().positive().default(10_000),

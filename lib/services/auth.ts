@@ -5,26 +5,25 @@ import { QueryTypes } from "sequelize";
 import { db, models } from "@/lib/db";
 import { AppError } from "@/lib/errors";
 import type { SignInInput } from "@/lib/validation/auth";
-import { assertUnderLimits, clearLimits, countFailure, signInLimits } from "./rate-limit";
+import { releaseAttempt, signInLimits, takeAttempt } from "./rate-limit";
 
 /** One message for an unknown account and a wrong password. */
 export const INVALID_CREDENTIALS = "That e-mail and password do not match an account.";
 
 /**
- * Check an e-mail and password. Failures count against the account and the
- * client address (in the database, so the limit holds across app servers).
+ * Check an e-mail and password. Every attempt counts against the account from this
+ * address, the account overall and the address (in the database, so the limits hold
+ * across app servers); a successful one is given back (lib/services/rate-limit.ts).
  */
 export async function authenticate(input: SignInInput, options: { clientAddress?: string | null } = {}): Promise<{ userId: number; teamId: number }> {
   const { User, Membership } = models();
   const limits = signInLimits(input.email, options.clientAddress ?? null);
-  await assertUnderLimits(limits);
+  // Counted before the password is checked, so parallel attempts cannot outrun the limit.
+  await takeAttempt(limits);
   const user = await User.findOne({ where: { email: input.email } });
   const valid = await verifyPassword(input.password, user?.passwordHash ?? DUMMY_HASH);
-  if (!user || !valid) {
-    await countFailure(limits);
-    throw new AppError(401, "invalid-credentials", INVALID_CREDENTIALS);
-  }
-  await clearLimits([limits[0].key]);
+  if (!user || !valid) throw new AppError(401, "invalid-credentials", INVALID_CREDENTIALS);
+  await releaseAttempt(limits, [limits[0].key]);
   const membership = await Membership.findOne({ where: { userId: user.id }, order: [["id", "ASC"]] });
   if (!membership) throw new AppError(403, "no-team", "This account is not a member of any team yet.");
   return { userId: user.id, teamId: membership.teamId };

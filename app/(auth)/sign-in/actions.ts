@@ -3,16 +3,12 @@
 import { headers } from "next/headers";
 import { redirect } from "next/navigation";
 import { actionFailure, formObject, type ActionState } from "@/lib/actions";
-import { clientAddress } from "@/lib/auth/client";
+import { clientAddress, safeNext } from "@/lib/auth/client";
 import { startSession } from "@/lib/auth/session";
 import { fieldErrors } from "@/lib/http";
 import { authenticate } from "@/lib/services/auth";
 import { signInSchema } from "@/lib/validation/auth";
 
-/** A local path to return to after sign-in; anything else goes home. */
-function safeNext(value: string | undefined): string {
-  return value && value.startsWith("/") && !value.startsWith("//") ? value : "/";
-}
 
 export async function signInAction(_prev: ActionState, formData: FormData): Promise<ActionState> {
   const input = formObject(formData);
