@@ -1,18 +1,8 @@
-const development = process.env.NODE_ENV === "development";
-
-/** The app loads nothing from elsewhere; the dev server alone needs eval for fast refresh. */
-const csp = [
-  "default-src 'self'",
-  `script-src 'self' 'unsafe-inline'${development ? " 'unsafe-eval'" : ""}`,
-  "style-src 'self' 'unsafe-inline'",
-  "img-src 'self' data: blob:",
-  "font-src 'self'",
-  "connect-src 'self'",
-  "object-src 'none'",
-  "base-uri 'self'",
-  "form-action 'self'",
-  "frame-ancestors 'none'",
-].join("; ");
+/**
+ * The Content-Security-Policy (nonce-based) and, in production, Strict-Transport-Security
+ * are set per request in proxy.ts (lib/security-headers.ts); the static headers here go on
+ * every response, including the static files the proxy does not see.
+ */
 
 /** @type {import('next').NextConfig} */
 const nextConfig = {
@@ -26,7 +16,6 @@ const nextConfig = {
       {
         source: "/:path*",
         headers: [
-          { key: "Content-Security-Policy", value: csp },
           { key: "X-Content-Type-Options", value: "nosniff" },
           { key: "Referrer-Policy", value: "strict-origin-when-cross-origin" },
           { key: "X-Frame-Options", value: "DENY" },

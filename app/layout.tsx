@@ -1,5 +1,6 @@
 import type { Metadata, Viewport } from "next";
 import localFont from "next/font/local";
+import { connection } from "next/server";
 import "./globals.css";
 
 const inter = localFont({
@@ -30,7 +31,10 @@ export const metadata: Metadata = {
 
 export const viewport: Viewport = { width: "device-width", initialScale: 1 };
 
-export default function RootLayout({ children }: { children: React.ReactNode }) {
+export default async function RootLayout({ children }: { children: React.ReactNode }) {
+  // Every page renders per request: Next puts the request's CSP nonce (proxy.ts) on its
+  // scripts only while rendering, so a page built ahead of time would be blocked.
+  await connection();
   return (
     <html lang="en" className={`${inter.variable} ${interGreek.variable}`}>
       <body>{children}</body>

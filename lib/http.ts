@@ -4,13 +4,22 @@ import { AppError } from "@/lib/errors";
 
 export type ErrorBody = { error: { code: string; message: string; details?: unknown } };
 
+/** API answers are per user and per moment: never stored by a browser or a proxy. */
+export const NO_STORE = "no-store";
+
+function noStore(headers?: HeadersInit): Headers {
+  const h = new Headers(headers);
+  if (!h.has("cache-control")) h.set("cache-control", NO_STORE);
+  return h;
+}
+
 export function errorResponse(status: number, code: string, message: string, details?: unknown, headers?: HeadersInit): Response {
   const body: ErrorBody = { error: details === undefined ? { code, message } : { code, message, details } };
-  return Response.json(body, { status, headers });
+  return Response.json(body, { status, headers: noStore(headers) });
 }
 
 export function json(data: unknown, status = 200, headers?: HeadersInit): Response {
-  return Response.json(data, { status, headers });
+  return Response.json(data, { status, headers: noStore(headers) });
 }
 
 /** zod issues as `{ path: message }`, the shape forms and API clients both read. */
@@ -136,7 +145,14 @@ export function route<C = unknown>(handler: (request: Request, context: C) => Pr
   return async (request: Request, context: C): Promise<Response> => {
     try {
       assertSameOrigin(request);
-      return await handler(request, context);
+      const response = await handler(request, context);
+      // CSV exports and empty answers too, not only json().
+      try {
+        if (!response.headers.has("cache-control")) response.headers.set("cache-control", NO_STORE);
+      } catch {
+        // Response.redirect() headers are immutable; a redirect carries no data to cache.
+      }
+      return response;
     } catch (error) {
       return toErrorResponse(error);
     }
