@@ -1,5 +1,8 @@
-import { isIP } from "node:net";
 import { z } from "zod";
+
+const ipAddress = z.union([z.ipv4(), z.ipv6()]);
+/** True for an IPv4 or IPv6 address (zod, not node:net: client components import this file's schema neighbours). */
+export const isIpAddress = (value: string) => ipAddress.safeParse(value).success;
 
 /**
  * The secret that earlier copies of `.env.example` printed. Known to everyone, so it is
@@ -28,13 +31,13 @@ const schema = z.object({
     .string()
     .trim()
     .default("")
-    .refine((v) => v === "" || /^\d{1,2}$/.test(v) || v.split(",").every((a) => isIP(a.trim()) !== 0), {
+    .refine((v) => v === "" || /^\d{1,2}$/.test(v) || v.split(",").every((a) => isIpAddress(a.trim())), {
       message: "TRUST_PROXY must be a number of proxy hops or a comma-separated list of proxy IP addresses",
     }),
   SIGNIN_WINDOW_SECONDS: z.coerce.number().int().positive().default(900),
   ENGINE_THREADS: z.coerce.number().int().min(1).max(64).default(2),
   ENGINE_TIME_LIMIT_MS: z.coerce.number().int().positive().default(10_000),
-  ENGINE_QUEUE_LIMIT: z.coerce.number().int().min(0).default(8),
+  ENGINE_QUEUE_LIMIT: z.coerce.number().int().min(0).default(32),
 });
 
 /** APP_URL is always a string: "" in production when it was not set (refused by productionConfigProblems). */

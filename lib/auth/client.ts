@@ -1,5 +1,4 @@
-import { isIP } from "node:net";
-import { env } from "@/lib/env";
+import { env, isIpAddress } from "@/lib/env";
 import { peerAddress } from "./peer-address";
 
 /**
@@ -40,7 +39,7 @@ function normalise(address: string): string {
   const a = address.replace(/^\[|\]$/g, "");
   const mapped = /^::ffff:(\d+\.\d+\.\d+\.\d+)$/i.exec(a);
   if (mapped) return mapped[1];
-  return (isIP(a) ? a.toLowerCase() : a).slice(0, 64);
+  return (isIpAddress(a) ? a.toLowerCase() : a).slice(0, 64);
 }
 
 /**

@@ -9,7 +9,7 @@ import { closeEnginePool, enginePool, runEngine, runEngineTask } from "@/lib/eng
 import { evaluate, EngineRefusal } from "@/lib/thermo";
 import { expressionRequest, smallRequest } from "../helpers/heavy";
 
-// ENGINE_THREADS and ENGINE_QUEUE_LIMIT keep their defaults here (2 and 8); the queue test sets its own pool below.
+// ENGINE_THREADS and ENGINE_QUEUE_LIMIT keep their defaults here (2 and 32); the queue test sets its own pool below.
 afterAll(() => closeEnginePool());
 
 const heavy = () => expressionRequest(30, 100_000);
