@@ -11,8 +11,9 @@ import type { EvaluateResult } from "@/lib/thermo/evaluate";
  * The server's engine runs in a pool of worker threads (piscina), never on the
  * request thread: a long evaluation then holds one worker while the server keeps
  * answering. Each job has a wall-time budget (ENGINE_TIME_LIMIT_MS, counted from
- * when the job is handed to the pool, queue wait included); a job over it is
- * refused with 503 `engine-time-limit` and its worker is terminated and replaced.
+ * when a worker starts it, so neither the queue nor a replacement worker's start-up
+ * uses it up); a job over it is refused with 503 `engine-time-limit` and its worker
+ * is terminated and replaced.
  * At most ENGINE_QUEUE_LIMIT jobs wait for a free worker; one more is refused with
  * 429 `engine-busy` and Retry-After. Engine refusals come back as the same
  * EngineRefusal (422 with the engine's exact code and message).
@@ -31,12 +32,24 @@ export const ENGINE_BUSY_RETRY_SECONDS = 5;
 /** The worker module; resolved from the project root so the bundler leaves it alone (`next start` and vitest run from there). */
 export const ENGINE_WORKER_FILE = path.join(/*turbopackIgnore: true*/ process.cwd(), "lib", "engine-worker.mjs");
 
-type PoolHolder = { __heatpathEnginePool?: Piscina; __heatpathEngineJobs?: number };
+type PoolHolder = {
+  __heatpathEnginePool?: Piscina;
+  __heatpathEngineJobs?: number;
+  /** Job id → starts its timer; called when the worker says the job has started. */
+  __heatpathEngineStarts?: Map<number, () => void>;
+  __heatpathEngineNextId?: number;
+};
 const holder = globalThis as PoolHolder;
 
 /** One pool per process, kept on globalThis because Next bundles each route separately. */
+function starts(): Map<number, () => void> {
+  holder.__heatpathEngineStarts ??= new Map();
+  return holder.__heatpathEngineStarts;
+}
+
 export function enginePool(): Piscina {
-  holder.__heatpathEnginePool ??= new Piscina({
+  if (holder.__heatpathEnginePool) return holder.__heatpathEnginePool;
+  const pool = new Piscina({
     filename: ENGINE_WORKER_FILE,
     // Every thread is started at once and kept: a cold worker takes a second or more to load
     // the engine, which is the wait a small evaluation must not see while a heavy one runs.
@@ -44,7 +57,14 @@ export function enginePool(): Piscina {
     maxThreads: env.ENGINE_THREADS,
     // The queue bound is kept by runEngineTask (piscina's maxQueue lets a few more through).
   });
-  return holder.__heatpathEnginePool;
+  pool.on("message", (message: { heatpathJobStarted?: number }) => {
+    const id = message?.heatpathJobStarted;
+    if (typeof id !== "number") return;
+    starts().get(id)?.();
+    starts().delete(id);
+  });
+  holder.__heatpathEnginePool = pool;
+  return pool;
 }
 
 /** Close the pool (tests; a server lets its workers end with the process). */
@@ -52,6 +72,7 @@ export async function closeEnginePool(): Promise<void> {
   const pool = holder.__heatpathEnginePool;
   holder.__heatpathEnginePool = undefined;
   holder.__heatpathEngineJobs = 0;
+  starts().clear();
   if (pool) await pool.destroy();
 }
 
@@ -86,23 +107,28 @@ export async function runEngineTask<N extends EngineTaskName>(name: N, payload: 
   if (jobs >= pool.options.maxThreads + env.ENGINE_QUEUE_LIMIT) throw engineBusyError();
   holder.__heatpathEngineJobs = jobs + 1;
   const controller = new AbortController();
+  const id = (holder.__heatpathEngineNextId = (holder.__heatpathEngineNextId ?? 0) + 1);
   let timedOut = false;
-  const timer = setTimeout(() => {
-    timedOut = true;
-    // Aborting a running job makes piscina terminate its worker and start a fresh one.
-    controller.abort();
-  }, timeoutMs);
+  let timer: ReturnType<typeof setTimeout> | undefined;
+  starts().set(id, () => {
+    timer = setTimeout(() => {
+      timedOut = true;
+      // Aborting a running job makes piscina terminate its worker and start a fresh one.
+      controller.abort();
+    }, timeoutMs);
+  });
   let outcome: EngineTaskOutcome;
   try {
     // A payload nested deeper than any request the engine's schemas accept cannot cross to a worker
     // (structured clone recurses and overflows the stack); the engine refuses it by its schema
     // before computing anything, so that refusal is produced here, on this thread.
-    outcome = nestedDeeperThan(payload, MAX_PAYLOAD_DEPTH) ? runTask(name, payload) : await pool.run({ name, payload }, { signal: controller.signal });
+    outcome = nestedDeeperThan(payload, MAX_PAYLOAD_DEPTH) ? runTask(name, payload) : await pool.run({ id, name, payload }, { signal: controller.signal });
   } catch (error) {
     if (timedOut) throw engineTimeLimitError(timeoutMs);
     throw error;
   } finally {
     clearTimeout(timer);
+    starts().delete(id);
     holder.__heatpathEngineJobs = (holder.__heatpathEngineJobs ?? 1) - 1;
   }
   if (!outcome.ok) throw new EngineRefusal(outcome.refusal.code, outcome.refusal.message, outcome.refusal.details);
