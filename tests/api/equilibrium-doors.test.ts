@@ -44,7 +44,8 @@ describe("equilibrium through the three doors", () => {
     expect(JSON.parse(cli.stdout)).toEqual(direct);
     expect(direct.equilibrium).toHaveLength(4);
     expect(direct.equilibriumInfo).toMatchObject({ pressureBar: 25, feedUnit: "kmol/h", key: "CH4(g)" });
-  });
+    // A CLI process and the route's first engine worker each load the engine (mathjs) from cold.
+  }, 60_000);
   it("a dependent set is a 422 with the error shape, and exit 2 on the CLI, writing nothing", async () => {
     const bad = { ...request, equilibrium: { ...request.equilibrium, reactions: [...request.equilibrium.reactions, "CH4(g) + 2 H2O(g) -> CO2(g) + 4 H2(g)"] } };
     const message = 'equilibrium.reactions[2] ("CH4(g) + 2 H2O(g) -> CO2(g) + 4 H2(g)") is a linear combination of the reactions before it; give linearly independent reactions';
