@@ -6,7 +6,6 @@
  */
 import { z } from "zod";
 
-// eslint-disable-next-line no-control-regex
 const CONTROL = /[\u0000-\u001f\u007f\u2028\u2029]/;
 export const hasControl = (s: string) => CONTROL.test(s);
 
