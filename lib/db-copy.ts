@@ -313,6 +313,8 @@ export async function copyDatabase(options: CopyOptions): Promise<CopyReport> {
     }
 
     await target.transaction(async (transaction) => {
+      // A PostgreSQL serialization retry runs this again from the start.
+      report.sequences = [];
       const qi = target.getQueryInterface();
       for (const p of plan) {
         const columns = targetColumns.get(p.table)!;
