@@ -79,12 +79,12 @@ function findCasePageManifest(): { file: string; entries: string[] } {
 }
 
 /** Median wall time of `n` sequential requests (after one discarded warm-up), and the answer's size. */
-async function timed(url: string, headers: Record<string, string>, n = 9): Promise<{ ms: number; bytes: number }> {
+async function timed(url: string, headers: Record<string, string>, n = 9, init: { method?: string; body?: string } = {}): Promise<{ ms: number; bytes: number }> {
   let bytes = 0;
   const times: number[] = [];
   for (let i = 0; i <= n; i++) {
     const t0 = performance.now();
-    const r = await fetch(url, { headers });
+    const r = await fetch(url, { headers, ...init });
     const text = await r.text();
     if (!r.ok) throw new Error(`${url}: ${r.status} ${text.slice(0, 200)}`);
     if (i > 0) times.push(performance.now() - t0);
@@ -122,6 +122,11 @@ async function main() {
     const rowBytes = (await (await fetch(`${base}/api/v1/evaluate`, { method: "POST", headers: { "content-type": "application/json", cookie }, body })).text()).length;
     const columnBytes = (await (await fetch(`${base}/api/v1/evaluate?format=columns`, { method: "POST", headers: { "content-type": "application/json", cookie }, body })).text()).length;
 
+    // One request at a time: what the server spends, with the load generator out of the way.
+    const post = { method: "POST", body };
+    const json = { "content-type": "application/json", cookie };
+    const single = { health: await timed(`${base}/api/v1/health`, {}, 29), rows: await timed(`${base}/api/v1/evaluate`, json, 29, post), columns: await timed(`${base}/api/v1/evaluate?format=columns`, json, 29, post) };
+
     // A 10 000-point case: a seeded draft's reaction and pins over 300–1299.9 K in 0.1 K steps.
     const list = (await (await fetch(`${base}/api/v1/cases?status=draft`, { headers: { cookie } })).json()) as { cases: { id: number }[] };
     const seeded = (await (await fetch(`${base}/api/v1/cases/${list.cases[0].id}/results`, { headers: { cookie } })).json()) as { inputs: Record<string, unknown> };
@@ -144,7 +149,7 @@ async function main() {
     })();
 
     const row = (name: string, r: Run) => `| ${name} | ${r.rps.toFixed(0)} | ${r.p50.toFixed(1)} | ${r.p95.toFixed(1)} | ${r.non2xx} |`;
-    console.log(`\nHeatpath API benchmark — ${CONNECTIONS} connections, ${SECONDS} s per target, next start on 127.0.0.1 (${os.cpus().length} cores)\n`);
+    console.log(`\nHeatpath API benchmark — ${CONNECTIONS} connections, ${SECONDS} s per target, next start on 127.0.0.1 (${os.cpus().length} cores, load average ${os.loadavg()[0].toFixed(1)} at the end), ${new Date().toISOString().slice(0, 16)}Z\n`);
     console.log("| target | requests/s | p50 ms | p95 ms | non-2xx |\n|---|---|---|---|---|");
     console.log(row("GET /api/v1/health", health));
     console.log(row("GET /api/v1/me (session + membership lookup)", me));
@@ -153,6 +158,7 @@ async function main() {
     const ratio = columns.rps / health.rps;
     console.log(`\nanswer size, ${points} points: rows ${(rowBytes / 1024).toFixed(0)} kB, columns ${(columnBytes / 1024).toFixed(0)} kB`);
     console.log(`evaluate (columns) / health throughput: ${ratio.toFixed(2)} (target ≥ 0.5: ${ratio >= 0.5 ? "met" : "not met"}); rows: ${(evaluate.rps / health.rps).toFixed(2)}`);
+    console.log(`one request at a time (median of 29): health ${single.health.ms.toFixed(1)} ms, evaluate rows ${single.rows.ms.toFixed(1)} ms, columns ${single.columns.ms.toFixed(1)} ms`);
     const ms = (t: { ms: number; bytes: number }) => `${t.ms.toFixed(0)} ms (${(t.bytes / 1024).toFixed(0)} kB)`;
     const verdict = (t: { ms: number }) => (t.ms < 250 ? "met" : "not met");
     console.log(`\ncase results request, ${bigPoints}-point case, median of 9 sequential (target < 250 ms):`);
