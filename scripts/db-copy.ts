@@ -31,7 +31,7 @@ async function main(): Promise<number> {
     await copyDatabase({ from: parseEndpoint(values.from ?? env.DATABASE_PATH), to: parseEndpoint(values.to), dryRun: values["dry-run"], log: (line) => console.log(line) });
     return 0;
   } catch (error) {
-    console.error(`db:copy refused: ${error instanceof CopyRefused ? error.message : (error as Error).message}; nothing was committed.`);
+    console.error(`db:copy ${error instanceof CopyRefused ? "refused" : "failed"}: ${(error as Error).message}; nothing was committed.`);
     return 1;
   }
 }
