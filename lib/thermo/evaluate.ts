@@ -273,7 +273,7 @@ function evaluateWithin(request: unknown): EvaluateResult {
   // A double root: ΔrG touches zero at an extremum (ΔrS = 0) without changing sign. An extremum
   // whose |ΔrG| is within the rounding of the terms' H and T·S counts as a root there.
   for (const node of nodes) {
-    if (node.g !== 0 && Math.abs(node.g) <= touchTolerance(terms, node.t) && isExtremum(node.t)) node.g = 0;
+    if (node.g !== 0 && isExtremum(node.t) && Math.abs(node.g) <= touchTolerance(terms, node.t)) node.g = 0;
   }
   const roots: number[] = [];
   for (let i = 0; i < nodes.length; i++) {

@@ -14,7 +14,7 @@ import { EngineRefusal, evaluate, R, speciesProperties, type SpeciesInput } from
 import { quad } from "@/lib/thermo/integrate";
 import { toErrorResponse } from "@/lib/http";
 import { janafRows, repoRoot, speciesEntry } from "./reference-data";
-import { NASA9_WATER_LIQUID_COEFFS as W, nasa9WaterLiquid } from "./nasa9-water";
+import { NASA9_N2_RANGES, NASA9_WATER_LIQUID_COEFFS as W, nasa9N2, nasa9WaterLiquid } from "./nasa9-sets";
 
 function refusal(fn: () => unknown): EngineRefusal {
   try {
@@ -84,6 +84,36 @@ describe("1. integration: rounding-aware tolerance and a work budget", () => {
       expect(Math.abs(at.hkJ - -285.83)).toBeLessThan(0.005); // the card's dfH298, −285.830 kJ/mol
     },
     180_000,
+  );
+
+  it(
+    "the NASA-9 N2 set's 6000–20000 K range (a1 ≈ 8e8) on 10 000 points stays a few evaluations per point; N2 matches NIST-JANAF",
+    () => {
+      const list = Array.from({ length: 10000 }, (_, i) => 6000 + (14000 * i) / 9999);
+      const before = quad.evaluations;
+      const r = speciesProperties(nasa9N2(), list);
+      // Before: more than 60 s.
+      expect(quad.evaluations - before).toBeLessThan(100_000);
+      // Closed form of the 6000–20000 K range from its own constants (the reference README's
+      // 1e-9 kJ/mol and 1e-9 J/(mol·K) floors; the closed form itself rounds at ~1e-8 J/mol here).
+      const c = NASA9_N2_RANGES[2].coeffs;
+      const h = (T: number) => R * (-c[0] / T + c[1] * Math.log(T) + T * (c[2] + T * (c[3] / 2 + T * (c[4] / 3 + T * (c[5] / 4 + T * (c[6] / 5)))))) + R * c[7];
+      const s = (T: number) => R * (-c[0] / (2 * T * T) - c[1] / T + c[2] * Math.log(T) + T * (c[3] + T * (c[4] / 2 + T * (c[5] / 3 + T * (c[6] / 4)))) + c[8]);
+      for (const row of r.rows) {
+        if (row.tK <= 6000) continue;
+        expect(Math.abs(row.hkJ * 1000 - h(row.tK))).toBeLessThan(1e-6);
+        expect(Math.abs(row.sJ - s(row.tK))).toBeLessThan(1e-9);
+      }
+      // NIST-JANAF N2 (table N-023, Chase 1998; ../shared/reference/janaf-check-rows.json), Shomate-level tolerances.
+      const rows = speciesProperties(nasa9N2(), [298.15, 1000]).rows;
+      for (const j of janafRows().filter((x) => x.species === "N2")) {
+        const row = rows.find((x) => x.tK === j.T)!;
+        expect(Math.abs(row.cpJ - j.Cp)).toBeLessThan(0.05);
+        expect(Math.abs(row.sJ - j.S)).toBeLessThan(0.02);
+        expect(Math.abs(row.hkJ - j.HmH298)).toBeLessThan(0.005);
+      }
+    },
+    300_000,
   );
 
   it("a Cp that cannot be integrated within the work budget is refused as integration-budget, naming species and range", async () => {
