@@ -30,10 +30,17 @@ export interface ParsedFormula {
  * Element counts and molar mass of a formula such as `H2O`, `Ca(OH)2` or `CH3(CH2)2CH3`.
  * Counts may be decimal (`Fe0.947O`). Throws EngineRefusal `invalid-formula`.
  */
+/** Longest formula and deepest group nesting read (the group reader recurses). */
+export const MAX_FORMULA_CHARS = 200;
+export const MAX_FORMULA_DEPTH = 16;
+
 export function parseFormula(formula: string): ParsedFormula {
   const text = formula.trim();
   let pos = 0;
-  const fail = (why: string): never => refuse("invalid-formula", `formula "${formula}": ${why}`);
+  const shown = formula.length > 60 ? `${formula.slice(0, 60)}…` : formula;
+  const fail = (why: string): never => refuse("invalid-formula", `formula "${shown}": ${why}`);
+  if (text.length > MAX_FORMULA_CHARS) fail(`is ${text.length} characters long; at most ${MAX_FORMULA_CHARS} are allowed`);
+  let depth = 0;
 
   const readCount = (): number => {
     const m = /^(\d+(?:\.\d+)?|\.\d+)/.exec(text.slice(pos));
@@ -49,7 +56,9 @@ export function parseFormula(formula: string): ParsedFormula {
       const ch = text[pos];
       if (ch === "(" || ch === "[") {
         pos++;
+        if (++depth > MAX_FORMULA_DEPTH) fail(`groups nest more than ${MAX_FORMULA_DEPTH} deep`);
         const inner = readGroup(ch === "(" ? ")" : "]");
+        depth--;
         const n = readCount();
         for (const [el, c] of Object.entries(inner)) add(el, c * n);
       } else if (ch === ")" || ch === "]") {

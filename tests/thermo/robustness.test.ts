@@ -10,7 +10,7 @@ import fs from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import { describe, expect, it } from "vitest";
-import { EngineRefusal, evaluate, R, speciesProperties, type SpeciesInput } from "@/lib/thermo";
+import { EngineRefusal, evaluate, parseFormula, R, speciesProperties, type SpeciesInput } from "@/lib/thermo";
 import { quad } from "@/lib/thermo/integrate";
 import { toErrorResponse } from "@/lib/http";
 import { janafRows, repoRoot, speciesEntry } from "./reference-data";
@@ -150,6 +150,15 @@ describe("2 (and issue 10 item 3). the expression budget", () => {
     // A long left-assoc chain within the node budget is deep as a tree.
     const chain = refusal(() => evaluate(withExpression(Array(60).fill("1").join("+"))));
     expect(chain.message).toMatch(/nests \d+ levels deep; at most 48 are allowed$/);
+  });
+  it("a formula nested 20 000 groups deep is refused, not a stack overflow", () => {
+    const deep = `${"(".repeat(20000)}H${")".repeat(20000)}2`;
+    const sp: SpeciesInput = { segments: [{ phase: "g", form: "constant", tminK: 200, tmaxK: 1000, coeffs: { cpJ: 30 } }], reference: { tK: 298.15, phase: "g", hkJ: 0, sJ: 100 } };
+    const e = refusal(() => evaluate({ reaction: `${deep}(g) -> H2(g)`, species: { [`${deep}(g)`]: sp, "H2(g)": sp }, temperatures: { listK: [300] } }));
+    expect(e.code).toBe("invalid-formula");
+    expect(e.message).toBe(`formula "${"(".repeat(60)}…": is 40002 characters long; at most 200 are allowed`);
+    const nested = `${"(".repeat(17)}H${")".repeat(17)}2`;
+    expect(refusal(() => parseFormula(nested)).message).toBe(`formula "${nested}": groups nest more than 16 deep`);
   });
   it("the HTTP door maps the refusal to 422 with the error shape", async () => {
     const e = refusal(() => evaluate(withExpression(Array(3000).fill("1").join("+"))));
