@@ -74,6 +74,7 @@ describe("engineer → reviewer journey", () => {
     await shot(page, "case-results-draft");
 
     await page.getByRole("button", { name: "Submit for review" }).click();
+    await page.getByRole("dialog").getByRole("button", { name: "Submit", exact: true }).click();
     await page.getByTestId("snapshot-hash").waitFor();
     expect(await statusOf(page)).toBe("submitted");
     await signOut(page);
@@ -109,6 +110,7 @@ describe("engineer → reviewer journey", () => {
     await page.getByText("Say what needs to change (at least 5 characters).").waitFor();
     await page.getByLabel("Reason (required)").fill("Extend the span to 750 K to cover the bed-inlet excursion.");
     await page.getByRole("button", { name: "Return case" }).click();
+    await page.getByRole("dialog").getByRole("button", { name: "Return", exact: true }).click();
     await page.getByTestId("return-reason").waitFor();
     expect(await statusOf(page)).toBe("returned");
     await signOut(page);
@@ -125,6 +127,7 @@ describe("engineer → reviewer journey", () => {
     await page.waitForURL(new RegExp(`/cases/${caseId}$`));
     await page.getByTestId("input-temperatures").getByText("480 K to 750 K, step 5 K").waitFor();
     await page.getByRole("button", { name: "Resubmit for review" }).click();
+    await page.getByRole("dialog").getByRole("button", { name: "Resubmit", exact: true }).click();
     await page.getByTestId("results-source").getByText("Frozen snapshot · revision 2").waitFor();
     await page.getByRole("link", { name: "Revision 1", exact: true }).click();
     await page.getByTestId("results-source").getByText("Frozen snapshot · revision 1").waitFor();
@@ -141,6 +144,7 @@ describe("engineer → reviewer journey", () => {
     await page.getByRole("link", { name: "Back to the case" }).click();
     await page.getByLabel("Approve").check();
     await page.getByRole("button", { name: "Approve case" }).click();
+    await page.getByRole("dialog").getByRole("button", { name: "Approve", exact: true }).click();
     await page.waitForFunction(() => document.querySelector('[data-testid="case-status"]')?.getAttribute("data-status") === "approved");
     expect(await page.getByTestId("snapshots").locator("li").count()).toBe(2);
     await page.getByTestId("snapshot-hash").waitFor();
