@@ -363,7 +363,51 @@ export type SnapshotDiffDto = {
   signCase: [string, string];
   warnings: { added: string[]; removed: string[] };
   points: { common: number; maxAbsDGkJ: number; maxAbsLog10K: number; rows: { tK: number; fromDGkJ: number; toDGkJ: number; fromLog10K: number; toLog10K: number }[] };
+  equilibrium: EquilibriumDiff;
 };
+
+/**
+ * How the equilibrium results moved between two revisions: `lost` when the newer one has
+ * none (its feed was dropped), `added`, `changed` (a conversion or mole fraction moved), or
+ * `unchanged`; `none` when neither has one.
+ */
+export type EquilibriumDiff = {
+  status: "none" | "lost" | "added" | "changed" | "unchanged";
+  key: [string | null, string | null];
+  pressureBar: [number | null, number | null];
+  common: number;
+  maxAbsConversion: number;
+  maxAbsMoleFraction: number;
+  rows: { tK: number; fromConversion: number; toConversion: number }[];
+};
+
+function diffEquilibrium(a: EvaluateResult, b: EvaluateResult): EquilibriumDiff {
+  const ea = a.equilibrium ?? null;
+  const eb = b.equilibrium ?? null;
+  const key: [string | null, string | null] = [a.equilibriumInfo?.key ?? null, b.equilibriumInfo?.key ?? null];
+  const pressureBar: [number | null, number | null] = [a.equilibriumInfo?.pressureBar ?? null, b.equilibriumInfo?.pressureBar ?? null];
+  const base = { key, pressureBar, common: 0, maxAbsConversion: 0, maxAbsMoleFraction: 0, rows: [] };
+  if (!ea && !eb) return { status: "none", ...base };
+  if (ea && !eb) return { status: "lost", ...base };
+  if (!ea && eb) return { status: "added", ...base };
+  const byT = new Map(ea!.map((p) => [p.tK, p]));
+  const common = eb!.filter((p) => byT.has(p.tK));
+  let maxAbsConversion = 0;
+  let maxAbsMoleFraction = 0;
+  for (const p of common) {
+    const q = byT.get(p.tK)!;
+    maxAbsConversion = Math.max(maxAbsConversion, Math.abs(p.keyConversion - q.keyConversion));
+    for (const s of new Set([...Object.keys(p.moleFractions), ...Object.keys(q.moleFractions)])) {
+      maxAbsMoleFraction = Math.max(maxAbsMoleFraction, Math.abs((p.moleFractions[s] ?? 0) - (q.moleFractions[s] ?? 0)));
+    }
+  }
+  const stride = Math.max(1, Math.ceil(common.length / 25));
+  const rows = common
+    .filter((_, i) => i % stride === 0 || i === common.length - 1)
+    .map((p) => ({ tK: p.tK, fromConversion: byT.get(p.tK)!.keyConversion, toConversion: p.keyConversion }));
+  const same = maxAbsConversion === 0 && maxAbsMoleFraction === 0 && key[0] === key[1] && pressureBar[0] === pressureBar[1];
+  return { status: same ? "unchanged" : "changed", key, pressureBar, common: common.length, maxAbsConversion, maxAbsMoleFraction, rows };
+}
 
 function flatten(value: unknown, prefix = "", out: Map<string, unknown> = new Map()): Map<string, unknown> {
   if (value !== null && typeof value === "object") {
@@ -418,6 +462,7 @@ export function diffSnapshotContents(a: Pick<CaseSnapshot, "inputs" | "pins" | "
     signCase: [a.result.signCase.text, b.result.signCase.text] as [string, string],
     warnings: { added: [...wb].filter((w) => !wa.has(w)), removed: [...wa].filter((w) => !wb.has(w)) },
     points: { common: common.length, maxAbsDGkJ, maxAbsLog10K, rows },
+    equilibrium: diffEquilibrium(a.result, b.result),
   };
 }
 
