@@ -42,7 +42,7 @@ export function ConfirmDialog({
         e.preventDefault();
         onCancel();
       }}
-      className="w-[min(32rem,calc(100vw-2rem))] rounded-lg border border-ink-line bg-white p-0 text-ink shadow-card backdrop:bg-ink/40"
+      className="m-auto w-[min(32rem,calc(100vw-2rem))] rounded-lg border border-ink-line bg-white p-0 text-ink shadow-card backdrop:bg-ink/40"
       data-testid="confirm-dialog"
     >
       {open && (

@@ -423,7 +423,8 @@ export function diffSnapshotContents(a: Pick<CaseSnapshot, "inputs" | "pins" | "
   const fb = flatten(b.inputs);
   const inputs: ValueChange[] = [];
   for (const path of [...new Set([...fa.keys(), ...fb.keys()])].sort()) {
-    if (JSON.stringify(fa.get(path)) !== JSON.stringify(fb.get(path))) inputs.push({ path, from: fa.get(path) ?? null, to: fb.get(path) ?? null });
+    // Absent and null read the same ("—"): a dropped feed shows as its fields going, not as a null row.
+    if (JSON.stringify(fa.get(path) ?? null) !== JSON.stringify(fb.get(path) ?? null)) inputs.push({ path, from: fa.get(path) ?? null, to: fb.get(path) ?? null });
   }
   const keys = [...new Set([...a.pins.map((p) => p.key), ...b.pins.map((p) => p.key)])];
   const pins = keys

@@ -193,7 +193,7 @@ describe("the printed report is a sign-off record (item 10)", () => {
     expect(await record.getByTestId("sign-off-decision").textContent()).toBe("Approved");
     expect(await record.getByTestId("sign-off-at").textContent()).toMatch(/^\d{4}-\d{2}-\d{2} \d{2}:\d{2} UTC$/);
     expect(await record.getByTestId("sign-off-engine").textContent()).toMatch(/\S/);
-    expect(await record.textContent()).toMatch(/Revision 1, submitted by Erin Okafor/);
+    expect(await record.textContent()).toMatch(/Revision\s*1, submitted by Erin Okafor/);
     expect(await record.locator("code").textContent()).toMatch(/^[0-9a-f]{64}$/);
     const approvers = await page.getByTestId("pin-approver").allTextContents();
     expect(approvers.length).toBeGreaterThanOrEqual(4);
@@ -214,20 +214,20 @@ describe("the builder converts what was typed when the unit changes (item 2)", (
     await page.getByLabel("From (K)").fill("300");
     await page.getByLabel("To (K)").fill("1500");
     await page.getByLabel("Step (K)").fill("10");
-    await page.getByLabel("Temperature unit").selectOption("degC");
+    await page.getByLabel("Temperature unit", { exact: true }).selectOption("degC");
     expect(await page.getByLabel("From (°C)").inputValue()).toBe("26.85");
     expect(await page.getByLabel("To (°C)").inputValue()).toBe("1226.85");
     expect(await page.getByLabel("Step (°C)").inputValue()).toBe("10");
-    await page.getByLabel("Temperature unit").selectOption("degF");
+    await page.getByLabel("Temperature unit", { exact: true }).selectOption("degF");
     expect(await page.getByLabel("From (°F)").inputValue()).toBe("80.33");
     expect(await page.getByLabel("Step (°F)").inputValue()).toBe("18");
-    await page.getByLabel("Temperature unit").selectOption("K");
+    await page.getByLabel("Temperature unit", { exact: true }).selectOption("K");
     expect(await page.getByLabel("From (K)").inputValue()).toBe("300");
     expect(await page.getByLabel("To (K)").inputValue()).toBe("1500");
     expect(await page.getByLabel("Step (K)").inputValue()).toBe("10");
     await page.getByLabel("Reference temperature unit").selectOption("degC");
     expect(await page.getByLabel("Reference temperature", { exact: true }).inputValue()).toBe("25");
-    await page.getByLabel("Temperature unit").selectOption("degC");
+    await page.getByLabel("Temperature unit", { exact: true }).selectOption("degC");
     await shot(page, "trust-builder-unit-switch");
     await signOut(page);
   });
@@ -245,25 +245,30 @@ describe("the team page shows the stored role (item 3)", () => {
       await row.getByRole("button", { name: "Save role" }).click();
       await done;
       await row.getByText("Role saved.").waitFor();
+      // Let the transition that carries the answer finish rendering.
+      await row.locator("button:not([disabled])", { hasText: "Save role" }).waitFor();
+      await page.waitForTimeout(300);
     };
     expect(await select.inputValue()).toBe("steward");
-    await select.selectOption("reviewer");
-    await save();
-    expect(await select.inputValue()).toBe("reviewer");
-    await shot(page, "team-role-saved");
-    // Saving again keeps what is stored.
-    await save();
-    expect(await select.inputValue()).toBe("reviewer");
+    try {
+      await select.selectOption("reviewer");
+      await save();
+      expect(await select.inputValue()).toBe("reviewer");
+      await shot(page, "team-role-saved");
+      // Saving again keeps what is stored.
+      await save();
+      expect(await select.inputValue()).toBe("reviewer");
+      await page.reload();
+      expect(await select.inputValue()).toBe("reviewer");
+    } finally {
+      // Put Stella back for the other tests, whatever happened above.
+      await page.goto(`${baseURL()}/team`);
+      await select.selectOption("steward");
+      await save();
+    }
+    expect(await select.inputValue()).toBe("steward");
     await page.reload();
-    expect(await page.getByTestId("member-row").filter({ hasText: "stella.steward@example.test" }).getByLabel("Role of Stella Marsh").inputValue()).toBe("reviewer");
-    // Put Stella back for the other tests.
-    const again = page.getByTestId("member-row").filter({ hasText: "stella.steward@example.test" });
-    await again.getByLabel("Role of Stella Marsh").selectOption("steward");
-    const done = page.waitForResponse((r) => r.request().method() === "POST" && r.url().includes("/team"));
-    await again.getByRole("button", { name: "Save role" }).click();
-    await done;
-    await again.getByText("Role saved.").waitFor();
-    expect(await again.getByLabel("Role of Stella Marsh").inputValue()).toBe("steward");
+    expect(await select.inputValue()).toBe("steward");
     await shot(page, "team");
     await signOut(page);
   });
@@ -298,11 +303,11 @@ describe("phase is chosen, never a silent cr (item 4), and library work can be t
     await page.goto(`${baseURL()}/library`);
     await page.getByRole("link", { name: "Datasets" }).click();
     const row = page.getByTestId("dataset-list").locator("tr", { hasText: "N2 Cp check (synthetic)" });
-    expect(await row.textContent()).toContain("g");
+    expect(await row.textContent()).toContain("gas (g)");
     await row.getByRole("link").click();
     await page.getByRole("heading", { level: 1, name: "N2 Cp check (synthetic)" }).waitFor();
     expect(await page.getByTestId("dataset-points").locator("tbody tr").count()).toBe(6);
-    expect(await page.getByTestId("dataset-record").textContent()).toContain("Phase measuredg");
+    expect(await page.getByTestId("dataset-record").textContent()).toContain("Phase measuredgas (g)");
     await page.getByTestId("dataset-chart").locator("svg").first().waitFor();
     await shot(page, "library-dataset");
   });

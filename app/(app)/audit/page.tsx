@@ -25,16 +25,32 @@ function recordHref(e: AuditEventDto): string | null {
   return null;
 }
 
-/** A compact before → after, so a reader sees what moved without opening the JSON. */
-function change(e: AuditEventDto): string {
-  const short = (v: unknown) => {
-    if (v === null || v === undefined) return "";
-    const text = JSON.stringify(v);
-    return text.length > 160 ? `${text.slice(0, 157)}…` : text;
-  };
-  const b = short(e.before);
-  const a = short(e.after);
-  return b && a ? `${b} → ${a}` : a || b || "—";
+function flat(value: unknown, prefix = "", out = new Map<string, unknown>()): Map<string, unknown> {
+  if (value !== null && typeof value === "object" && !Array.isArray(value)) {
+    for (const [k, v] of Object.entries(value)) flat(v, prefix ? `${prefix}.${k}` : k, out);
+  } else out.set(prefix, value);
+  return out;
+}
+
+const short = (v: unknown, max = 80) => {
+  if (v === null || v === undefined) return "—";
+  const text = typeof v === "string" ? v : JSON.stringify(v);
+  return text.length > max ? `${text.slice(0, max - 1)}…` : text;
+};
+
+/** What moved, field by field (`inputs.temperatures.stepK: 5 → 10`), so a reader need not open the JSON. */
+function change(e: AuditEventDto): string[] {
+  const before = e.before && typeof e.before === "object" ? flat(e.before) : null;
+  const after = e.after && typeof e.after === "object" ? flat(e.after) : null;
+  if (before && after) {
+    const paths = [...new Set([...before.keys(), ...after.keys()])].filter((p) => JSON.stringify(before.get(p) ?? null) !== JSON.stringify(after.get(p) ?? null));
+    const lines = paths.slice(0, 6).map((p) => `${p}: ${short(before.get(p))} → ${short(after.get(p))}`);
+    if (paths.length > 6) lines.push(`… and ${paths.length - 6} more`);
+    return lines.length ? lines : ["no field changed"];
+  }
+  const one = after ?? before;
+  if (one) return [...one].slice(0, 6).map(([p, v]) => `${p}: ${short(v)}`);
+  return ["—"];
 }
 
 export default async function AuditPage({ searchParams }: { searchParams: Search }) {
@@ -113,7 +129,9 @@ export default async function AuditPage({ searchParams }: { searchParams: Search
                           only this
                         </Link>
                       </td>
-                      <td className="max-w-md break-all py-1.5 font-mono text-xs text-ink-soft">{change(e)}</td>
+                      <td className="max-w-md break-all py-1.5 font-mono text-xs text-ink-soft">
+                        {change(e).map((line, i) => <span key={i} className="block">{line}</span>)}
+                      </td>
                     </tr>
                   );
                 })}

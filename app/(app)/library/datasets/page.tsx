@@ -6,6 +6,9 @@ import { requireUser } from "@/lib/auth/guards";
 import { getActor } from "@/lib/auth/session";
 import { listDatasets } from "@/lib/services/datasets";
 
+const PHASE: Record<string, string> = { g: "gas (g)", l: "liquid (l)", cr: "solid (cr)" };
+const phaseText = (p: string) => PHASE[p] ?? p;
+
 export const metadata = { title: "Datasets" };
 
 const kelvin = (x: number) => Number(x.toFixed(2)).toString();
@@ -42,7 +45,7 @@ export default async function DatasetsPage() {
                   <tr key={d.id}>
                     <td className="py-1.5 pr-3"><Link className="font-medium underline" href={`/library/datasets/${d.id}`}>{d.name}</Link></td>
                     <td className="py-1.5 pr-3">{d.species ? `${d.species.formula} · ${d.species.displayName}` : "—"}</td>
-                    <td className="py-1.5 pr-3">{d.phase ?? <span className="text-ink-muted">not stated</span>}</td>
+                    <td className="py-1.5 pr-3">{d.phase ? phaseText(d.phase) : <span className="text-ink-muted">not stated</span>}</td>
                     <td className="py-1.5 pr-3 text-right tabular">{d.pointCount}</td>
                     <td className="whitespace-nowrap py-1.5 pr-3 tabular">{d.rangeK ? `${kelvin(d.rangeK[0])}–${kelvin(d.rangeK[1])}` : "—"}</td>
                     <td className="whitespace-nowrap py-1.5 pr-3 text-xs text-ink-muted">{d.createdAt.slice(0, 10)}{d.uploadedByName ? ` · ${d.uploadedByName}` : ""}</td>

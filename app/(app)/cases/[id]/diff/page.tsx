@@ -79,42 +79,6 @@ export default async function DiffPage({ params, searchParams }: Props) {
               </ul>
             )}
           </Card>
-          <Card title="Results">
-            <dl className="grid gap-3 text-sm sm:grid-cols-2">
-              <div><dt className="text-xs text-ink-muted">Sign case</dt><dd>{diff.signCase[0]} → {diff.signCase[1]}</dd></div>
-              <div>
-                <dt className="text-xs text-ink-muted">Crossovers</dt>
-                <dd>
-                  naive {kelvin(diff.crossover.naiveK[0])} → {kelvin(diff.crossover.naiveK[1])}; corrected {diff.crossover.correctedK[0].map(kelvin).join(", ") || "none"} → {diff.crossover.correctedK[1].map(kelvin).join(", ") || "none"}
-                </dd>
-              </div>
-              <div>
-                <dt className="text-xs text-ink-muted">At the {diff.points.common} temperatures both share</dt>
-                <dd>largest change in ΔrG {fixed(diff.points.maxAbsDGkJ, 4)} kJ/mol, in log10 K {fixed(diff.points.maxAbsLog10K, 5)}</dd>
-              </div>
-              <div>
-                <dt className="text-xs text-ink-muted">Warnings</dt>
-                <dd>
-                  {diff.warnings.added.length === 0 && diff.warnings.removed.length === 0 ? "unchanged" : null}
-                  {diff.warnings.added.map((w) => <span key={w} className="block text-flag-700" data-testid="warning-added">+ new: {w}</span>)}
-                  {/* A warning that went away is news, not a verdict: the cause may have left with an input. */}
-                  {diff.warnings.removed.map((w) => <span key={w} className="block text-ink-soft" data-testid="warning-removed">− no longer raised: {w}</span>)}
-                </dd>
-              </div>
-            </dl>
-            {diff.points.rows.length > 0 && (
-              <table className="mt-3 min-w-full text-xs">
-                <thead className="text-right text-ink-muted">
-                  <tr><th className="py-1 pr-2 font-medium">T (K)</th><th className="py-1 pr-2 font-medium">ΔrG r{diff.from.revision} (kJ/mol)</th><th className="py-1 pr-2 font-medium">ΔrG r{diff.to.revision} (kJ/mol)</th><th className="py-1 pr-2 font-medium">log10 K r{diff.from.revision}</th><th className="py-1 font-medium">log10 K r{diff.to.revision}</th></tr>
-                </thead>
-                <tbody className="text-right tabular">
-                  {diff.points.rows.map((p) => (
-                    <tr key={p.tK}><td className="pr-2">{fixed(p.tK, 2)}</td><td className="pr-2">{fixed(p.fromDGkJ, 3)}</td><td className="pr-2">{fixed(p.toDGkJ, 3)}</td><td className="pr-2">{fixed(p.fromLog10K, 4)}</td><td>{fixed(p.toLog10K, 4)}</td></tr>
-                  ))}
-                </tbody>
-              </table>
-            )}
-          </Card>
           {diff.equilibrium.status !== "none" && (
             <Card title="Equilibrium results">
               <div data-testid="diff-equilibrium" data-status={diff.equilibrium.status}>
@@ -151,6 +115,42 @@ export default async function DiffPage({ params, searchParams }: Props) {
               </div>
             </Card>
           )}
+          <Card title="Results">
+            <dl className="grid gap-3 text-sm sm:grid-cols-2">
+              <div><dt className="text-xs text-ink-muted">Sign case</dt><dd>{diff.signCase[0]} → {diff.signCase[1]}</dd></div>
+              <div>
+                <dt className="text-xs text-ink-muted">Crossovers</dt>
+                <dd>
+                  naive {kelvin(diff.crossover.naiveK[0])} → {kelvin(diff.crossover.naiveK[1])}; corrected {diff.crossover.correctedK[0].map(kelvin).join(", ") || "none"} → {diff.crossover.correctedK[1].map(kelvin).join(", ") || "none"}
+                </dd>
+              </div>
+              <div>
+                <dt className="text-xs text-ink-muted">At the {diff.points.common} temperatures both share</dt>
+                <dd>largest change in ΔrG {fixed(diff.points.maxAbsDGkJ, 4)} kJ/mol, in log10 K {fixed(diff.points.maxAbsLog10K, 5)}</dd>
+              </div>
+              <div>
+                <dt className="text-xs text-ink-muted">Warnings</dt>
+                <dd>
+                  {diff.warnings.added.length === 0 && diff.warnings.removed.length === 0 ? "unchanged" : null}
+                  {diff.warnings.added.map((w) => <span key={w} className="block text-flag-700" data-testid="warning-added">+ new: {w}</span>)}
+                  {/* A warning that went away is news, not a verdict: the cause may have left with an input. */}
+                  {diff.warnings.removed.map((w) => <span key={w} className="block text-ink-soft" data-testid="warning-removed">− no longer raised: {w}</span>)}
+                </dd>
+              </div>
+            </dl>
+            {diff.points.rows.length > 0 && (
+              <table className="mt-3 min-w-full text-xs">
+                <thead className="text-right text-ink-muted">
+                  <tr><th className="py-1 pr-2 font-medium">T (K)</th><th className="py-1 pr-2 font-medium">ΔrG r{diff.from.revision} (kJ/mol)</th><th className="py-1 pr-2 font-medium">ΔrG r{diff.to.revision} (kJ/mol)</th><th className="py-1 pr-2 font-medium">log10 K r{diff.from.revision}</th><th className="py-1 font-medium">log10 K r{diff.to.revision}</th></tr>
+                </thead>
+                <tbody className="text-right tabular">
+                  {diff.points.rows.map((p) => (
+                    <tr key={p.tK}><td className="pr-2">{fixed(p.tK, 2)}</td><td className="pr-2">{fixed(p.fromDGkJ, 3)}</td><td className="pr-2">{fixed(p.toDGkJ, 3)}</td><td className="pr-2">{fixed(p.fromLog10K, 4)}</td><td>{fixed(p.toLog10K, 4)}</td></tr>
+                  ))}
+                </tbody>
+              </table>
+            )}
+          </Card>
         </div>
       )}
     </>

@@ -9,6 +9,9 @@ import { orNotFound } from "@/lib/pages";
 import { datasetVersions, getDataset } from "@/lib/services/datasets";
 import { CP_UNIT_LABELS, T_UNIT_LABELS } from "@/lib/validation/library";
 
+const PHASE: Record<string, string> = { g: "gas (g)", l: "liquid (l)", cr: "solid (cr)" };
+const phaseText = (p: string) => PHASE[p] ?? p;
+
 export const metadata = { title: "Dataset" };
 
 const unitLabel = (labels: Record<string, string>, u: string) => labels[u] ?? u;
@@ -47,7 +50,7 @@ export default async function DatasetPage({ params }: { params: Promise<{ id: st
         <div className="space-y-6">
           <Card title="Record">
             <dl className="space-y-1 text-sm" data-testid="dataset-record">
-              <div className="flex justify-between gap-2"><dt className="text-ink-muted">Phase measured</dt><dd>{d.phase ?? "not stated"}</dd></div>
+              <div className="flex justify-between gap-2"><dt className="text-ink-muted">Phase measured</dt><dd>{d.phase ? phaseText(d.phase) : "not stated"}</dd></div>
               <div className="flex justify-between gap-2"><dt className="text-ink-muted">Range</dt><dd className="tabular">{d.rangeK ? `${d.rangeK[0]}–${d.rangeK[1]} K` : "—"}</dd></div>
               <div className="flex justify-between gap-2"><dt className="text-ink-muted">Units as uploaded</dt><dd>T in {unitLabel(T_UNIT_LABELS, d.tUnit)}, Cp in {unitLabel(CP_UNIT_LABELS, d.cpUnit)}</dd></div>
               <div className="flex justify-between gap-2"><dt className="text-ink-muted">File</dt><dd className="break-all text-right">{d.originalFilename ?? "pasted"} · {(d.sizeBytes / 1024).toFixed(1)} KiB</dd></div>
