@@ -207,8 +207,8 @@ export function VersionEditor({ existing, species, modelId }: { existing?: Exist
                     value={s.phase}
                     onChange={(p) => {
                       update(i, { phase: p });
-                      // The anchor usually sits in the first segment's phase; fill it if it is still open.
-                      if (i === 0 && !reference.phase) setReference({ ...reference, phase: p });
+                      // The anchor usually sits in the first segment's phase: it follows it unless set apart.
+                      if (i === 0 && (!reference.phase || reference.phase === s.phase)) setReference({ ...reference, phase: p });
                     }}
                     known={known}
                     label={`Segment ${i + 1} phase`}

@@ -240,11 +240,11 @@ describe("the team page shows the stored role (item 3)", () => {
     await page.goto(`${baseURL()}/team`);
     const row = page.getByTestId("member-row").filter({ hasText: "stella.steward@example.test" });
     const select = row.getByLabel("Role of Stella Marsh");
-    const save = async () => {
+    const save = async (label: string) => {
       const done = page.waitForResponse((r) => r.request().method() === "POST" && r.url().includes("/team"));
       await row.getByRole("button", { name: "Save role" }).click();
       await done;
-      await row.getByText("Role saved.").waitFor();
+      await row.getByText(`Role saved: ${label}.`).waitFor();
       // Let the transition that carries the answer finish rendering.
       await row.locator("button:not([disabled])", { hasText: "Save role" }).waitFor();
       await page.waitForTimeout(300);
@@ -252,11 +252,11 @@ describe("the team page shows the stored role (item 3)", () => {
     expect(await select.inputValue()).toBe("steward");
     try {
       await select.selectOption("reviewer");
-      await save();
+      await save("Reviewer");
       expect(await select.inputValue()).toBe("reviewer");
       await shot(page, "team-role-saved");
       // Saving again keeps what is stored.
-      await save();
+      await save("Reviewer");
       expect(await select.inputValue()).toBe("reviewer");
       await page.reload();
       expect(await select.inputValue()).toBe("reviewer");
@@ -264,7 +264,7 @@ describe("the team page shows the stored role (item 3)", () => {
       // Put Stella back for the other tests, whatever happened above.
       await page.goto(`${baseURL()}/team`);
       await select.selectOption("steward");
-      await save();
+      await save("Steward");
     }
     expect(await select.inputValue()).toBe("steward");
     await page.reload();
