@@ -8,6 +8,7 @@ import { AppError, conflict, notFound } from "@/lib/errors";
 import type { DecisionInput } from "@/lib/validation/cases";
 import { recordAudit } from "./audit";
 import { caseReaction, getCase, listCases, type CaseDto, type CaseSummaryDto } from "./cases";
+import { contributedVersionIds } from "./library";
 import { enqueueMail } from "./mail";
 
 export type ReviewDto = { id: number; revision: number; decision: "approved" | "returned"; reason: string | null; reviewerName: string; at: string };
@@ -136,9 +137,9 @@ export async function homeCounts(actor: Actor | null) {
   let proposals = 0;
   let proposalItems: ProposalSummaryDto[] = [];
   if (can(me.role, "models.decide")) {
-    // Colleagues' proposals only: nobody approves their own (four-eyes).
+    // Colleagues' proposals only: nobody decides work they contributed to (four-eyes).
     const rows = await models().ModelVersion.findAll({
-      where: { teamId: me.teamId, status: "proposed", [Op.or]: [{ authorId: null }, { authorId: { [Op.ne]: me.userId } }] },
+      where: { teamId: me.teamId, status: "proposed", id: { [Op.notIn]: await contributedVersionIds(me.userId) }, [Op.or]: [{ authorId: null }, { authorId: { [Op.ne]: me.userId } }] },
       include: [{ model: models().CpModel, as: "model", include: [{ model: models().Species, as: "species" }] }],
       order: [["proposedAt", "ASC"], ["id", "ASC"]],
     });

@@ -22,7 +22,7 @@ beforeAll(async () => {
 afterAll(() => closeDb());
 
 // Synthetic, invented for this test.
-const equilibrium = { feed: { "CO(g)": 1, "H2O(g)": 3 }, feedUnit: "kmol/h", pressure: "30 bar", key: "CO(g)", reactions: [], extraTerms: [] };
+const equilibrium = { feed: { "CO(g)": 1, "H2O(g)": 3 }, feedUnit: "kmol/h", pressure: "30 bar", key: "CO(g)", reactions: [], extraTerms: [], inert: [] };
 
 async function patch(id: number, body: unknown) {
   const response = await caseRoute.PATCH(jsonRequest("PATCH", `/api/v1/cases/${id}`, body), ctx({ id: String(id) }) as { params: Promise<{ id: string }> });
