@@ -403,14 +403,24 @@ describe("the audit trail on screen, and proposals from Home (item 13)", () => {
 
   it("Home links a steward straight to a colleague's proposal", async () => {
     const { page } = b;
+    // Sam proposes a model of his own (synthetic, invented for this test), so the list does not hang on demo data.
+    await signIn(page, "sam.steward@example.test");
+    const species = (await (await page.request.get(`${baseURL()}/api/v1/species?q=N2`)).json()) as { items: { id: number; formula: string }[] };
+    const n2 = species.items.find((x) => x.formula === "N2")!;
+    const data = { segments: [{ phase: "g", form: "constant", tminK: 298.15, tmaxK: 1000, coeffs: { cpJ: 29.1 } }], reference: { tK: 298.15, phase: "g", hkJ: 0, sJ: 191.6 } };
+    const created = await page.request.post(`${baseURL()}/api/v1/models`, { data: { speciesId: n2.id, name: "N2 home-link check (synthetic)", version: { data, citation: "Synthetic, invented for this test" } } });
+    expect(created.status()).toBe(201);
+    const versionId = ((await created.json()) as { version: { id: number } }).version.id;
+    expect((await page.request.post(`${baseURL()}/api/v1/versions/${versionId}/propose`)).status()).toBe(200);
+    await signOut(page);
+
     await signIn(page, "stella.steward@example.test");
     const list = page.getByTestId("home-proposal-list");
     await list.waitFor();
-    const link = list.getByRole("link").first();
-    const text = (await link.textContent())!;
+    const link = list.getByRole("link", { name: /^N2 home-link check \(synthetic\) · v1$/ });
     await link.click();
-    await page.waitForURL(/\/library\/versions\/\d+$/);
-    expect(await page.getByRole("heading", { level: 1 }).textContent()).toContain(text.split(" · v")[0]);
+    await page.waitForURL(new RegExp(`/library/versions/${versionId}$`));
+    expect(await page.getByRole("heading", { level: 1 }).textContent()).toContain("N2 home-link check (synthetic)");
     expect(await page.getByTestId("version-status").first().getAttribute("data-status")).toBe("proposed");
     await page.getByRole("button", { name: "Approve" }).waitFor();
     await shot(page, "home-proposal-opened");
