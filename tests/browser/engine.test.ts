@@ -9,7 +9,7 @@ import type { ChildProcess } from "node:child_process";
 import sqlite3 from "sqlite3";
 import { afterAll, describe, expect, it } from "vitest";
 import { DEMO_PASSWORD } from "@/seeders/demo-accounts";
-import { expressionRequest, smallRequest } from "../helpers/heavy";
+import { heavyRequest, smallRequest } from "../helpers/heavy";
 import { baseURL } from "./browser";
 import { prepareDatabase, startServer, stopServer } from "./server";
 
@@ -29,7 +29,7 @@ describe("engine pool on the running server", () => {
     const cookie = await signIn(baseURL());
     expect((await evaluate(baseURL(), cookie, smallRequest())).status).toBe(200);
     let heavyDone = false;
-    const heavy = evaluate(baseURL(), cookie, expressionRequest(30, 100_000)).then(async (r) => {
+    const heavy = evaluate(baseURL(), cookie, heavyRequest()).then(async (r) => {
       heavyDone = true;
       await r.arrayBuffer();
       return r.status;
@@ -47,7 +47,7 @@ describe("engine pool on the running server", () => {
   });
 });
 
-describe("a server of its own (one worker, one queue place, 4 s budget, no APP_URL, 6 sign-in attempts per address)", () => {
+describe("a server of its own (one worker, one queue place, 1 s budget, no APP_URL, 6 sign-in attempts per address)", () => {
   let server: ChildProcess | undefined;
   let dir: string | undefined;
   let base = "";
@@ -58,7 +58,7 @@ describe("a server of its own (one worker, one queue place, 4 s budget, no APP_U
   });
 
   it("refuses a computation over ENGINE_TIME_LIMIT_MS with 503 engine-time-limit, a full queue with 429, and serves the next request", async () => {
-    const prepared = await prepareDatabase({ ENGINE_THREADS: "1", ENGINE_QUEUE_LIMIT: "1", ENGINE_TIME_LIMIT_MS: "4000", SIGNIN_LIMIT_PER_ADDRESS: "6" });
+    const prepared = await prepareDatabase({ ENGINE_THREADS: "1", ENGINE_QUEUE_LIMIT: "1", ENGINE_TIME_LIMIT_MS: "1000", SIGNIN_LIMIT_PER_ADDRESS: "6" });
     dir = prepared.dir;
     databasePath = prepared.databasePath;
     delete prepared.env.APP_URL;
@@ -67,10 +67,10 @@ describe("a server of its own (one worker, one queue place, 4 s budget, no APP_U
     const cookie = await signIn(base);
     expect((await evaluate(base, cookie, smallRequest())).status).toBe(200);
 
-    const heavy = evaluate(base, cookie, expressionRequest(60, 100_000));
-    await sleep(800); // running on the one worker
+    const heavy = evaluate(base, cookie, heavyRequest());
+    await sleep(300); // running on the one worker
     const queued = evaluate(base, cookie, smallRequest()); // waits in the one queue place
-    await sleep(200);
+    await sleep(100);
     const refused = await evaluate(base, cookie, smallRequest());
     expect(refused.status).toBe(429);
     expect(refused.headers.get("retry-after")).toBe("5");
@@ -81,8 +81,8 @@ describe("a server of its own (one worker, one queue place, 4 s budget, no APP_U
     expect(await over.json()).toEqual({
       error: {
         code: "engine-time-limit",
-        message: "The computation did not finish within 4 s and was stopped. Ask for fewer temperatures or a simpler Cp expression, or try again when the server is less busy.",
-        details: { timeLimitMs: 4000 },
+        message: "The computation did not finish within 1 s and was stopped. Ask for fewer temperatures or a simpler Cp expression, or try again when the server is less busy.",
+        details: { timeLimitMs: 1000 },
       },
     });
     // The queued one waited (the wait is not counted in its budget) and is computed on the new worker.

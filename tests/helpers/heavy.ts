@@ -16,5 +16,11 @@ export function expressionRequest(terms: number, points: number) {
   };
 }
 
+/**
+ * Heavy but allowed by the engine's budgets (docs/engine.md: nesting, integration work): an
+ * expression of 40 terms on 10 000 temperatures, seconds of engine work.
+ */
+export const heavyRequest = () => expressionRequest(40, 10_000);
+
 /** A small, quick request of the same shape. */
 export const smallRequest = () => expressionRequest(1, 20);

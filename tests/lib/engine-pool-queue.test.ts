@@ -11,14 +11,14 @@ vi.hoisted(() => {
 
 const { closeEnginePool, runEngine } = await import("@/lib/engine-pool");
 const { toErrorResponse } = await import("@/lib/http");
-const { expressionRequest, smallRequest } = await import("../helpers/heavy");
+const { heavyRequest, smallRequest } = await import("../helpers/heavy");
 
 afterAll(() => closeEnginePool());
 
 describe("engine pool queue", () => {
   it("refuses a job beyond ENGINE_QUEUE_LIMIT with 429 and Retry-After", async () => {
     await runEngine(smallRequest()); // the one worker is up
-    const heavy = runEngine(expressionRequest(30, 100_000), { timeoutMs: 5_000 }).catch((e: unknown) => e);
+    const heavy = runEngine(heavyRequest(), { timeoutMs: 1_500 }).catch((e: unknown) => e);
     // Its budget (1 s) is shorter than its wait behind the heavy job: waiting is not counted.
     const queued = runEngine(smallRequest(), { timeoutMs: 1_000 });
     const refused = await runEngine(smallRequest()).catch((e: unknown) => e);

@@ -7,12 +7,12 @@ import { afterAll, describe, expect, it } from "vitest";
 import { AppError } from "@/lib/errors";
 import { closeEnginePool, enginePool, runEngine, runEngineTask } from "@/lib/engine-pool";
 import { evaluate, EngineRefusal } from "@/lib/thermo";
-import { expressionRequest, smallRequest } from "../helpers/heavy";
+import { heavyRequest, smallRequest } from "../helpers/heavy";
 
 // ENGINE_THREADS and ENGINE_QUEUE_LIMIT keep their defaults here (2 and 32); the queue test sets its own pool below.
 afterAll(() => closeEnginePool());
 
-const heavy = () => expressionRequest(30, 100_000);
+const heavy = () => heavyRequest();
 
 async function refusalOf(p: Promise<unknown>): Promise<unknown> {
   try {
