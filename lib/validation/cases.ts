@@ -1,5 +1,6 @@
 /** Case, review and comment shapes, shared by the builder form, the route handlers and the services. zod only. */
 import { z } from "zod";
+import { strictObject } from "@/lib/validation/strict";
 import { elementBalance, termKey } from "@/lib/cases/balance";
 import { splitQuantity, toKelvin, toKelvinDifference, type Quantity } from "@/lib/cases/temperature";
 import { caseEquilibriumSchema, feedKeyIssues } from "./equilibrium";
@@ -17,7 +18,7 @@ const quantity = z.union([z.number({ error: "Enter a number." }), z.string().tri
   error: "Enter a temperature.",
 }).refine((q) => splitQuantity(q as Quantity) !== null, { error: "Use a number with K, degC or degF." });
 
-export const termSchema = z.object({
+export const termSchema = strictObject({
   formula: z.string({ error: "Pick a species." }).trim().min(1, "Pick a species.").max(60, "Use at most 60 characters."),
   phase: z
     .string()
@@ -31,13 +32,12 @@ export const termSchema = z.object({
 });
 export type CaseTerm = z.infer<typeof termSchema>;
 
-const spanSchema = z.object({ fromK: quantity, toK: quantity, stepK: quantity });
-const listSchema = z.object({ listK: z.array(quantity).min(1, "Enter at least one temperature.").max(MAX_CASE_POINTS, `Use at most ${MAX_CASE_POINTS} temperatures.`) });
+const spanSchema = strictObject({ fromK: quantity, toK: quantity, stepK: quantity });
+const listSchema = strictObject({ listK: z.array(quantity).min(1, "Enter at least one temperature.").max(MAX_CASE_POINTS, `Use at most ${MAX_CASE_POINTS} temperatures.`) });
 export const caseTemperaturesSchema = z.union([spanSchema, listSchema], { error: "Give a span (from, to, step) or a list of temperatures." });
 export type CaseTemperatures = z.infer<typeof caseTemperaturesSchema>;
 
-export const caseInputSchema = z
-  .object({
+export const caseInputSchema = strictObject({
     title: oneLine(z.string({ error: "Give the case a title." }).trim().min(1, "Give the case a title.").max(160, "Use at most 160 characters.")),
     notes: z.string().trim().max(5000, "Use at most 5000 characters.").default(""),
     terms: z.array(termSchema).min(2, "A reaction needs at least two species.").max(20, "Use at most 20 species."),
@@ -88,18 +88,17 @@ export type CaseInput = z.infer<typeof caseInputSchema>;
 /** What a case stores as its inputs (title and notes live on the case row). */
 export type CaseInputs = Omit<CaseInput, "title" | "notes">;
 
-export const lockSchema = z.object({ lockVersion: z.number({ error: "Send the lockVersion you loaded." }).int().min(0) });
+export const lockSchema = strictObject({ lockVersion: z.number({ error: "Send the lockVersion you loaded." }).int().min(0) });
 
 export const caseUpdateSchema = z.intersection(caseInputSchema, lockSchema);
 export type CaseUpdate = z.infer<typeof caseUpdateSchema>;
 
-export const caseListQuerySchema = z.object({
+export const caseListQuerySchema = strictObject({
   status: z.enum(CASE_STATUSES, { error: "Use a status of draft, submitted, approved or returned." }).optional(),
   mine: z.enum(["1", "0"]).optional(),
 });
 
-export const decisionSchema = z
-  .object({
+export const decisionSchema = strictObject({
     decision: z.enum(DECISIONS, { error: "Decide approved or returned." }),
     reason: z.string().trim().max(2000, "Use at most 2000 characters.").default(""),
     /** The revision the reviewer looked at; a newer submission makes the decision stale. */
@@ -112,7 +111,7 @@ export const decisionSchema = z
   });
 export type DecisionInput = z.infer<typeof decisionSchema>;
 
-export const commentSchema = z.object({
+export const commentSchema = strictObject({
   body: z.string({ error: "Write a comment." }).trim().min(1, "Write a comment.").max(4000, "Use at most 4000 characters."),
   revision: z.number().int().positive().optional(),
 });
@@ -120,6 +119,6 @@ export type CommentInput = z.infer<typeof commentSchema>;
 
 export const revisionParamSchema = z.coerce.number({ error: "Expected a revision number." }).int().positive("Expected a revision number.");
 /** Without from/to: the last two revisions. */
-export const diffQuerySchema = z.object({ from: revisionParamSchema.optional(), to: revisionParamSchema.optional() });
-export const exportQuerySchema = z.object({ revision: revisionParamSchema.optional() });
-export const pinQuerySchema = z.object({ formula: searchText(60).pipe(z.string().min(1)).optional() });
+export const diffQuerySchema = strictObject({ from: revisionParamSchema.optional(), to: revisionParamSchema.optional() });
+export const exportQuerySchema = strictObject({ revision: revisionParamSchema.optional() });
+export const pinQuerySchema = strictObject({ formula: searchText(60).pipe(z.string().min(1)).optional() });
