@@ -35,11 +35,12 @@ function misspell(key: string): string {
 }
 
 /** Write rows that send no body: their handlers read none (the id is in the path). */
-const NO_BODY = new Set(["propose", "copy reference", "member remove", "revoke invitation", "sign out"]);
+const NO_BODY = new Set(["propose", "withdraw", "copy reference", "version delete", "member remove", "revoke invitation", "sign out"]);
 /** Rows whose valid body has no body in the matrix but whose handler reads an optional one: given here. */
 const OPTIONAL_BODY: Record<string, { body: Record<string, unknown>; field: string }> = { approve: { body: { note: "Checked against the data sheet." }, field: "note" } };
 /** Rows whose body is an evaluate request, checked by the engine's own (strict) schema (lib/thermo/schema.ts). */
-const ENGINE_BODY = new Set(["evaluate", "equilibrium sources"]);
+const ENGINE_FILES = new Set(["evaluate", "equilibrium/sources"]);
+const engineBody = (row: Row) => ENGINE_FILES.has(row.file);
 /**
  * The engine's request schema is made strict on its own branch; until that lands these two rows
  * are skipped (not passed): the probe turns them on by itself once the engine refuses unknown fields.
@@ -47,8 +48,8 @@ const ENGINE_BODY = new Set(["evaluate", "equilibrium sources"]);
 const probe = evaluateRequestSchema.safeParse({ reaction: "H2(g) -> H2(g)", species: {}, temperatures: { listK: [300] }, zzUnknown: 1 });
 const ENGINE_STRICT = !probe.success && probe.error.issues.some((i) => i.code === "unrecognized_keys");
 
-/** GET routes that read a query string, with a misspelt parameter and the name it should suggest. */
-const QUERY_TYPOS: Record<string, { query: string; typo: string; meant: string }> = {
+/** Routes that read a query string (GET unless said), with a misspelt parameter and the name it should suggest. */
+const QUERY_TYPOS: Record<string, { query: string; typo: string; meant: string; method?: Row["method"] }> = {
   cases: { query: "statsu=draft", typo: "statsu", meant: "status" },
   "cases/[id]/export": { query: "revison=1", typo: "revison", meant: "revision" },
   "cases/[id]/results": { query: "revison=1", typo: "revison", meant: "revision" },
@@ -58,6 +59,9 @@ const QUERY_TYPOS: Record<string, { query: string; typo: string; meant: string }
   species: { query: "pgaeSize=5", typo: "pgaeSize", meant: "pageSize" },
   "versions/[id]/curve": { query: "fromk=300", typo: "fromk", meant: "fromK" },
   "library/export": { query: "model=1", typo: "model", meant: "models" },
+  audit: { query: "entityTpye=case", typo: "entityTpye", meant: "entityType" },
+  health: { query: "depe=1", typo: "depe", meant: "deep" },
+  evaluate: { query: "fromat=columns", typo: "fromat", meant: "format", method: "POST" },
 };
 
 const routeSource = (file: string) => fs.readFileSync(path.resolve("app/api/v1", file, "route.ts"), "utf8");
@@ -75,7 +79,8 @@ const isPlainObject = (v: unknown): v is Record<string, unknown> => typeof v ===
 async function refusedUnchanged(row: Row, prepared: { params?: Record<string, string>; headers?: Record<string, string> }, body: unknown, typo: string, meant: string | null, query = "") {
   await signInAs(callerOf(row.expect));
   const before = await databaseChecksum();
-  const response = await row.handler(jsonRequest(row.method, `/api/v1/${row.file}${query ? `?${query}` : ""}`, body, prepared.headers), ctx(prepared.params ?? {}));
+  const search = [row.query, query].filter(Boolean).join("&");
+  const response = await row.handler(jsonRequest(row.method, `/api/v1/${row.file}${search ? `?${search}` : ""}`, body, prepared.headers), ctx(prepared.params ?? {}));
   const out = (await bodyOf(response)) as { error?: { code: string; message: string; details?: { fields?: Record<string, string> } } };
   expect(response.status, JSON.stringify(out)).toBe(422);
   expect(out.error!.message).toContain(`"${typo}"`);
@@ -97,14 +102,14 @@ describe("every write row is walked or listed", () => {
     expect(unclassified).toEqual([]);
   });
 
-  it("every GET route that reads a query string has a misspelt parameter below", () => {
-    const reading = [...new Set(ROUTES.filter((r) => r.method === "GET" && /queryObject\(/.test(routeSource(r.file))).map((r) => r.file))].sort();
+  it("every route that reads a query string has a misspelt parameter below", () => {
+    const reading = [...new Set(ROUTES.filter((r) => /queryObject\(/.test(routeSource(r.file))).map((r) => r.file))].sort();
     expect(reading).toEqual(Object.keys(QUERY_TYPOS).sort());
   });
 });
 
 describe.each(writeRows.filter((r) => !NO_BODY.has(r.name)))("$method $file ($name) with a misspelt extra field", (row) => {
-  it.skipIf(ENGINE_BODY.has(row.name) && !ENGINE_STRICT)("is refused with 422 naming the field, and writes nothing", async () => {
+  it.skipIf(engineBody(row) && !ENGINE_STRICT)("is refused with 422 naming the field, and writes nothing", async () => {
     const prepared = row.prepare ? await row.prepare() : {};
     const optional = OPTIONAL_BODY[row.name];
     const body = optional ? optional.body : (prepared.body as Record<string, unknown>);
@@ -113,7 +118,7 @@ describe.each(writeRows.filter((r) => !NO_BODY.has(r.name)))("$method $file ($na
     expect(body).not.toHaveProperty(typo);
     const out = await refusedUnchanged(row, prepared, { ...body, [typo]: body[field] }, typo, field);
     // The ordinary validation shape also keys the refusal by the unknown field.
-    if (out.error!.code === "invalid-request" && !ENGINE_BODY.has(row.name)) expect(out.error!.details!.fields![typo]).toContain(`"${typo}"`);
+    if (out.error!.code === "invalid-request" && !engineBody(row)) expect(out.error!.details!.fields![typo]).toContain(`"${typo}"`);
   });
 });
 
@@ -143,11 +148,11 @@ describe.each(NESTED)("$row with a nested misspelt field ($typo)", (c) => {
   });
 });
 
-describe.each(ROUTES.filter((r) => r.method === "GET" && QUERY_TYPOS[r.file]))("GET $file ($name) with a misspelt query parameter", (row) => {
+describe.each(ROUTES.filter((r) => QUERY_TYPOS[r.file] && r.method === (QUERY_TYPOS[r.file].method ?? "GET")))("$method $file ($name) with a misspelt query parameter", (row) => {
   it("is refused with 422 naming the parameter", async () => {
     const prepared = row.prepare ? await row.prepare() : {};
     const t = QUERY_TYPOS[row.file];
-    const out = await refusedUnchanged(row, prepared, undefined, t.typo, t.meant, t.query);
+    const out = await refusedUnchanged(row, prepared, prepared.body, t.typo, t.meant, t.query);
     expect(out.error!.details!.fields).toHaveProperty(t.typo);
   });
 });

@@ -3,6 +3,7 @@
 import { revalidatePath } from "next/cache";
 import { z } from "zod";
 import { actionFailure, formObject, type ActionState } from "@/lib/actions";
+import { ROLE_LABELS } from "@/lib/auth/permissions";
 import { getActor } from "@/lib/auth/session";
 import { parseWith } from "@/lib/http";
 import * as team from "@/lib/services/team";
@@ -20,7 +21,7 @@ export async function changeRoleAction(_prev: ActionState, formData: FormData): 
     const id = parseWith(idParamSchema, membershipId);
     await team.changeRole(await getActor(), id, role);
     revalidatePath("/team");
-    return { ok: true, message: "Role saved." };
+    return { ok: true, message: `Role saved: ${ROLE_LABELS[role]}.` };
   } catch (error) {
     return actionFailure(error);
   }
