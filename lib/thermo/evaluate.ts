@@ -21,6 +21,7 @@ import {
 } from "./species";
 import { parsePressureBar, parseTemperatureK } from "./units";
 import { equilibriumOnGrid, type EquilibriumInfo, type EquilibriumPoint } from "./equilibrium";
+import { adiabaticOutlet, type AdiabaticResult } from "./adiabatic";
 import { combine, parseUncertainty, sigmaG, sigmaGNaive, type SpeciesUncertainty } from "./uncertainty";
 
 export interface EvaluatePoint {
@@ -63,6 +64,7 @@ export interface EvaluateResult {
   uncertainty?: UncertaintySummary;
   equilibrium?: EquilibriumPoint[];
   equilibriumInfo?: EquilibriumInfo;
+  adiabatic?: AdiabaticResult;
   warnings: EngineWarning[];
   engine: { version: string };
 }
@@ -272,6 +274,17 @@ export function evaluate(request: unknown): EvaluateResult {
     result.equilibrium = eq.points;
     result.equilibriumInfo = eq.info;
     warnings.push(...eq.warnings);
+    if (req.adiabatic) {
+      const ad = adiabaticOutlet({
+        adiabatic: req.adiabatic, context: eq.context, models, referenceK,
+        hasEntry: (key) => Object.prototype.hasOwnProperty.call(req.species, key),
+        buildModel: (key) => buildSpeciesModel(key, req.species[key], referenceK),
+      });
+      result.adiabatic = ad.result;
+      warnings.push(...ad.warnings);
+    }
+  } else if (req.adiabatic) {
+    refuse("adiabatic-needs-equilibrium", "adiabatic: an adiabatic outlet needs an equilibrium feed; add equilibrium { feed, pressureBar }");
   }
   if (req.include?.includes("species")) {
     const species: Record<string, SpeciesRow[]> = {};

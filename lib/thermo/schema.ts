@@ -94,12 +94,25 @@ export const speciesUncertaintySchema = z.object({
   cpRelative: z.number({ error: "expected a finite number" }).nonnegative({ error: "an uncertainty must not be negative" }).optional(),
 });
 
+/** Critical constants for the real-gas equation of state: Tc (K), Pc (bar), acentric factor ω. */
+export const criticalSchema = z
+  .object({
+    tcK: z.number({ error: "expected a finite number" }).positive({ error: "a critical temperature must be above 0 K" }),
+    pcBar: z.number({ error: "expected a finite number" }).positive({ error: "a critical pressure must be above 0 bar" }),
+    omega: z.number({ error: "expected a finite number" }).min(-1, { error: "an acentric factor runs from -1 to 2" }).max(2, { error: "an acentric factor runs from -1 to 2" }),
+  })
+  .strict();
+
+/** Gas-phase models of the equilibrium: ideal-gas activities, or Peng–Robinson fugacity coefficients. */
+export const GAS_MODELS = ["ideal", "peng-robinson"] as const;
+
 export const speciesSchema = z.object({
   segments: z.array(segmentSchema).min(1, { error: "expected at least one segment" }),
   transitions: z.array(transitionSchema).optional(),
   reference: referenceSchema.optional(),
   standardPressurePa: z.number().positive().optional(),
   uncertainty: speciesUncertaintySchema.optional(),
+  critical: criticalSchema.optional(),
 });
 
 export const temperaturesSchema = z.union(
@@ -134,8 +147,26 @@ export const evaluateRequestSchema = z.object({
       key: z.string().trim().min(1).optional(),
       /** A simultaneous set; without it the request's `reaction`. */
       reactions: z.array(z.string().trim().min(1, { error: "expected a reaction" })).min(1, { error: "expected at least one reaction" }).max(12, { error: "at most 12 reactions" }).optional(),
+      /** Gas-phase model (default "ideal"). */
+      gas: z.enum(GAS_MODELS, { error: 'expected "ideal" or "peng-robinson"' }).optional(),
+      /** Critical constants of inert feed species that have no entry in species. */
+      critical: z.record(z.string(), criticalSchema).optional(),
+      /** Binary interaction parameters of the van der Waals mixing rule (0 for a pair not listed). */
+      kij: z
+        .array(
+          z
+            .object({
+              species: z.tuple([z.string().trim().min(1), z.string().trim().min(1)]),
+              value: z.number({ error: "expected a finite number" }).min(-1, { error: "k_ij runs from -1 to 1" }).max(1, { error: "k_ij runs from -1 to 1" }),
+            })
+            .strict(),
+        )
+        .max(300, { error: "at most 300 pairs" })
+        .optional(),
     })
     .optional(),
+  /** Adiabatic outlet temperature of the equilibrium feed entering at inletK. */
+  adiabatic: z.object({ inletK: quantitySchema }).strict().optional(),
 });
 
 export type EvaluateRequest = z.input<typeof evaluateRequestSchema>;
