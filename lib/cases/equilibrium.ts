@@ -32,6 +32,8 @@ export function equilibriumRequestOf(eq: CaseEquilibrium | null | undefined): Ev
     pressureBar: eq.pressure,
     ...(eq.key ? { key: eq.key } : {}),
     ...(eq.reactions.length ? { reactions: eq.reactions } : {}),
+    // Stored cases from before the real-gas work have no `gas`; ideal stays implicit.
+    ...(eq.gas === "peng-robinson" ? { gas: eq.gas } : {}),
   };
 }
 

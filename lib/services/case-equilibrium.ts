@@ -4,7 +4,7 @@ import { requirePermission, type Actor } from "@/lib/auth/guards";
 import { parseWith } from "@/lib/http";
 import { evaluate, type EvaluateResult } from "@/lib/thermo";
 import { caseEquilibriumSchema } from "@/lib/validation/equilibrium";
-import { buildRequest, getCase, updateCase, type CaseDto } from "./cases";
+import { getCase, requestFor, updateCase, type CaseDto } from "./cases";
 import { pinTerms } from "@/lib/cases/equilibrium";
 import { loadPins } from "./pins";
 
@@ -29,7 +29,7 @@ export async function previewCaseEquilibrium(actor: Actor | null, readBody: () =
   const c = await getCase(me, body.caseId);
   const inputs = { ...c.inputs, equilibrium: body.equilibrium };
   const pins = await loadPins(me.teamId, pinTerms(inputs), { allowAny: true });
-  return evaluate(buildRequest(inputs, pins));
+  return evaluate(await requestFor(me.teamId, inputs, pins));
 }
 
 /** Save (or clear, with null) a draft case's equilibrium: an ordinary case edit, audited, lock-checked. */

@@ -245,7 +245,8 @@ export function evaluate(request: unknown): EvaluateResult {
       : req.equilibrium?.pressureBar !== undefined
         ? parsePressureBar(req.equilibrium.pressureBar, "equilibrium.pressureBar")
         : undefined;
-  if (pressureBar !== undefined && pressureBar > HIGH_PRESSURE_BAR) {
+  // With a real-gas equilibrium the fugacity coefficients are applied; the warning would say otherwise.
+  if (pressureBar !== undefined && pressureBar > HIGH_PRESSURE_BAR && req.equilibrium?.gas !== "peng-robinson") {
     warnings.push({
       code: "high-pressure", pressureBar,
       message: `K is the ideal-gas constant for a 1 bar standard state; at ${fmt(pressureBar)} bar non-ideal (fugacity) corrections may matter`,
