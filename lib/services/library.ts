@@ -23,6 +23,7 @@ import {
 import type { CpModel, ModelVersion, Species } from "@/models";
 import type { VersionStatus, VersionUncertainty } from "@/models/model-version";
 import { recordAudit } from "./audit";
+import { queueImpactJob } from "./impact";
 import { notifyDecided, notifyProposed } from "./library-mail";
 
 // ------------------------------------------------------------------ DTOs
@@ -478,6 +479,8 @@ export async function proposeVersion(actor: Actor | null, id: number): Promise<V
     await recordAudit(transaction, { action: "model-version.proposed", entityType: "model-version", entityId: id, teamId: me.teamId, actorId: me.userId, before: { status: "draft" }, after: { status: "proposed" } });
     const dto = await versionDto(version, transaction);
     await notifyProposed(transaction, me, dto);
+    // What this version would do to the team's pinned cases, for the version page (background).
+    await queueImpactJob(transaction, { teamId: me.teamId, versionId: id, trigger: "proposed", notify: false, requestedById: me.userId });
     return dto;
   });
 }
@@ -511,6 +514,8 @@ export async function approveVersion(actor: Actor | null, id: number, note?: str
     await recordAudit(transaction, { action: "model-version.approved", entityType: "model-version", entityId: id, teamId: me.teamId, actorId: me.userId, before: { status: "proposed" }, after: { status: "approved", supersededIds: previous.map((p) => p.id), note: version.decisionReason } });
     const dto = await versionDto(version, transaction);
     await notifyDecided(transaction, me, dto);
+    // Re-run the impact on the approved version; when done, the authors of affected cases get one mail each.
+    await queueImpactJob(transaction, { teamId: me.teamId, versionId: id, trigger: "approved", notify: true, requestedById: me.userId });
     return dto;
   });
 }
