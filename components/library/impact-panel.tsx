@@ -30,9 +30,10 @@ const SIGN: Record<string, string> = {
  * model, re-evaluated on this one by a background job; progress while it runs, then the
  * largest changes, crossovers and sign cases before and after, flagged beyond a case's tolerance.
  */
-export function ImpactPanel({ versionId, canStart }: { versionId: number; canStart: boolean }) {
+export function ImpactPanel({ versionId, versionStatus, canStart }: { versionId: number; versionStatus: string; canStart: boolean }) {
   const url = `/api/v1/versions/${versionId}/impact`;
-  const { data, error, mutate } = useSWR<ImpactDto, ApiError>(url, fetchJson, {
+  // Keyed by the version's status too: approving queues a new run, which a refreshed page must fetch.
+  const { data, error, mutate } = useSWR<ImpactDto, ApiError, [string, string]>([url, versionStatus], ([u]) => fetchJson<ImpactDto>(u), {
     revalidateOnFocus: false,
     refreshInterval: (latest) => (latest?.job && (latest.job.status === "queued" || latest.job.status === "running") ? 1000 : 0),
   });

@@ -79,7 +79,7 @@ export default async function VersionPage({ params }: Props) {
           </Card>
           {team && v.status !== "rejected" && (
             <Card title="Impact on pinned cases">
-              <ImpactPanel versionId={v.id} canStart={can(actor.role, "models.draft")} />
+              <ImpactPanel versionId={v.id} versionStatus={v.status} canStart={can(actor.role, "models.draft")} />
             </Card>
           )}
           <Card title="Segments">
