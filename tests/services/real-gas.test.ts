@@ -5,7 +5,8 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb, models } from "@/lib/db";
-import { createCase, getResults } from "@/lib/services/cases";
+import { createCase, exportCsv, getResults } from "@/lib/services/cases";
+import { compareFamilies } from "@/lib/services/equilibrium";
 import { previewCaseEquilibrium } from "@/lib/services/case-equilibrium";
 import { caseInputSchema } from "@/lib/validation/cases";
 import { CRITICAL_CONSTANTS } from "@/seeders/critical-constants";
@@ -71,6 +72,33 @@ describe("the request a case builds", () => {
     const result = await previewCaseEquilibrium(erin, async () => ({ caseId: c.id, equilibrium: withPin }));
     expect(result.adiabatic!.inletK).toBeCloseTo(600, 9);
     expect(result.adiabatic!.outletK).toBeGreaterThan(650);
+  });
+});
+
+describe("sources and CSV with a real gas", () => {
+  it("the family comparison carries the library's critical constants, so a Peng–Robinson request compares", async () => {
+    const erin = await actorOf("engineer");
+    const body = {
+      reaction: "N2(g) + 3 H2(g) -> 2 NH3(g)",
+      species: { "N2(g)": {}, "H2(g)": {}, "NH3(g)": {} },
+      temperatures: { listK: [700] },
+      equilibrium: { feed: { "N2(g)": 1, "H2(g)": 3 }, pressureBar: 300, gas: "peng-robinson" },
+    };
+    const r = await compareFamilies(erin, async () => body);
+    expect(r.families.length).toBeGreaterThanOrEqual(2);
+    expect(r.comparison).not.toBeNull();
+  });
+
+  it("the CSV of a Peng–Robinson case adds φ per gas species and the ideal-gas conversion", async () => {
+    const erin = await actorOf("engineer");
+    const c = await createCase(erin, caseInputSchema.parse(shiftCase(pins, { equilibrium: { ...eq, gas: "peng-robinson" } })));
+    const { csv } = await exportCsv(erin, c.id);
+    const header = csv.split("\n")[0];
+    expect(header).toContain("equilibrium.fugacityCoefficients.CO(g)");
+    expect(header).toContain("equilibrium.fugacityCoefficients.CH4(g)");
+    expect(header).toContain("equilibrium.ideal.keyConversion");
+    const ideal = await createCase(erin, caseInputSchema.parse(shiftCase(pins, { equilibrium: eq })));
+    expect((await exportCsv(erin, ideal.id)).csv.split("\n")[0]).not.toContain("fugacityCoefficients");
   });
 });
 
