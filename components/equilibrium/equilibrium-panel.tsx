@@ -123,6 +123,8 @@ export function EquilibriumPanel({
       extraTerms,
       ...(gasModel === "peng-robinson" ? { gas: gasModel } : {}),
       ...(t ? { adiabaticInletK: isNumber(t) ? Number(t) : t } : {}),
+      // Feed rows that are in no reaction were added as inert species: say so, or the server refuses them.
+      inert: feedKeys.filter((k) => !caseKeys.includes(k) && !extraKeys.includes(k)),
     };
   };
 

@@ -23,7 +23,7 @@ beforeAll(async () => {
 afterAll(() => closeDb());
 
 // Larkspur Hydrogen Works shift converter (invented demo scenario): steam-to-CO 3, 30 bar.
-const equilibrium = { feed: { "CO(g)": 1, "H2O(g)": 3, "CO2(g)": 0.1, "H2(g)": 0.5 }, feedUnit: "kmol/h", pressure: "30 bar", key: "CO(g)" as string | null, reactions: [], extraTerms: [] };
+const equilibrium = { feed: { "CO(g)": 1, "H2O(g)": 3, "CO2(g)": 0.1, "H2(g)": 0.5 }, feedUnit: "kmol/h", pressure: "30 bar", key: "CO(g)" as string | null, reactions: [], extraTerms: [], inert: [] as string[] };
 
 describe("a case with an equilibrium", () => {
   it("builds the request, freezes the composition in the snapshot and exports it", async () => {

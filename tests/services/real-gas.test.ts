@@ -23,7 +23,7 @@ beforeAll(async () => {
 afterAll(() => closeDb());
 
 // Larkspur Hydrogen Works shift converter (invented demo scenario).
-const eq = { feed: { "CO(g)": 13, "H2O(g)": 38, "CO2(g)": 6, "H2(g)": 40, "CH4(g)": 3 }, feedUnit: "kmol/h", pressure: "30 bar", key: "CO(g)" as string | null, reactions: [], extraTerms: [] };
+const eq = { feed: { "CO(g)": 13, "H2O(g)": 38, "CO2(g)": 6, "H2(g)": 40, "CH4(g)": 3 }, feedUnit: "kmol/h", pressure: "30 bar", key: "CO(g)" as string | null, reactions: [], extraTerms: [], inert: ["CH4(g)"] };
 
 describe("critical constants in the library", () => {
   it("every reference species carries them, cited (Poling, Prausnitz & O'Connell, 5th ed., from memory)", async () => {
@@ -68,7 +68,8 @@ describe("the request a case builds", () => {
       code: "missing-species",
       message: 'species "CH4(g)" is in equilibrium.feed and carries heat in the adiabatic balance, but has no entry in species',
     });
-    const withPin = { ...eq, adiabaticInletK: "326.85 degC", extraTerms: [{ formula: "CH4", phase: "g", versionId: pins.CH4 }] };
+    // Pinned, methane is an extra species of the case rather than a stated inert.
+    const withPin = { ...eq, adiabaticInletK: "326.85 degC", extraTerms: [{ formula: "CH4", phase: "g", versionId: pins.CH4 }], inert: [] };
     const result = await previewCaseEquilibrium(erin, async () => ({ caseId: c.id, equilibrium: withPin }));
     expect(result.adiabatic!.inletK).toBeCloseTo(600, 9);
     expect(result.adiabatic!.outletK).toBeGreaterThan(650);
