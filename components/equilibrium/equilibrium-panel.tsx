@@ -247,10 +247,10 @@ export function EquilibriumPanel({
                 </Field>
               </div>
               <div className="grid grid-cols-2 gap-3">
-                <Field label="Gas model" name="gasModel" hint="Peng–Robinson needs critical constants (the library has them for its reference species).">
+                <Field label="Gas model" name="gasModel" hint="Peng–Robinson applies fugacity coefficients; it needs critical constants (the library has them for its reference species).">
                   <Select name="gasModel" value={gasModel} onChange={(e) => setGasModel(e.target.value === "peng-robinson" ? "peng-robinson" : "ideal")}>
                     <option value="ideal">Ideal gas (φ = 1)</option>
-                    <option value="peng-robinson">Peng–Robinson (fugacity coefficients)</option>
+                    <option value="peng-robinson">Peng–Robinson</option>
                   </Select>
                 </Field>
                 <Field label="Adiabatic inlet temperature (optional)" name="adiabaticInletK" hint="K, or with a unit: 327 degC. Inert species then need a model version.">
