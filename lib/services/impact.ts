@@ -42,6 +42,8 @@ export type ImpactDto = {
 };
 
 const ACTIVE: ImpactStatus[] = ["queued", "running"];
+/** Shortest interval between progress writes of a running job. */
+const PROGRESS_MS = 500;
 const KICK = Symbol.for("heatpath.impact.kick");
 
 /** The worker registers this to be woken when a job is queued. */
@@ -228,16 +230,21 @@ async function notifyAuthors(job: ImpactJob, v: ModelVersion): Promise<void> {
   });
 }
 
-/** Run one claimed job to the end, writing progress after every case. */
+/** Run one claimed job to the end, writing progress as it goes. */
 async function runJob(job: ImpactJob): Promise<void> {
   try {
     const v = await versionWithModel(job.versionId);
     const list = await affectedCases(job.teamId, v);
     await job.update({ total: list.length, done: 0, cases: [] });
     const out: ImpactCase[] = [];
+    let written = Date.now();
     for (const { row, older } of list) {
       out.push(await impactOfCase(job.teamId, row, older, v));
-      await job.update({ done: out.length, cases: [...out] });
+      // Progress at most twice a second (and after the last case), not one growing JSON write per case.
+      if (Date.now() - written >= PROGRESS_MS || out.length === list.length) {
+        await job.update({ done: out.length, cases: [...out] });
+        written = Date.now();
+      }
     }
     await job.update({ status: "done", finishedAt: new Date() });
     if (job.notify && out.length > 0) await notifyAuthors(job, v);
