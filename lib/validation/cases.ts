@@ -149,4 +149,6 @@ export const revisionParamSchema = z.coerce.number({ error: "Expected a revision
 /** Without from/to: the last two revisions. */
 export const diffQuerySchema = z.object({ from: revisionParamSchema.optional(), to: revisionParamSchema.optional() });
 export const exportQuerySchema = z.object({ revision: revisionParamSchema.optional() });
+/** GET …/results: `format=columns` gives `result.columns` instead of `result.points` (lib/thermo/columns.ts). */
+export const resultsQuerySchema = z.object({ revision: revisionParamSchema.optional(), format: z.enum(["rows", "columns"]).optional() }).strict();
 export const pinQuerySchema = z.object({ formula: searchText(60).pipe(z.string().min(1)).optional() });
