@@ -1,7 +1,7 @@
 /**
  * Runs once when an app server starts: refuse an unsafe production setup,
- * then start the engine's worker threads and the mail worker (and, in demo
- * mode, the local mail catcher).
+ * then start the engine's worker threads, the mail worker (and, in demo mode, the local mail
+ * catcher) and the impact worker.
  */
 export async function register() {
   if (process.env.NEXT_RUNTIME !== "nodejs") return;
@@ -15,4 +15,7 @@ export async function register() {
   enginePool();
   const { startMailWorker } = await import("@/lib/mail-worker");
   await startMailWorker();
+  // Impact runs of a model change on every pinned case, off the request path.
+  const { startImpactWorker } = await import("@/lib/impact-worker");
+  await startImpactWorker();
 }

@@ -42,22 +42,3 @@ function normalise(address: string): string {
   return (isIpAddress(a) ? a.toLowerCase() : a).slice(0, 64);
 }
 
-/**
- * Where to go after sign-in: a path on this site, or "/". The value is parsed as a browser
- * would parse it against this site's origin (backslashes, tabs and newlines included), and
- * anything that resolves to another origin (`//evil.example`, `/\\evil.example`,
- * `/%09/evil.example` once decoded) goes home. The parsed path is returned, so what the
- * browser follows is exactly what was checked.
- */
-export function safeNext(value: string | undefined | null): string {
-  if (!value || !value.startsWith("/")) return "/";
-  const origin = "http://heatpath.invalid";
-  let url: URL;
-  try {
-    url = new URL(value, origin);
-  } catch {
-    return "/";
-  }
-  if (url.origin !== origin) return "/";
-  return `${url.pathname}${url.search}${url.hash}`;
-}
