@@ -22,6 +22,8 @@ import {
 import { parsePressureBar, parseTemperatureK } from "./units";
 import { equilibriumOnGrid, type EquilibriumInfo, type EquilibriumPoint } from "./equilibrium";
 import { combine, parseUncertainty, sigmaG, sigmaGNaive, type SpeciesUncertainty } from "./uncertainty";
+import { speciesContributions } from "./contributions";
+import { belowBoilingPointWarning, condensationWarnings } from "./condensation";
 
 export interface EvaluatePoint {
   tK: number;
@@ -60,6 +62,9 @@ export interface EvaluateResult {
   crossover: { naiveK: number | null; naiveInSpan: boolean; correctedK: number[] };
   signCase: { code: SignCaseCode; text: string; correctedAgrees: boolean };
   species?: Record<string, SpeciesRow[]>;
+  /** With include "contributions": per species key, kJ/mol per grid point (lib/thermo/contributions.ts). */
+  contributions?: Record<string, number[]>;
+  contributionsSigma?: Record<string, number[]>;
   uncertainty?: UncertaintySummary;
   equilibrium?: EquilibriumPoint[];
   equilibriumInfo?: EquilibriumInfo;
@@ -144,6 +149,8 @@ export function evaluate(request: unknown): EvaluateResult {
       dS[i] += term.nu * g.s[i];
     }
     warnings.push(...termWarnings(term.model, term.phase, T, g, referenceK));
+    const cold = belowBoilingPointWarning(term.key, req.species[term.key], T, g);
+    if (cold) warnings.push(cold);
   }
 
   const ref = reactionAt(terms, referenceK);
@@ -272,6 +279,7 @@ export function evaluate(request: unknown): EvaluateResult {
     result.equilibrium = eq.points;
     result.equilibriumInfo = eq.info;
     warnings.push(...eq.warnings);
+    warnings.push(...condensationWarnings(req.species, eq.points, eq.info));
   }
   if (req.include?.includes("species")) {
     const species: Record<string, SpeciesRow[]> = {};
@@ -286,6 +294,7 @@ export function evaluate(request: unknown): EvaluateResult {
     });
     result.species = species;
   }
+  if (req.include?.includes("contributions")) Object.assign(result, speciesContributions(terms, grids, T, referenceK, uncertain));
   // Warnings and the engine version close the result, after any optional sections.
   const { warnings: w, engine } = result;
   delete (result as Partial<EvaluateResult>).warnings;

@@ -100,6 +100,10 @@ export const speciesSchema = z.object({
   reference: referenceSchema.optional(),
   standardPressurePa: z.number().positive().optional(),
   uncertainty: speciesUncertaintySchema.optional(),
+  /** Normal boiling point (at 1 atm), K or a string with a unit; screens gas use below it (lib/thermo/condensation.ts). */
+  boilingPointK: quantitySchema.optional(),
+  /** Triple point, K or a string with a unit; below it the condensed phase is a solid. */
+  triplePointK: quantitySchema.optional(),
 });
 
 export const temperaturesSchema = z.union(
@@ -117,7 +121,7 @@ export const evaluateRequestSchema = z.object({
   referenceK: quantitySchema.optional(),
   toleranceKJ: z.number().nonnegative().optional(),
   toleranceKFactor: z.number().gt(1, { error: "expected a factor above 1" }).optional(),
-  include: z.array(z.enum(["species"])).optional(),
+  include: z.array(z.enum(["species", "contributions"])).optional(),
   /** Operating pressure, used only for the `high-pressure` warning (K stays the ideal-gas, 1 bar one). */
   pressureBar: quantitySchema.optional(),
   equilibrium: z
