@@ -9,6 +9,12 @@ export class Species extends Model<InferAttributes<Species>, InferCreationAttrib
   declare elements: Record<string, number>;
   declare molarMassGPerMol: number;
   declare identifiers: Record<string, string> | null;
+  /** Normal boiling point (K, at 1 atm); null when unknown or none (added by migration RD01). */
+  declare boilingPointK: CreationOptional<number | null>;
+  /** Triple point (K); null when unknown (migration RD02). */
+  declare triplePointK: CreationOptional<number | null>;
+  /** Source of the two points; a recalled value says "(from memory)" (migration RD03). */
+  declare phasePointsCitation: CreationOptional<string | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
@@ -22,6 +28,9 @@ export class Species extends Model<InferAttributes<Species>, InferCreationAttrib
         elements: { type: DataTypes.JSON, allowNull: false },
         molarMassGPerMol: { type: DataTypes.DOUBLE, allowNull: false, field: "molar_mass_g_per_mol" },
         identifiers: { type: DataTypes.JSON, allowNull: true },
+        boilingPointK: { type: DataTypes.DOUBLE, allowNull: true, field: "boiling_point_k" },
+        triplePointK: { type: DataTypes.DOUBLE, allowNull: true, field: "triple_point_k" },
+        phasePointsCitation: { type: DataTypes.STRING(300), allowNull: true, field: "phase_points_citation" },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

@@ -125,6 +125,8 @@ export function buildRequest(inputs: CaseInputs, pins: readonly PinnedVersion[])
     temperatures: inputs.temperatures,
     referenceK: inputs.referenceK,
     toleranceKJ: inputs.toleranceKJ,
+    // Which species moves ΔrG: drawn on the case page and printed in the report.
+    include: ["contributions"],
   };
   if (inputs.toleranceKFactor !== null) request.toleranceKFactor = inputs.toleranceKFactor;
   const equilibrium = equilibriumRequestOf(inputs.equilibrium);

@@ -50,7 +50,7 @@ describe("library API", () => {
     expect(res.status).toBe(200);
     expect(res.headers.get("content-disposition")).toMatch(/^attachment; filename="heatpath-library-\d{4}-\d{2}-\d{2}\.json"$/);
     const file = (await bodyOf(res)) as { models: unknown[] };
-    // 26 reference models plus Larkspur's approved team copy.
-    expect(file.models).toHaveLength(27);
+    // 60 reference models (26 + 34 from the two published files) plus Larkspur's approved team copy.
+    expect(file.models).toHaveLength(61);
   });
 });
