@@ -109,6 +109,8 @@ export const DEMO_CASES: Plan[] = [
     temperatures: { fromK: 80, toK: 120, stepK: 1 },
     toleranceKJ: 1,
     flow: "draft",
+    // Cold box feed at 30 bar: hydrogen with methane and a CO trace (invented).
+    equilibrium: { feed: { "CO(g)": 0.2, "H2(g)": 90, "CH4(g)": 9.8, "H2O(cr)": 0 }, feedUnit: "kmol/h", pressure: "30 bar", key: "CO(g)", reactions: [], extra: [] },
   },
   {
     title: "Reformer start-up sweep (°C)",

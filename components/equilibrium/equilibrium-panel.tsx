@@ -14,6 +14,7 @@ import type { PinOptionDto } from "@/lib/services/pins";
 import type { EvaluateResult } from "@/lib/thermo/evaluate";
 import type { CaseEquilibrium, ExtraTerm } from "@/lib/validation/equilibrium";
 import type { SourcesDto } from "./source-comparison";
+import { CondensationNote } from "./condensation-note";
 
 // Charts load only once there is something to draw, keeping recharts out of the page's first load.
 const EquilibriumResults = dynamic(() => import("./equilibrium-results").then((m) => m.EquilibriumResults), { ssr: false });
@@ -307,6 +308,7 @@ export function EquilibriumPanel({
               </Button>
             </div>
             <EquilibriumResults result={shown} />
+            <CondensationNote result={shown} />
             <WarningCodes result={shown} />
           </>
         )}

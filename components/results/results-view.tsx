@@ -13,6 +13,8 @@ import { ResultSummary, WarningList } from "./result-summary";
 
 type ApiError = { code: string; message: string };
 
+const ContributionsChart = dynamic(() => import("./contributions-chart").then((m) => m.ContributionsChart), { ssr: false });
+
 /** The chart library is most of this page's JavaScript: the numbers come first, the charts load after them. */
 const ResultCharts = dynamic(() => import("./result-charts").then((m) => m.ResultCharts), {
   ssr: false,
@@ -81,6 +83,7 @@ export function ResultsView({ caseId, revision, stamp }: { caseId: number; revis
         <ResultSummary result={r} />
       </Card>
       <ResultCharts result={r} toleranceKJ={data.inputs.toleranceKJ} />
+      <ContributionsChart result={r} />
       <Card title={`Warnings (${r.warnings.length})`}>
         <WarningList warnings={r.warnings} />
       </Card>

@@ -10,7 +10,8 @@
  *   at a partial pressure of 1 atm or more the species condenses below its normal boiling
  *   point for certain (its dew point is at or above it); below 1 atm the dew point is lower
  *   and the flag may be a false alarm; and above 1 atm it may condense somewhat above the
- *   normal boiling point too, which this screen does not see.
+ *   normal boiling point too, which this screen does not see. Partial pressures under
+ *   CONDENSATION_FLOOR_BAR are not flagged.
  */
 import { ATM_PA } from "./constants";
 import type { EquilibriumInfo, EquilibriumPoint } from "./equilibrium";
@@ -19,6 +20,11 @@ import { fmt, type EngineWarning, type TermGrid } from "./species";
 import { parseTemperatureK } from "./units";
 
 const ATM_BAR = ATM_PA / 1e5;
+/**
+ * Partial pressures below this (bar) are not flagged: a trace far below 1 atm has its dew point
+ * far below the normal boiling point (by Clausius–Clapeyron), so the screen would only cry wolf.
+ */
+export const CONDENSATION_FLOOR_BAR = 1e-6;
 
 export interface PhasePoints {
   boilingPointK?: number;
@@ -74,7 +80,7 @@ export function condensationWarnings(
     let maxP = 0;
     for (let i = 0; i < points.length; i++) {
       const y = points[i].moleFractions[key];
-      if (y === undefined || !(y > 0) || !(points[i].tK < pp.boilingPointK)) continue;
+      if (y === undefined || !(y * info.pressureBar >= CONDENSATION_FLOOR_BAR) || !(points[i].tK < pp.boilingPointK)) continue;
       if (first < 0) first = i;
       last = i;
       maxP = Math.max(maxP, y * info.pressureBar);

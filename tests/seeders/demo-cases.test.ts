@@ -56,6 +56,10 @@ describe("04-demo-cases", () => {
       ["CH4(g)", 80, 111],
     ]);
     expect(r.pins.find((p) => p.key === "CH4(g)")!.phasePoints).toMatchObject({ boilingPointK: 111.66, triplePointK: 90.69 });
+    // Its equilibrium at 30 bar: methane at about 3 bar partial pressure would condense below 111.66 K.
+    const cond = r.result.warnings.filter((x) => x.code === "condensed-phase-possible");
+    expect(cond.map((x) => [x.species, x.tK, x.toK])).toEqual([["CH4(g)", 80, 111]]);
+    expect(cond[0].message).toMatch(/^would condense \(solid below its 90.69 K triple point\)/);
   });
 
   it("methanol synthesis and carbon deposition are demo cases on published sets, with equilibria and contributions", async () => {

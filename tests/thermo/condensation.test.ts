@@ -5,6 +5,7 @@
  */
 import { describe, expect, it } from "vitest";
 import { evaluate, EngineRefusal, type SpeciesInput } from "@/lib/thermo";
+import { condensationWarnings } from "@/lib/thermo/condensation";
 import { speciesEntry } from "./reference-data";
 
 // CRC Handbook of Chemistry and Physics, normal boiling points and triple points (from memory).
@@ -107,5 +108,14 @@ describe("condensed-phase-possible (equilibrium, screened by the normal boiling 
   it("is silent above the boiling point", () => {
     const r = evaluate({ ...shift(30, { "CO(g)": 1, "H2O(g)": 3 }), temperatures: { fromK: 380, toK: 500, stepK: 20 } });
     expect(r.warnings.some((x) => x.code === "condensed-phase-possible")).toBe(false);
+  });
+
+  it("does not flag a trace under 1e-6 bar partial pressure", () => {
+    // Equilibrium points synthetic, invented for this test: H2O at 1e-7 and 1e-5 mole fraction, 1 bar.
+    const species = { "H2O(g)": { segments: [], boilingPointK: 373.12 } } as unknown as Parameters<typeof condensationWarnings>[0];
+    const info = { species: [{ key: "H2O(g)", role: "reacting" }], pressureBar: 1 } as unknown as Parameters<typeof condensationWarnings>[2];
+    const pts = (y: number) => [{ tK: 300, moleFractions: { "H2O(g)": y } }] as unknown as Parameters<typeof condensationWarnings>[1];
+    expect(condensationWarnings(species, pts(1e-7), info)).toEqual([]);
+    expect(condensationWarnings(species, pts(1e-5), info)).toHaveLength(1);
   });
 });

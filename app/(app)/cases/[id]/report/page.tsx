@@ -5,6 +5,8 @@ import { EquilibriumReport } from "@/components/equilibrium/equilibrium-report";
 import { Caution } from "@/components/results/caution";
 import { PrintButton } from "@/components/results/print-button";
 import { ResultCharts } from "@/components/results/result-charts";
+import { ContributionsChart } from "@/components/results/contributions-chart";
+import { ContributionsTable } from "@/components/results/contributions-table";
 import { ResultSummary, WarningList } from "@/components/results/result-summary";
 import { requireUser } from "@/lib/auth/guards";
 import { getActor } from "@/lib/auth/session";
@@ -30,7 +32,8 @@ export default async function ReportPage({ params, searchParams }: Props) {
   const r = data.result;
   const pts = r.points;
   const stride = Math.max(1, Math.ceil(pts.length / SUMMARY_ROWS));
-  const rows = pts.filter((_, i) => i % stride === 0 || i === pts.length - 1);
+  const rowIndexes = pts.map((_, i) => i).filter((i) => i % stride === 0 || i === pts.length - 1);
+  const rows = rowIndexes.map((i) => pts[i]);
   const worst = pts.reduce((a, p) => (Math.abs(p.diffKJ) > Math.abs(a.diffKJ) ? p : a), pts[0]);
   const beyond = pts.filter((p) => p.exceedsTolerance).length;
   const coeff = new Map(data.inputs.terms.map((t) => [t.phase ? `${t.formula}(${t.phase})` : t.formula, t.coefficient]));
@@ -142,6 +145,14 @@ export default async function ReportPage({ params, searchParams }: Props) {
           </tbody>
         </table>
         <p className="mt-1 text-xs text-ink-muted">* beyond tolerance. H on the formation basis; G = H − TS of each species is not ΔfG°(T).</p>
+      </section>
+
+      <section className="break-inside-avoid">
+        <h2 className="mb-1 text-sm font-semibold">Which species moves ΔrG away from the naive line</h2>
+        <ContributionsChart result={r} compact />
+        <div className="mt-2">
+          <ContributionsTable result={r} rowIndexes={rowIndexes} />
+        </div>
       </section>
 
       {r.equilibrium && <EquilibriumReport result={r} sources={await reportSources(actor, data.request)} />}
