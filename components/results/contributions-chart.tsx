@@ -37,7 +37,7 @@ export function ContributionsChart({ result, compact = false }: { result: Evalua
       {w && w.shares.length > 0 && Math.abs(w.totalKJ) > 0 && (
         <p className="mb-2 text-xs text-ink-soft" data-testid="contributions-headline">
           At {fixed(w.tK, 2)} K, where the gap is widest ({fixed(w.totalKJ, 3)} kJ/mol), the largest share is <strong>{w.shares[0].key}</strong> with {fixed(w.shares[0].kJ, 3)} kJ/mol
-          {w.shares.length > 1 ? `, then ${w.shares.slice(1).map((x) => `${x.key} ${fixed(x.kJ, 3)}`).join(", ")}` : ""}.
+          {w.shares.length > 1 ? `; then ${w.shares.slice(1).map((x) => `${x.key} ${fixed(x.kJ, 3)}`).join(", ")} kJ/mol` : ""}.
         </p>
       )}
       <StackedAreaChart
