@@ -1,4 +1,5 @@
 import "server-only";
+import { phasePointsOf } from "@/lib/cases/equilibrium";
 import { Op, type Transaction, type WhereOptions } from "sequelize";
 import { can } from "@/lib/auth/permissions";
 import { requireNotAuthor, requirePermission, requireSameTeam, type Actor } from "@/lib/auth/guards";
@@ -28,7 +29,16 @@ import { notifyDecided, notifyProposed } from "./library-mail";
 // ------------------------------------------------------------------ DTOs
 
 export type Scope = "reference" | "team";
-export type SpeciesDto = { id: number; formula: string; displayName: string; elements: Record<string, number>; molarMassGPerMol: number; scope: Scope };
+export type SpeciesDto = {
+  id: number;
+  formula: string;
+  displayName: string;
+  elements: Record<string, number>;
+  molarMassGPerMol: number;
+  scope: Scope;
+  /** Normal boiling point and triple point (K) with their source, where the library has them. */
+  phasePoints: { boilingPointK: number | null; triplePointK: number | null; citation: string | null } | null;
+};
 export type ModelSummaryDto = { id: number; name: string; family: string; variant: string | null; scope: Scope; copiedFromId: number | null };
 export type VersionSummaryDto = {
   id: number;
@@ -75,7 +85,7 @@ export type VersionAuditDto = { id: number; action: string; actorName: string | 
 const scopeOf = (teamId: number | null): Scope => (teamId === null ? "reference" : "team");
 
 function speciesDto(s: Species): SpeciesDto {
-  return { id: s.id, formula: s.formula, displayName: s.displayName, elements: s.elements, molarMassGPerMol: s.molarMassGPerMol, scope: scopeOf(s.teamId) };
+  return { id: s.id, formula: s.formula, displayName: s.displayName, elements: s.elements, molarMassGPerMol: s.molarMassGPerMol, scope: scopeOf(s.teamId), phasePoints: phasePointsOf(s) ?? null };
 }
 
 function modelSummary(m: CpModel): ModelSummaryDto {

@@ -254,3 +254,15 @@ describe("curves", () => {
     await expect(lib.previewCurve(sam, { data: { segments: [] } })).rejects.toMatchObject({ name: "EngineRefusal" });
   });
 });
+
+describe("species phase points", () => {
+  it("a reference species shows its boiling and triple points with the source; a team species has none", async () => {
+    const erin = await actorOf("engineer");
+    const ch4 = await models().Species.findOne({ where: { teamId: null, formula: "CH4" } });
+    const dto = await lib.getSpecies(erin, ch4!.id);
+    // CRC Handbook of Chemistry and Physics (from memory): CH4 111.66 K, 90.69 K.
+    expect(dto.phasePoints).toEqual({ boilingPointK: 111.66, triplePointK: 90.69, citation: expect.stringMatching(/\(from memory\)/) });
+    const mine = await lib.createSpecies(erin, { formula: "C4H10", displayName: "Butane (team, for this test)" });
+    expect(mine.phasePoints).toBeNull();
+  });
+});
