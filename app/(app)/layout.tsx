@@ -18,7 +18,14 @@ export default async function AppLayout({ children }: { children: React.ReactNod
   return (
     <>
       {/* Admins read the team's mail; in demo mode everyone reads their own from the local catcher. */}
-      <AppHeader actor={actor} items={can(actor.role, "outbox.view") || !isProduction ? [...NAV, { href: "/outbox", label: "Outbox" }] : NAV} />
+      <AppHeader
+        actor={actor}
+        items={[
+          ...NAV,
+          ...(can(actor.role, "audit.view") ? [{ href: "/audit", label: "Audit" }] : []),
+          ...(can(actor.role, "outbox.view") || !isProduction ? [{ href: "/outbox", label: "Outbox" }] : []),
+        ]}
+      />
       <main className="mx-auto max-w-6xl px-4 py-8">{children}</main>
     </>
   );

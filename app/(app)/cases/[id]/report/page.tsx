@@ -14,6 +14,8 @@ import { fixed, sci } from "@/lib/cases/format";
 import { formatQuantity } from "@/lib/cases/temperature";
 import { getResults } from "@/lib/services/cases";
 import { reportSources } from "@/lib/services/equilibrium";
+import { signOffRecord } from "@/lib/services/sign-off";
+import { approverText, SignOffRecord } from "@/components/cases/sign-off";
 
 export const metadata = { title: "Case report" };
 
@@ -30,6 +32,7 @@ export default async function ReportPage({ params, searchParams }: Props) {
   if (!Number.isInteger(id) || id <= 0) notFound();
   const data = await orNotFound(getResults(actor, id, revision));
   const r = data.result;
+  const record = data.source === "snapshot" ? await signOffRecord(actor, id, data.revision ?? undefined) : null;
   const pts = r.points;
   const stride = Math.max(1, Math.ceil(pts.length / SUMMARY_ROWS));
   const rowIndexes = pts.map((_, i) => i).filter((i) => i % stride === 0 || i === pts.length - 1);
@@ -50,6 +53,8 @@ export default async function ReportPage({ params, searchParams }: Props) {
         </div>
         <PrintButton />
       </header>
+
+      {record && <SignOffRecord record={record} />}
 
       <section className="grid grid-cols-2 gap-4 text-xs">
         <div>
@@ -84,6 +89,7 @@ export default async function ReportPage({ params, searchParams }: Props) {
               <th className="border-b border-ink-line py-1 pr-2 font-medium">ν</th>
               <th className="border-b border-ink-line py-1 pr-2 font-medium">Species</th>
               <th className="border-b border-ink-line py-1 pr-2 font-medium">Model and version</th>
+              {record && <th className="border-b border-ink-line py-1 pr-2 font-medium">Approved by</th>}
               <th className="border-b border-ink-line py-1 font-medium">Citation</th>
             </tr>
           </thead>
@@ -95,6 +101,7 @@ export default async function ReportPage({ params, searchParams }: Props) {
                 <td className="py-1 pr-2">
                   {p.modelName} · v{p.versionNumber} · <span className={p.status === "approved" ? "" : "font-semibold text-flag-700"}>{p.status}</span>
                 </td>
+                {record && <td className="py-1 pr-2" data-testid="pin-approver">{approverText(record.pins.find((x) => x.key === p.key))}</td>}
                 <td className="py-1 text-ink-soft">{p.citation}</td>
               </tr>
             ))}
