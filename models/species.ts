@@ -1,5 +1,7 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from "sequelize";
 
+export type SpeciesCritical = { tcK: number; pcBar: number; omega: number; citation: string };
+
 export class Species extends Model<InferAttributes<Species>, InferCreationAttributes<Species>> {
   declare id: CreationOptional<number>;
   /** null: the global reference library. */
@@ -15,6 +17,8 @@ export class Species extends Model<InferAttributes<Species>, InferCreationAttrib
   declare triplePointK: CreationOptional<number | null>;
   /** Source of the two points; a recalled value says "(from memory)" (migration RD03). */
   declare phasePointsCitation: CreationOptional<string | null>;
+  /** Critical constants for the real-gas equation of state, with their citation (migration GH01); null when unknown. */
+  declare critical: CreationOptional<SpeciesCritical | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
@@ -31,6 +35,7 @@ export class Species extends Model<InferAttributes<Species>, InferCreationAttrib
         boilingPointK: { type: DataTypes.DOUBLE, allowNull: true, field: "boiling_point_k" },
         triplePointK: { type: DataTypes.DOUBLE, allowNull: true, field: "triple_point_k" },
         phasePointsCitation: { type: DataTypes.STRING(300), allowNull: true, field: "phase_points_citation" },
+        critical: { type: DataTypes.JSON, allowNull: true },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },
