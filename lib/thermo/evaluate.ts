@@ -2,7 +2,7 @@
  * Reaction properties, corrected (Kirchhoff, numerically integrated) against naive
  * (ΔrH(Tref) − T·ΔrS(Tref)), crossovers and the sign case: the engine's main door.
  */
-import { ENGINE_VERSION, HIGH_PRESSURE_BAR, R, T298 } from "./constants";
+import { ENGINE_VERSION, HIGH_PRESSURE_BAR, R as GAS_CONSTANT, T298 } from "./constants";
 import { refuse } from "./errors";
 import { checkBalance, parseReaction } from "./formula";
 import { inSupportedRange, parseTemperatureGrid } from "./grid";
@@ -80,6 +80,8 @@ export const SIGN_CASES: Record<SignCaseCode, string> = {
 };
 
 const LN10 = Math.LN10;
+/** R read once: under a CommonJS transform an imported binding is an accessor, read on every use in the per-point loops. */
+const R = GAS_CONSTANT;
 
 interface Term {
   key: string;
@@ -125,24 +127,25 @@ interface Sigmas {
 /** The point objects, built once from the typed arrays (one object shape per call). */
 function buildPoints(
   n: number, T: Float64Array, dCp: Float64Array, dH: Float64Array, dS: Float64Array, dG: Float64Array, naive: Float64Array,
-  lnKs: Float64Array, naiveLnKs: Float64Array, tolJ: number, tolLn: number, sigmas: Sigmas | null,
+  tolJ: number, tolLn: number, sigmas: Sigmas | null,
 ): EvaluatePoint[] {
   const points: EvaluatePoint[] = new Array(n);
   for (let i = 0; i < n; i++) {
     const g = dG[i];
     const gn = naive[i];
-    const lnK = lnKs[i];
-    const naiveLnK = naiveLnKs[i];
+    const t = T[i];
+    const lnK = -g / (R * t);
+    const naiveLnK = -gn / (R * t);
     const K = Math.exp(lnK);
     const exceedsTolerance = Math.abs(gn - g) > tolJ || Math.abs(naiveLnK - lnK) > tolLn;
     points[i] = sigmas === null
       ? {
-          tK: T[i], dCpJ: dCp[i], dHkJ: dH[i] / 1000, dSJ: dS[i], dGkJ: g / 1000, lnK, log10K: lnK / LN10,
+          tK: t, dCpJ: dCp[i], dHkJ: dH[i] / 1000, dSJ: dS[i], dGkJ: g / 1000, lnK, log10K: lnK / LN10,
           K: Number.isFinite(K) && K > 0 ? K : null, naiveDGkJ: gn / 1000, naiveLnK, naiveLog10K: naiveLnK / LN10,
           diffKJ: (gn - g) / 1000, exceedsTolerance,
         }
       : {
-          tK: T[i], dCpJ: dCp[i], dHkJ: dH[i] / 1000, dSJ: dS[i], dGkJ: g / 1000, lnK, log10K: lnK / LN10,
+          tK: t, dCpJ: dCp[i], dHkJ: dH[i] / 1000, dSJ: dS[i], dGkJ: g / 1000, lnK, log10K: lnK / LN10,
           K: Number.isFinite(K) && K > 0 ? K : null, naiveDGkJ: gn / 1000, naiveLnK, naiveLog10K: naiveLnK / LN10,
           diffKJ: (gn - g) / 1000, exceedsTolerance,
           sigmaDGkJ: sigmas.dGkJ[i], sigmaLog10K: sigmas.log10K[i], naiveSigmaDGkJ: sigmas.naiveDGkJ[i],
@@ -241,8 +244,6 @@ function evaluateWithin(request: unknown): EvaluateResult {
   const tolLn = req.toleranceKFactor === undefined ? Infinity : Math.log(req.toleranceKFactor);
   const dG = new Float64Array(n);
   const naive = new Float64Array(n);
-  const lnKs = new Float64Array(n);
-  const naiveLnKs = new Float64Array(n);
   let z = 0;
   for (let i = 0; i < n; i++) {
     const t = T[i];
@@ -252,13 +253,11 @@ function evaluateWithin(request: unknown): EvaluateResult {
     const naiveLnK = -gn / (R * t);
     dG[i] = g;
     naive[i] = gn;
-    lnKs[i] = lnK;
-    naiveLnKs[i] = naiveLnK;
     z += dCp[i] * 0 + dH[i] * 0 + dS[i] * 0 + g * 0 + lnK * 0 + naiveLnK * 0 + gn * 0 + (gn - g) * 0;
   }
   // Only a value that is not finite builds the points here, to name it.
   if (z !== 0 || !(Number.isFinite(ref.dCp) && Number.isFinite(ref.dH) && Number.isFinite(ref.dS) && Number.isFinite(ref.dG))) {
-    checkFinitePoints(buildPoints(n, T, dCp, dH, dS, dG, naive, lnKs, naiveLnKs, tolJ, tolLn, null), ref);
+    checkFinitePoints(buildPoints(n, T, dCp, dH, dS, dG, naive, tolJ, tolLn, null), ref);
   }
 
   const uncertain = terms.map((t) => parseUncertainty(t.key, req.species[t.key]));
@@ -357,7 +356,7 @@ function evaluateWithin(request: unknown): EvaluateResult {
   }
 
   const result: EvaluateResult = {
-    points: buildPoints(n, T, dCp, dH, dS, dG, naive, lnKs, naiveLnKs, tolJ, tolLn, sigmas),
+    points: buildPoints(n, T, dCp, dH, dS, dG, naive, tolJ, tolLn, sigmas),
     reference: {
       tK: referenceK, dCpJ: ref.dCp, dHkJ: ref.dH / 1000, dSJ: ref.dS, dGkJ: ref.dG / 1000,
       lnK: -ref.dG / (R * referenceK), log10K: -ref.dG / (R * referenceK) / LN10,
