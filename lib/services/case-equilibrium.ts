@@ -1,5 +1,6 @@
 import "server-only";
 import { z } from "zod";
+import { strictObject } from "@/lib/validation/strict";
 import { requirePermission, type Actor } from "@/lib/auth/guards";
 import { parseWith } from "@/lib/http";
 import { evaluate, type EvaluateResult } from "@/lib/thermo";
@@ -11,11 +12,11 @@ import { loadPins } from "./pins";
 
 /** A case's equilibrium: trial runs and saving (the request parts live in ./equilibrium, which cases.ts uses). */
 
-const previewSchema = z.object({
+const previewSchema = strictObject({
   caseId: z.number({ error: "Send the case id." }).int().positive(),
   equilibrium: caseEquilibriumSchema,
 });
-const saveSchema = z.object({
+const saveSchema = strictObject({
   lockVersion: z.number({ error: "Send the lockVersion you loaded." }).int().min(0),
   equilibrium: caseEquilibriumSchema.nullable(),
 });

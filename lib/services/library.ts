@@ -140,7 +140,7 @@ function versionSummary(v: ModelVersion, names: Map<number, string>): VersionSum
 // ------------------------------------------------------------------ contributors (four-eyes)
 
 /** Record one person's part in a version, once; the caller holds the transaction. */
-async function addContributor(transaction: Transaction, versionId: number, userId: number, role: ContributorRole): Promise<void> {
+export async function addContributor(transaction: Transaction, versionId: number, userId: number, role: ContributorRole): Promise<void> {
   await models().ModelVersionContributor.findOrCreate({ where: { versionId, userId, role }, defaults: { versionId, userId, role }, transaction });
 }
 

@@ -1,5 +1,6 @@
 /** Case, review and comment shapes, shared by the builder form, the route handlers and the services. zod only. */
 import { z } from "zod";
+import { strictObject } from "@/lib/validation/strict";
 import { elementBalance, termKey } from "@/lib/cases/balance";
 import { splitQuantity, toKelvin, toKelvinDifference, type Quantity } from "@/lib/cases/temperature";
 import { caseEquilibriumSchema, feedKeyIssues } from "./equilibrium";
@@ -17,7 +18,7 @@ const quantity = z.union([z.number({ error: "Enter a number." }), z.string().tri
   error: "Enter a temperature.",
 }).refine((q) => splitQuantity(q as Quantity) !== null, { error: "Use a number with K, degC or degF." });
 
-export const termSchema = z.object({
+export const termSchema = strictObject({
   formula: z.string({ error: "Pick a species." }).trim().min(1, "Pick a species.").max(60, "Use at most 60 characters."),
   phase: z
     .string()
@@ -31,8 +32,8 @@ export const termSchema = z.object({
 });
 export type CaseTerm = z.infer<typeof termSchema>;
 
-const spanSchema = z.object({ fromK: quantity, toK: quantity, stepK: quantity });
-const listSchema = z.object({ listK: z.array(quantity).min(1, "Enter at least one temperature.").max(MAX_CASE_POINTS, `Use at most ${MAX_CASE_POINTS} temperatures.`) });
+const spanSchema = strictObject({ fromK: quantity, toK: quantity, stepK: quantity });
+const listSchema = strictObject({ listK: z.array(quantity).min(1, "Enter at least one temperature.").max(MAX_CASE_POINTS, `Use at most ${MAX_CASE_POINTS} temperatures.`) });
 export const caseTemperaturesSchema = z.union([spanSchema, listSchema], { error: "Give a span (from, to, step) or a list of temperatures." });
 export type CaseTemperatures = z.infer<typeof caseTemperaturesSchema>;
 
@@ -49,8 +50,7 @@ const caseFields = {
   equilibrium: caseEquilibriumSchema.nullable(),
 };
 
-export const caseInputSchema = z
-  .object({
+export const caseInputSchema = strictObject({
     ...caseFields,
     notes: caseFields.notes.default(""),
     referenceK: caseFields.referenceK.default(298.15),
@@ -98,15 +98,14 @@ export type CaseInput = z.infer<typeof caseInputSchema>;
 /** What a case stores as its inputs (title and notes live on the case row). */
 export type CaseInputs = Omit<CaseInput, "title" | "notes">;
 
-export const lockSchema = z.object({ lockVersion: z.number({ error: "Send the lockVersion you loaded." }).int().min(0) });
+export const lockSchema = strictObject({ lockVersion: z.number({ error: "Send the lockVersion you loaded." }).int().min(0) });
 
 /**
  * A PATCH names only what changes: every field is optional and a field the body leaves out
  * keeps its stored value (the saved equilibrium feed too); `equilibrium: null` clears it.
  * The service checks the merged case against caseInputSchema.
  */
-export const caseUpdateSchema = z
-  .object({
+export const caseUpdateSchema = strictObject({
     title: caseFields.title.optional(),
     notes: caseFields.notes.optional(),
     terms: caseFields.terms.optional(),
@@ -120,13 +119,12 @@ export const caseUpdateSchema = z
   .strict();
 export type CaseUpdate = z.infer<typeof caseUpdateSchema>;
 
-export const caseListQuerySchema = z.object({
+export const caseListQuerySchema = strictObject({
   status: z.enum(CASE_STATUSES, { error: "Use a status of draft, submitted, approved or returned." }).optional(),
   mine: z.enum(["1", "0"]).optional(),
 });
 
-export const decisionSchema = z
-  .object({
+export const decisionSchema = strictObject({
     decision: z.enum(DECISIONS, { error: "Decide approved or returned." }),
     reason: z.string().trim().max(2000, "Use at most 2000 characters.").default(""),
     /** The revision the reviewer looked at; a newer submission makes the decision stale. */
@@ -139,7 +137,7 @@ export const decisionSchema = z
   });
 export type DecisionInput = z.infer<typeof decisionSchema>;
 
-export const commentSchema = z.object({
+export const commentSchema = strictObject({
   body: z.string({ error: "Write a comment." }).trim().min(1, "Write a comment.").max(4000, "Use at most 4000 characters."),
   revision: z.number().int().positive().optional(),
 });
@@ -147,6 +145,8 @@ export type CommentInput = z.infer<typeof commentSchema>;
 
 export const revisionParamSchema = z.coerce.number({ error: "Expected a revision number." }).int().positive("Expected a revision number.");
 /** Without from/to: the last two revisions. */
-export const diffQuerySchema = z.object({ from: revisionParamSchema.optional(), to: revisionParamSchema.optional() });
-export const exportQuerySchema = z.object({ revision: revisionParamSchema.optional() });
-export const pinQuerySchema = z.object({ formula: searchText(60).pipe(z.string().min(1)).optional() });
+export const diffQuerySchema = strictObject({ from: revisionParamSchema.optional(), to: revisionParamSchema.optional() });
+export const exportQuerySchema = strictObject({ revision: revisionParamSchema.optional() });
+/** GET …/results: `format=columns` gives `result.columns` instead of `result.points` (lib/thermo/columns.ts). */
+export const resultsQuerySchema = strictObject({ revision: revisionParamSchema.optional(), format: z.enum(["rows", "columns"]).optional() });
+export const pinQuerySchema = strictObject({ formula: searchText(60).pipe(z.string().min(1)).optional() });

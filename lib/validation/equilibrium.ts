@@ -1,9 +1,10 @@
 /** The equilibrium part of a case (feed, pressure, key species, optional simultaneous set), shared by the panel form and the services. zod only. */
 import { z } from "zod";
+import { strictObject } from "@/lib/validation/strict";
 
 const speciesKey = z.string().trim().min(1, "Name a species.").max(80, "Use at most 80 characters.");
 
-export const extraTermSchema = z.object({
+export const extraTermSchema = strictObject({
   formula: z.string({ error: "Pick a species." }).trim().min(1, "Pick a species.").max(60, "Use at most 60 characters."),
   phase: z
     .string()
@@ -13,8 +14,7 @@ export const extraTermSchema = z.object({
 });
 export type ExtraTerm = z.infer<typeof extraTermSchema>;
 
-export const caseEquilibriumSchema = z
-  .object({
+export const caseEquilibriumSchema = strictObject({
     /** Feed amounts per species key (formula with phase marker, as in the reaction). */
     feed: z.record(speciesKey, z.number({ error: "Enter an amount." }).min(0, "An amount cannot be negative.").max(1e12, "Use at most 1e12.")),
     feedUnit: z.string().trim().min(1, "Name the unit of amount.").max(24, "Use at most 24 characters.").default("mol"),

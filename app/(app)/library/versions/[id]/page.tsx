@@ -14,7 +14,7 @@ import { FAMILY_LABELS } from "@/lib/validation/library";
 
 type Props = { params: Promise<{ id: string }> };
 
-const ROLE_WORDS: Record<string, string> = { author: "author", editor: "edited", proposer: "proposed", source: "worked on the draft it started from" };
+const ROLE_WORDS: Record<string, string> = { author: "author", editor: "edited", proposer: "proposed", source: "worked on the draft it started from", uploader: "uploaded the measured data it was fitted to" };
 
 const ACTION_WORDS: Record<string, string> = {
   "model-version.created": "created the draft",
