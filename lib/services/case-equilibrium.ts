@@ -6,7 +6,7 @@ import { parseWith } from "@/lib/http";
 import { evaluate, type EvaluateResult } from "@/lib/thermo";
 import { caseEquilibriumSchema } from "@/lib/validation/equilibrium";
 import { caseInputSchema } from "@/lib/validation/cases";
-import { buildRequest, getCase, updateCase, type CaseDto } from "./cases";
+import { getCase, requestFor, updateCase, type CaseDto } from "./cases";
 import { pinTerms } from "@/lib/cases/equilibrium";
 import { loadPins } from "./pins";
 
@@ -33,7 +33,7 @@ export async function previewCaseEquilibrium(actor: Actor | null, readBody: () =
   const { equilibrium } = parseWith(caseInputSchema, { title: c.title, notes: c.notes, ...c.inputs, equilibrium: body.equilibrium });
   const inputs = { ...c.inputs, equilibrium };
   const pins = await loadPins(me.teamId, pinTerms(inputs), { allowAny: true });
-  return evaluate(buildRequest(inputs, pins));
+  return evaluate(await requestFor(me.teamId, inputs, pins));
 }
 
 /** Save (or clear, with null) a draft case's equilibrium: an ordinary case edit, audited, lock-checked. */

@@ -23,8 +23,12 @@ export const caseEquilibriumSchema = strictObject({
     key: speciesKey.nullable().default(null),
     /** A simultaneous set; empty means the case's own reaction. */
     reactions: z.array(z.string().trim().min(1, "Write the reaction.").max(400, "Use at most 400 characters.")).max(12, "Use at most 12 reactions.").default([]),
-    /** Pinned versions for species that appear only in the extra reactions. */
+    /** Pinned versions for species that appear only in the extra reactions (or inert species that carry heat in the adiabatic balance). */
     extraTerms: z.array(extraTermSchema).max(20, "Use at most 20 extra species.").default([]),
+    /** Gas-phase model: ideal-gas activities (absent or "ideal"), or Peng–Robinson fugacity coefficients. */
+    gas: z.enum(["ideal", "peng-robinson"], { error: "Pick ideal gas or Peng–Robinson." }).optional(),
+    /** Adiabatic outlet: the feed's inlet temperature (K, or with a unit); null for none. */
+    adiabaticInletK: z.union([z.number({ error: "Enter a temperature." }).positive("Use a temperature above 0 K."), z.string().trim().min(1, "Enter a temperature.").max(40)]).nullable().optional(),
     /** Feed species that take no part in any reaction and only ride along (N2(g) in a reformer). */
     inert: z.array(speciesKey).max(20, "Use at most 20 inert species.").default([]),
   })
