@@ -22,12 +22,12 @@ export function CaseActions({ caseId, lockVersion, canSubmit, canRerun, status }
     <div className="flex flex-col items-end gap-1">
       <div className="flex flex-wrap gap-2">
         {canRerun && (
-          <Button variant="secondary" disabled={busy} onClick={() => go("rerun")} data-testid="rerun">
+          <Button variant="secondary" focusableWhenDisabled disabled={busy} onClick={() => go("rerun")} data-testid="rerun">
             {status === "approved" ? "Re-run on newer versions" : "Re-pin newer versions"}
           </Button>
         )}
         {canSubmit && (
-          <Button disabled={busy} onClick={() => go("submit")}>
+          <Button focusableWhenDisabled disabled={busy} onClick={() => go("submit")}>
             {status === "returned" ? "Resubmit for review" : "Submit for review"}
           </Button>
         )}

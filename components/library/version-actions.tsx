@@ -34,15 +34,15 @@ export function VersionActions({ versionId, modelId, allowed }: { versionId: num
     <div className="space-y-3" data-testid="version-actions">
       <div className="flex flex-wrap gap-2">
         {allowed.edit && <Button variant="secondary" onClick={() => router.push(`/library/versions/${versionId}/edit`)}>Edit draft</Button>}
-        {allowed.propose && <Button disabled={!!busy} onClick={() => run("propose", `/api/v1/versions/${versionId}/propose`)}>{busy === "propose" ? "Proposing…" : "Propose for approval"}</Button>}
+        {allowed.propose && <Button focusableWhenDisabled disabled={!!busy} onClick={() => run("propose", `/api/v1/versions/${versionId}/propose`)}>{busy === "propose" ? "Proposing…" : "Propose for approval"}</Button>}
         {allowed.decide && (
           <>
-            <Button disabled={!!busy} onClick={() => run("approve", `/api/v1/versions/${versionId}/approve`)}>{busy === "approve" ? "Approving…" : "Approve"}</Button>
-            <Button variant="danger" disabled={!!busy} onClick={() => setRejecting((r) => !r)}>Reject…</Button>
+            <Button focusableWhenDisabled disabled={!!busy} onClick={() => run("approve", `/api/v1/versions/${versionId}/approve`)}>{busy === "approve" ? "Approving…" : "Approve"}</Button>
+            <Button variant="danger" focusableWhenDisabled disabled={!!busy} onClick={() => setRejecting((r) => !r)}>Reject…</Button>
           </>
         )}
-        {allowed.newDraft && <Button variant="secondary" disabled={!!busy} onClick={() => run("draft", `/api/v1/models/${modelId}/versions`, { fromVersionId: versionId }, (id) => `/library/versions/${id}/edit`)}>New draft from this version</Button>}
-        {allowed.copy && <Button variant="secondary" disabled={!!busy} onClick={() => run("copy", `/api/v1/versions/${versionId}/copy`, undefined, (id) => `/library/versions/${id}/edit`)}>{busy === "copy" ? "Copying…" : "Copy into a team model"}</Button>}
+        {allowed.newDraft && <Button variant="secondary" focusableWhenDisabled disabled={!!busy} onClick={() => run("draft", `/api/v1/models/${modelId}/versions`, { fromVersionId: versionId }, (id) => `/library/versions/${id}/edit`)}>New draft from this version</Button>}
+        {allowed.copy && <Button variant="secondary" focusableWhenDisabled disabled={!!busy} onClick={() => run("copy", `/api/v1/versions/${versionId}/copy`, undefined, (id) => `/library/versions/${id}/edit`)}>{busy === "copy" ? "Copying…" : "Copy into a team model"}</Button>}
       </div>
       {allowed.ownWork && <p className="text-sm text-ink-muted" data-testid="own-work-note">You wrote this version, so another steward decides on it.</p>}
       {rejecting && (

@@ -9,6 +9,8 @@ export const WARNING_MEANINGS: Record<string, string> = {
   "reference-mismatch": "A species' stated anchor disagrees with the constants of its own segments.",
   "nonphysical-cp": "A model gives a heat capacity that is negative or implausible somewhere in the span.",
   "high-pressure": "K is the ideal-gas, 1 bar constant; at this pressure non-ideal corrections may matter.",
+  "equilibrium-not-converged":
+    "The solver did not settle on an outlet composition at some temperatures; the numbers shown there are its last attempt, not an equilibrium. Check the feed, the key species and the reaction set.",
 };
 
 export function warningMeaning(code: string): string {

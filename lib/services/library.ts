@@ -558,7 +558,9 @@ export async function copyReferenceVersion(actor: Actor | null, id: number): Pro
 // ------------------------------------------------------------------ curves
 
 export type CurvePoint = { tK: number; cpJ: number; hkJ: number; sJ: number; gkJ: number; phase: string; extrapolated: boolean };
-export type Curve = { points: CurvePoint[]; chains: { phase: string; tminK: number; tmaxK: number }[]; warnings: EngineWarning[]; fromK: number; toK: number };
+/** Where the stable phase changes along the curve (lowest G, or the stated transition), to 0.01 K. */
+export type PhaseChange = { tK: number; from: string; to: string };
+export type Curve = { points: CurvePoint[]; chains: { phase: string; tminK: number; tmaxK: number }[]; phaseChanges: PhaseChange[]; warnings: EngineWarning[]; fromK: number; toK: number };
 
 /** A plotting range around the model's own range: a little beyond it, so extrapolated stretches show. */
 export function defaultRange(data: SpeciesInput): [number, number] {
@@ -585,7 +587,22 @@ export function computeCurve(data: SpeciesInput, options: { fromK?: number; toK?
     const chain = chains.find((c) => c.phase === r.phase);
     return { tK: r.tK, cpJ: r.cpJ, hkJ: r.hkJ, sJ: r.sJ, gkJ: r.gkJ, phase: r.phase, extrapolated: !chain || r.tK < chain.tminK - 1e-9 || r.tK > chain.tmaxK + 1e-9 };
   });
-  return { points, chains, warnings, fromK, toK };
+  // Each change of the stable phase between two grid points, bisected on the engine's own choice of phase.
+  const phaseChanges: PhaseChange[] = [];
+  const phaseAt = (t: number) => speciesProperties(data, [t], options.phase ? { phase: options.phase } : {}).rows[0].phase;
+  for (let i = 0; i + 1 < points.length; i++) {
+    const [a, b] = [points[i], points[i + 1]];
+    if (a.phase === b.phase) continue;
+    let lo = a.tK;
+    let hi = b.tK;
+    while (hi - lo > 0.005) {
+      const mid = (lo + hi) / 2;
+      if (phaseAt(mid) === a.phase) lo = mid;
+      else hi = mid;
+    }
+    phaseChanges.push({ tK: Number(((lo + hi) / 2).toFixed(2)), from: a.phase, to: b.phase });
+  }
+  return { points, chains, phaseChanges, warnings, fromK, toK };
 }
 
 /** The editor's live curve: any signed-in member may compute; nothing is stored. */

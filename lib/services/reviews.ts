@@ -9,6 +9,7 @@ import type { DecisionInput } from "@/lib/validation/cases";
 import { recordAudit } from "./audit";
 import { caseReaction, getCase, listCases, type CaseDto, type CaseSummaryDto } from "./cases";
 import { enqueueMail } from "./mail";
+import { CAUTION_TEXT } from "@/lib/cases/caution";
 
 export type ReviewDto = { id: number; revision: number; decision: "approved" | "returned"; reason: string | null; reviewerName: string; at: string };
 export type DecisionSummaryDto = ReviewDto & { caseId: number; caseTitle: string; authorName: string };
@@ -84,6 +85,8 @@ export async function decideCase(actor: Actor | null, caseId: number, input: Dec
           reason ? `Reason: ${reason}` : `No reason given.`,
           ``,
           `Open the case: ${env.APP_URL.replace(/\/$/, "")}/cases/${row.id}`,
+          ``,
+          CAUTION_TEXT,
         ].join("\n"),
       });
     }

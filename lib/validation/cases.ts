@@ -117,5 +117,11 @@ export type CommentInput = z.infer<typeof commentSchema>;
 export const revisionParamSchema = z.coerce.number({ error: "Expected a revision number." }).int().positive("Expected a revision number.");
 /** Without from/to: the last two revisions. */
 export const diffQuerySchema = z.object({ from: revisionParamSchema.optional(), to: revisionParamSchema.optional() });
-export const exportQuerySchema = z.object({ revision: revisionParamSchema.optional() });
+export const exportQuerySchema = z
+  .object({
+    revision: revisionParamSchema.optional(),
+    /** Temperature column of the CSV: K (tK, the default), degC (tDegC) or degF (tDegF). */
+    unit: z.enum(["K", "degC", "degF"], { error: "Use a unit of K, degC or degF." }).optional(),
+  })
+  .strict();
 export const pinQuerySchema = z.object({ formula: z.string().trim().min(1).max(60).optional() });
