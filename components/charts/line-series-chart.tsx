@@ -1,6 +1,6 @@
 "use client";
 
-import { useState } from "react";
+import { useEffect, useRef, useState } from "react";
 import { Area, CartesianGrid, ComposedChart, Line, ReferenceArea, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
 
 /** Colours of the palette (tailwind.config.ts): ember = corrected, frost = naive, flag = beyond tolerance. */
@@ -51,7 +51,7 @@ const Y_AXIS_WIDTH = 64;
 const LABEL_FONT = 10;
 const LABEL_ROW = 12;
 /** Width of a label in px at 10 px Inter (about 0.56 em a character), with a little air. */
-const labelWidth = (s: string) => s.length * LABEL_FONT * 0.56 + 6;
+const labelWidth = (s: string) => s.length * LABEL_FONT * 0.6 + 8;
 
 type Placed = { row: number; anchor: "start" | "end" };
 
@@ -138,7 +138,17 @@ export function LineSeriesChart({
   testId,
   ariaLabel,
 }: LineSeriesChartProps) {
+  // The plot's own width, so the marks' labels are placed in pixels (a phone's plot is narrow).
+  const box = useRef<HTMLDivElement>(null);
   const [width, setWidth] = useState(600);
+  useEffect(() => {
+    const el = box.current;
+    if (!el) return;
+    setWidth(el.getBoundingClientRect().width || 600);
+    const observer = new ResizeObserver(([entry]) => setWidth(entry.contentRect.width));
+    observer.observe(el);
+    return () => observer.disconnect();
+  }, []);
   const tick = yTicks === "power10" ? power10 : plain;
   const allBands = band ? [band, ...bands] : bands;
   const xs = data.map((r) => r[xKey]).filter((v): v is number => typeof v === "number");
@@ -153,8 +163,8 @@ export function LineSeriesChart({
     <figure className="w-full break-inside-avoid" data-testid={testId} aria-label={ariaLabel} role="img">
       {/* An HTML legend above the plot wraps on a phone; the marks' labels stay inside the plot. */}
       <ChartLegend series={series} bands={allBands} extra={extra} />
-      <div style={{ height }} className="w-full">
-        <ResponsiveContainer width="100%" height="100%" onResize={(w) => setWidth(w)}>
+      <div style={{ height }} className="w-full" ref={box}>
+        <ResponsiveContainer width="100%" height="100%">
           <ComposedChart data={data} margin={MARGIN}>
             <CartesianGrid stroke={CHART_COLORS.line} strokeDasharray="2 4" />
             <XAxis
@@ -162,6 +172,7 @@ export function LineSeriesChart({
               type="number"
               domain={domain}
               ticks={xTicks}
+              interval={xTicks ? 0 : "preserveEnd"}
               allowDataOverflow={false}
               tickFormatter={plain}
               tick={{ fontSize: 11, fill: CHART_COLORS.muted }}

@@ -1,4 +1,5 @@
 import { LineSeriesChart, type SeriesSpec, type Stretch } from "@/components/charts/line-series-chart";
+import { niceTicks } from "@/lib/cases/display-unit";
 import { COLORS as CHART_COLORS, curveMarks, curveRows, extrapolatedStretches, phaseLabel, phaseMismatch, type CurveLike } from "./curve-rows";
 
 const fmt = (t: number) => `${Number(t.toFixed(2))} K`;
@@ -37,7 +38,10 @@ export function PropertyCharts({ a, b, labelA, labelB, stacked = false }: { a: C
     : stretches.length
       ? [{ name: "outside the model's range", color: CHART_COLORS.flag, opacity: 0.1 }]
       : [];
-  const common = { data: rows, xKey: "tK", xLabel: "T (K)", stretches, legendExtra, marksX: marks, height: stacked ? 200 : 240 };
+  const lo = a.points[0]?.tK ?? 0;
+  const hi = a.points[a.points.length - 1]?.tK ?? 1;
+  const xTicks = niceTicks(lo, hi, 7).filter((t) => t >= lo - 1e-9 && t <= hi + 1e-9);
+  const common = { data: rows, xKey: "tK", xLabel: "T (K)", xTicks, xDomain: [lo, hi] as [number, number], stretches, legendExtra, marksX: marks, height: stacked ? 200 : 240 };
   return (
     <div className="space-y-6">
       <div className={grid}>

@@ -43,7 +43,7 @@ export function ResultCharts({
         <h3 className={title}>ΔrG(T): corrected against naive</h3>
         <p className="mb-2 text-xs text-ink-muted">
           Solid ember: integrated heat capacities. Dashed frost: ΔrH(Tref) − T·ΔrS(Tref). Shaded between them: the difference, red where it is beyond tolerance
-          {s.anyOver ? "" : " (nowhere in this span)"}.
+          {s.anyOver ? (s.anyWithin ? "" : " (everywhere in this span)") : " (nowhere in this span)"}.
         </p>
         <LineSeriesChart
           testId="chart-dg"
@@ -52,7 +52,7 @@ export function ResultCharts({
           {...axis}
           yLabel="ΔrG (kJ/mol)"
           bands={[
-            { key: "band", name: "difference within tolerance", color: CHART_COLORS.ember, opacity: 0.18 },
+            ...(s.anyWithin ? [{ key: "band", name: "difference within tolerance", color: CHART_COLORS.ember, opacity: 0.18 }] : []),
             ...(s.anyOver ? [{ key: "bandOver", name: over, color: CHART_COLORS.flag, opacity: 0.3 }] : []),
           ]}
           series={[

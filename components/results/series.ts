@@ -46,7 +46,8 @@ export function chartSeries(result: EvaluateResult, unit: DisplayUnit) {
   const last = p.length ? x(p[p.length - 1].tK) : 1;
   const ticks = niceTicks(first, last, 6).filter((t) => t >= first - 1e-9 && t <= last + 1e-9);
   const anyOver = p.some((q) => q.exceedsTolerance);
-  return { dG, diff, logK, vantHoff, dH, dS, marks, ticks, domain: [first, last] as [number, number], anyOver, drawn: dG.length, total: p.length };
+  const anyWithin = p.some((q) => !q.exceedsTolerance);
+  return { dG, diff, logK, vantHoff, dH, dS, marks, ticks, domain: [first, last] as [number, number], anyOver, anyWithin, drawn: dG.length, total: p.length };
 }
 
 export function useChartSeries(result: EvaluateResult | undefined, unit: DisplayUnit = "K") {

@@ -558,7 +558,7 @@ export async function copyReferenceVersion(actor: Actor | null, id: number): Pro
 // ------------------------------------------------------------------ curves
 
 export type CurvePoint = { tK: number; cpJ: number; hkJ: number; sJ: number; gkJ: number; phase: string; extrapolated: boolean };
-/** Where the stable phase changes along the curve (lowest G, or the stated transition), to 0.01 K. */
+/** Where the stable phase changes along the curve (lowest G, or the stated transition), from the engine's phase-change-in-span warnings. */
 export type PhaseChange = { tK: number; from: string; to: string };
 export type Curve = { points: CurvePoint[]; chains: { phase: string; tminK: number; tmaxK: number }[]; phaseChanges: PhaseChange[]; warnings: EngineWarning[]; fromK: number; toK: number };
 
@@ -587,21 +587,11 @@ export function computeCurve(data: SpeciesInput, options: { fromK?: number; toK?
     const chain = chains.find((c) => c.phase === r.phase);
     return { tK: r.tK, cpJ: r.cpJ, hkJ: r.hkJ, sJ: r.sJ, gkJ: r.gkJ, phase: r.phase, extrapolated: !chain || r.tK < chain.tminK - 1e-9 || r.tK > chain.tmaxK + 1e-9 };
   });
-  // Each change of the stable phase between two grid points, bisected on the engine's own choice of phase.
-  const phaseChanges: PhaseChange[] = [];
-  const phaseAt = (t: number) => speciesProperties(data, [t], options.phase ? { phase: options.phase } : {}).rows[0].phase;
-  for (let i = 0; i + 1 < points.length; i++) {
-    const [a, b] = [points[i], points[i + 1]];
-    if (a.phase === b.phase) continue;
-    let lo = a.tK;
-    let hi = b.tK;
-    while (hi - lo > 0.005) {
-      const mid = (lo + hi) / 2;
-      if (phaseAt(mid) === a.phase) lo = mid;
-      else hi = mid;
-    }
-    phaseChanges.push({ tK: Number(((lo + hi) / 2).toFixed(2)), from: a.phase, to: b.phase });
-  }
+  // The engine names each change of the stable phase it makes inside the span (lowest G, or the stated transition).
+  const phaseChanges: PhaseChange[] = warnings.flatMap((w) => {
+    const x = w as { code: string; tK?: number; from?: string; to?: string };
+    return x.code === "phase-change-in-span" && x.tK !== undefined && x.from && x.to ? [{ tK: x.tK, from: x.from, to: x.to }] : [];
+  });
   return { points, chains, phaseChanges, warnings, fromK, toK };
 }
 
