@@ -110,6 +110,8 @@ export function ResultCharts({
             data={s.vantHoff}
             xKey="invT"
             xLabel="1000 / T (1/K)"
+            xTicks={s.invTicks}
+            xDomain={s.invDomain}
             yLabel="ln K"
             series={[
               { key: "lnK", name: "corrected", color: CHART_COLORS.ember },

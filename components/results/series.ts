@@ -45,9 +45,13 @@ export function chartSeries(result: EvaluateResult, unit: DisplayUnit) {
   const first = p.length ? x(p[0].tK) : 0;
   const last = p.length ? x(p[p.length - 1].tK) : 1;
   const ticks = niceTicks(first, last, 6).filter((t) => t >= first - 1e-9 && t <= last + 1e-9);
+  const invs = vantHoff.map((r) => r.invT);
+  const invLo = Math.min(...invs);
+  const invHi = Math.max(...invs);
+  const invTicks = niceTicks(invLo, invHi, 5).filter((t) => t >= invLo - 1e-9 && t <= invHi + 1e-9);
   const anyOver = p.some((q) => q.exceedsTolerance);
   const anyWithin = p.some((q) => !q.exceedsTolerance);
-  return { dG, diff, logK, vantHoff, dH, dS, marks, ticks, domain: [first, last] as [number, number], anyOver, anyWithin, drawn: dG.length, total: p.length };
+  return { dG, diff, logK, vantHoff, dH, dS, marks, ticks, domain: [first, last] as [number, number], anyOver, anyWithin, invTicks, invDomain: [invLo, invHi] as [number, number], drawn: dG.length, total: p.length };
 }
 
 export function useChartSeries(result: EvaluateResult | undefined, unit: DisplayUnit = "K") {

@@ -60,7 +60,8 @@ export function niceTicks(lo: number, hi: number, target = 6): number[] {
   if (hi - lo < 1e-9) return [Number(lo.toPrecision(12))];
   const raw = (hi - lo) / Math.max(1, target - 1);
   const mag = 10 ** Math.floor(Math.log10(raw));
-  const step = [1, 2, 2.5, 5, 10].map((m) => m * mag).find((s) => s >= raw) ?? 10 * mag;
+  // A relative slack, so float noise from a unit conversion (500.0000000000001) keeps the step at 100.
+  const step = [1, 2, 2.5, 5, 10].map((m) => m * mag).find((s) => s >= raw * (1 - 1e-9)) ?? 10 * mag;
   const out: number[] = [];
   const first = Math.ceil(lo / step - 1e-9) * step;
   for (let v = first; v <= hi + step * 1e-9; v += step) out.push(Number(v.toPrecision(12)));

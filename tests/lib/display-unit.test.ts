@@ -35,6 +35,7 @@ describe("display units", () => {
 
   it("gives round ticks, not the data's own end points (synthetic span 400–900 °C)", () => {
     expect(niceTicks(400, 900)).toEqual([400, 500, 600, 700, 800, 900]);
+    expect(niceTicks(673.15 - 273.15, 1173.15 - 273.15)).toEqual([400, 500, 600, 700, 800, 900]);
     expect(niceTicks(480, 700)).toEqual([500, 550, 600, 650, 700]);
     expect(niceTicks(-73.15, 26.85)).toEqual([-60, -40, -20, 0, 20]);
     for (const t of niceTicks(126.85, 1226.85)) expect(Number.isInteger(t / 100) || Number.isInteger(t / 250)).toBe(true);
