@@ -10,7 +10,7 @@ import { Button } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
 import { Field, Select, TextInput, inputClass } from "@/components/ui/field";
 import { EQUILIBRIUM_CAUTION_TEXT } from "@/lib/cases/caution";
-import { checkEquilibriumForm, checkSpeciesKey, FEED_UNIT_HINT } from "@/lib/cases/equilibrium-form";
+import { checkEquilibriumForm, checkReactionLine, checkSpeciesKey, FEED_UNIT_HINT } from "@/lib/cases/equilibrium-form";
 import { warningMeaning } from "@/lib/cases/warnings";
 import type { ResultsDto } from "@/lib/services/cases";
 import type { PinOptionDto } from "@/lib/services/pins";
@@ -131,7 +131,8 @@ export function EquilibriumPanel({
 
   const reactions = reactionsText.split("\n").map((l) => l.trim()).filter(Boolean);
   const reactionErrors = reactions.flatMap((_, i) => (errors[`reactions.${i}`] ? [`Line ${i + 1}: ${errors[`reactions.${i}`]}`] : []));
-  const extraKeys = [...new Set(reactions.flatMap(keysOfReaction))].filter((k) => !caseKeys.includes(k));
+  // Species come only from lines that read as reactions; a malformed line is flagged, not mined for names.
+  const extraKeys = [...new Set(reactions.filter((r) => checkReactionLine(r) === null).flatMap(keysOfReaction))].filter((k) => !caseKeys.includes(k));
   const feedKeys = [...new Set([...rows.map((r) => r.key), ...extraKeys])];
 
   const equilibrium = (): CaseEquilibrium => {
@@ -155,6 +156,9 @@ export function EquilibriumPanel({
     if (what === "trial" || what === "save") {
       // Every field is checked at once; nothing is sent while any is wrong.
       const found = checkEquilibriumForm({ amounts: Object.fromEntries(feedKeys.map((k) => [k, rows.find((r) => r.key === k)?.amount ?? "0"])), feedUnit: unit, pressure, key, reactions });
+      // An inert still waiting in its field to be added keeps its message.
+      const inert = newKey.trim() ? checkSpeciesKey(newKey) : null;
+      if (inert) found.inert = inert;
       setErrors(found);
       if (Object.keys(found).length) return;
     } else setErrors({});

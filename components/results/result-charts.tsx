@@ -24,7 +24,7 @@ export function ResultCharts({
   unit?: DisplayUnit;
   compact?: boolean;
 }) {
-  const s = useChartSeries(result, unit);
+  const s = useChartSeries(result, unit, toleranceKJ);
   if (!s) return null;
   const h = compact ? 210 : 280;
   const panel = "rounded-lg border border-ink-line bg-white p-3 break-inside-avoid print:border-ink-line";

@@ -15,7 +15,7 @@ export const DRAW_POINTS = 1200;
  * split into the part within tolerance and the part beyond it, so only the stretch that exceeds
  * the tolerance is shaded red (an empty column where it does not).
  */
-export function chartSeries(result: EvaluateResult, unit: DisplayUnit) {
+export function chartSeries(result: EvaluateResult, unit: DisplayUnit, toleranceKJ = 0) {
   const p = result.points;
   const x = (tK: number) => fromKelvin(tK, unit);
   const lo = (a: number, b: number) => Math.min(a, b);
@@ -28,7 +28,9 @@ export function chartSeries(result: EvaluateResult, unit: DisplayUnit) {
     ["corrected", "naive"],
     DRAW_POINTS,
   );
-  const diff = downsample(p.map((q) => ({ t: x(q.tK), diff: q.diffKJ, ...(q.exceedsTolerance ? { over: [lo(q.diffKJ, 0), hi(q.diffKJ, 0)] as [number, number] } : { over: null }) })), ["diff"], DRAW_POINTS);
+  // Beyond tolerance on the difference chart: from the tolerance line out to the curve (from zero when only the K factor is exceeded).
+  const beyond = (d: number): [number, number] => (d > toleranceKJ ? [toleranceKJ, d] : d < -toleranceKJ ? [d, -toleranceKJ] : [lo(d, 0), hi(d, 0)]);
+  const diff = downsample(p.map((q) => ({ t: x(q.tK), diff: q.diffKJ, over: q.exceedsTolerance ? beyond(q.diffKJ) : null })), ["diff"], DRAW_POINTS);
   const logK = downsample(p.map((q) => ({ t: x(q.tK), log10K: q.log10K, naiveLog10K: q.naiveLog10K })), ["log10K", "naiveLog10K"], DRAW_POINTS);
   const vantHoff = downsample(
     p.map((q) => ({ invT: 1000 / q.tK, lnK: q.lnK, naiveLnK: q.naiveLnK })).reverse(),
@@ -54,6 +56,6 @@ export function chartSeries(result: EvaluateResult, unit: DisplayUnit) {
   return { dG, diff, logK, vantHoff, dH, dS, marks, ticks, domain: [first, last] as [number, number], anyOver, anyWithin, invTicks, invDomain: [invLo, invHi] as [number, number], drawn: dG.length, total: p.length };
 }
 
-export function useChartSeries(result: EvaluateResult | undefined, unit: DisplayUnit = "K") {
-  return useMemo(() => (result ? chartSeries(result, unit) : null), [result, unit]);
+export function useChartSeries(result: EvaluateResult | undefined, unit: DisplayUnit = "K", toleranceKJ = 0) {
+  return useMemo(() => (result ? chartSeries(result, unit, toleranceKJ) : null), [result, unit, toleranceKJ]);
 }
