@@ -49,7 +49,8 @@ const plain = (v: number) => (Math.abs(v) >= 1e5 || (Math.abs(v) < 1e-3 && v !==
 const MARGIN = { top: 8, right: 16, bottom: 24, left: 8 };
 const Y_AXIS_WIDTH = 64;
 const LABEL_FONT = 10;
-const LABEL_ROW = 14;
+// A 10 px label with its white halo is about 18 px tall.
+const LABEL_ROW = 18;
 /** Width of a label in px at 10 px Inter (about 0.56 em a character), with a little air. */
 const labelWidth = (s: string) => s.length * LABEL_FONT * 0.6 + 8;
 

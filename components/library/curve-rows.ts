@@ -70,20 +70,40 @@ export function extrapolatedStretches(c: CurveLike, color?: string): Stretch[] {
   return out.filter((s) => s.x2 > s.x1);
 }
 
-/** Stretches where A and B sit in different phases, so their difference compares phases, not models. */
+/**
+ * Stretches where both models are inside their ranges (so the difference is drawn) but sit in
+ * different phases: there the difference compares phases, not models. Each stretch runs to the
+ * phase change that opens or closes it, or half-way to the neighbouring grid point.
+ */
 export function phaseMismatch(a: CurveLike, b: CurveLike): { x1: number; x2: number; phaseA: string; phaseB: string }[] {
+  const changes = [...(a.phaseChanges ?? []), ...(b.phaseChanges ?? [])].map((c) => c.tK);
+  const edge = (t1: number, t2: number) => changes.find((c) => c > Math.min(t1, t2) && c < Math.max(t1, t2)) ?? (t1 + t2) / 2;
   const out: { x1: number; x2: number; phaseA: string; phaseB: string }[] = [];
-  a.points.forEach((p, i) => {
+  const pts = a.points;
+  const differs = (i: number) => {
+    const p = pts[i];
     const q = b.points[i];
-    if (!q || p.phase === q.phase) return;
+    return !!p && !!q && !p.extrapolated && !q.extrapolated && p.phase !== q.phase;
+  };
+  for (let i = 0; i < pts.length; i++) {
+    if (!differs(i)) continue;
+    const q = b.points[i];
     const last = out[out.length - 1];
-    if (last && last.phaseA === p.phase && last.phaseB === q.phase && a.points[i - 1]?.tK === last.x2) last.x2 = p.tK;
-    else out.push({ x1: p.tK, x2: p.tK, phaseA: p.phase, phaseB: q.phase });
-  });
+    if (last && differs(i - 1) && last.phaseA === pts[i].phase && last.phaseB === q.phase) {
+      last.x2 = i + 1 < pts.length ? edge(pts[i].tK, pts[i + 1].tK) : pts[i].tK;
+      continue;
+    }
+    out.push({
+      x1: i > 0 ? edge(pts[i - 1].tK, pts[i].tK) : pts[i].tK,
+      x2: i + 1 < pts.length ? edge(pts[i].tK, pts[i + 1].tK) : pts[i].tK,
+      phaseA: pts[i].phase,
+      phaseB: q.phase,
+    });
+  }
   return out;
 }
 
-type RawMark = { x: number; text: string; color: string; dashed: boolean };
+type RawMark = { x: number; text: string; color: string; dashed: boolean; tag: string };
 
 /**
  * Range edges of each chain and every phase change inside the plotted span, of A and (overlaid)
@@ -97,10 +117,10 @@ export function curveMarks(a: CurveLike, b?: CurveLike, colors: { a: string; b: 
   const fmt = (t: number) => `${Number(t.toFixed(2))} K`;
   for (const [c, color, tag] of [[a, colors.a, b ? "A " : ""], ...(b ? ([[b, colors.b, "B "]] as const) : [])] as const) {
     for (const pc of c.phaseChanges ?? []) {
-      if (pc.tK > lo && pc.tK < hi) raw.push({ x: pc.tK, text: `${tag}${pc.from}→${pc.to} ${fmt(pc.tK)}`, color: COLORS.flag, dashed: false });
+      if (pc.tK > lo && pc.tK < hi) raw.push({ x: pc.tK, text: `${tag}${pc.from}→${pc.to} ${fmt(pc.tK)}`, color: COLORS.flag, dashed: false, tag: tag.trim() });
     }
     for (const ch of c.chains) {
-      for (const e of [ch.tminK, ch.tmaxK]) if (e > lo && e < hi) raw.push({ x: e, text: `${tag}${fmt(e)}`, color, dashed: true });
+      for (const e of [ch.tminK, ch.tmaxK]) if (e > lo && e < hi) raw.push({ x: e, text: `${tag}${fmt(e)}`, color, dashed: true, tag: tag.trim() });
     }
   }
   // Merge marks closer than 0.2 % of the span; a phase change outranks a bare range edge.
@@ -111,11 +131,11 @@ export function curveMarks(a: CurveLike, b?: CurveLike, colors: { a: string; b: 
   const flush = () => {
     if (!group.length) return;
     const head = group[0];
-    const texts = [...new Set(group.map((g) => g.text))];
-    // A bare edge repeated at the same temperature by both models reads once, untagged.
-    const edges = group.filter((g) => g.dashed).map((g) => g.text.replace(/^[AB] /, ""));
-    const changes = group.filter((g) => !g.dashed).map((g) => g.text);
-    const label = changes.length ? [...new Set(changes)].join(" · ") : edges.length === texts.length && new Set(edges).size === 1 ? edges[0] : texts.join(" · ");
+    const changes = [...new Set(group.filter((g) => !g.dashed).map((g) => g.text))];
+    // Range edges at one temperature read once: "200 K", "A 600 K", or "A, B 200 K" when both models end there.
+    const tags = [...new Set(group.filter((g) => g.dashed).map((g) => g.tag))].filter(Boolean).sort();
+    const edge = group.some((g) => g.dashed) ? `${tags.length ? `${tags.join(", ")} ` : ""}${fmt(head.x)}` : "";
+    const label = changes.length ? changes.join(" · ") : edge;
     out.push({ x: head.x, label, color: head.color, dashed: head.dashed });
     group = [];
   };
