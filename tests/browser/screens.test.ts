@@ -292,7 +292,6 @@ describe("the library overlay (item 14)", () => {
     }
     expect(said).toBe(true);
     expect(await page.getByTestId("phase-mismatch").textContent()).toContain("The difference compares different phases");
-    await shot(page, "screens-library-overlay-phases");
   });
 });
 
