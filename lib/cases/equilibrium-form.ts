@@ -13,7 +13,7 @@ const NUMBER = /^(?:\d+(?:\.\d*)?|\.\d+)(?:e[-+]?\d+)?(?:\/(?:\d+(?:\.\d*)?|\.\d
 export const FEED_UNIT_PATTERN = /^(mmol|mol|kmol|lbmol)(\/(s|min|h|d))?$/;
 export const FEED_UNIT_HINT = "mol, kmol, mmol or lbmol, optionally per s, min, h or d (kmol/h)";
 /** Pressure units the panel takes (absolute pressures; gauge units are refused). */
-export const PRESSURE_PATTERN = /^\s*((?:\d+(?:\.\d*)?|\.\d+)(?:e[-+]?\d+)?)\s*(bar|mbar|Pa|kPa|MPa|atm|psi)?\s*$/;
+export const PRESSURE_PATTERN = /^\s*([-+]?(?:\d+(?:\.\d*)?|\.\d+)(?:e[-+]?\d+)?)\s*(bar|mbar|Pa|kPa|MPa|atm|psi)?\s*$/;
 
 /** A species key such as `N2(g)` or `H2O`: a formula of real elements with an optional phase marker. */
 export function checkSpeciesKey(key: string): string | null {

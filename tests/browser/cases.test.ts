@@ -84,6 +84,8 @@ describe("engineer → reviewer journey", () => {
     await signIn(page, "rory.reviewer@example.test");
     // The request arrives by mail (the local catcher in demo mode); its link opens the case.
     await page.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "Outbox" }).click();
+    // Reloading before the client-side navigation lands would reload Home.
+    await page.waitForURL(/\/outbox$/);
     const mail = page.getByTestId("caught-message").filter({ hasText: `Review requested: ${TITLE} (revision 1)` }).first();
     for (let i = 0; i < 20 && (await mail.count()) === 0; i++) {
       await page.waitForTimeout(500);

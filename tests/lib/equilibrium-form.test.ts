@@ -15,6 +15,7 @@ describe("equilibrium panel checks", () => {
     expect(checkPressure(30)).toBeNull();
     expect(checkPressure("abc")).toContain("“abc” is not a pressure");
     expect(checkPressure("0 bar")).toBe("The pressure must be above 0.");
+    expect(checkPressure("-3 bar")).toBe("The pressure must be above 0.");
   });
 
   it("flags a reaction line that is not one, a coefficient that is not a number, and an unbalanced line", () => {
