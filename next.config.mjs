@@ -19,6 +19,10 @@ const nextConfig = {
   // Native and server-only packages stay outside the bundles (pg-hstore, sqlite3 bindings, numeric's globals).
   serverExternalPackages: ["sequelize", "sqlite3", "pg", "pg-hstore", "numeric", "smtp-server", "nodemailer", "mailparser", "umzug"],
   poweredByHeader: false,
+  // The app shows no remote or optimised images: the optimiser endpoint is off, so /_next/image answers 4xx.
+  images: { unoptimized: true },
+  // forbidden() in pages renders app/forbidden.tsx with status 403 (a reviewer opening /cases/new).
+  experimental: { authInterrupts: true },
   // `npm test` type-checks the whole project (tests included) with tsc first; the build need not do it again.
   typescript: { ignoreBuildErrors: true },
   async headers() {

@@ -148,6 +148,8 @@ export function isPostgres(): boolean {
 }
 
 /** A substring match that ignores case on both dialects, as SQLite's LIKE does: ILIKE on PostgreSQL. */
-export function containsText(text: string) {
+export function containsText(raw: string) {
+  // A NUL byte is an SQL error in both dialects; the search schemas refuse it, and this drops any that slip past.
+  const text = raw.replace(/\0/g, "");
   return isPostgres() ? { [Op.iLike]: `%${text}%` } : { [Op.like]: `%${text}%` };
 }

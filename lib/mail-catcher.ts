@@ -17,13 +17,17 @@ export function startMailCatcher(port: number): Promise<SMTPServer> {
       simpleParser(stream)
         .then(async (parsed) => {
           const to = session.envelope.rcptTo.map((r) => r.address);
+          const messageId = parsed.messageId ?? null;
+          // The link to the queue row decides whose outbox shows it; mail nobody queued links to nothing.
+          const row = messageId ? await models().MailMessage.findOne({ where: { messageId }, attributes: ["id"] }) : null;
           await models().CaughtMail.create({
             envelopeFrom: session.envelope.mailFrom ? session.envelope.mailFrom.address : null,
             envelopeTo: to.length ? to : addresses(parsed.to),
             subject: parsed.subject ?? "(no subject)",
             text: parsed.text ?? "",
-            messageId: parsed.messageId ?? null,
+            messageId,
             receivedAt: new Date(),
+            mailMessageId: row?.id ?? null,
           });
           callback();
         })

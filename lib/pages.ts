@@ -1,5 +1,17 @@
-import { notFound } from "next/navigation";
+import { forbidden, notFound } from "next/navigation";
+import { requireUser, type Actor } from "@/lib/auth/guards";
+import { can, type Action } from "@/lib/auth/permissions";
 import { AppError } from "@/lib/errors";
+
+/**
+ * For pages: a signed-in member whose role lacks `action` gets the framework's 403 page
+ * (app/forbidden.tsx), not the error page. Services still check again on every call.
+ */
+export function pagePermission(actor: Actor | null | undefined, action: Action): Actor {
+  const me = requireUser(actor);
+  if (!can(me.role, action)) forbidden();
+  return me;
+}
 
 /**
  * For pages: a service's 404 (a missing record, or another team's) becomes the

@@ -9,6 +9,8 @@ export class CaughtMail extends Model<InferAttributes<CaughtMail>, InferCreation
   declare text: string;
   declare messageId: string | null;
   declare receivedAt: Date;
+  /** The queue row that sent it (by Message-ID); null for mail Heatpath did not queue. */
+  declare mailMessageId: CreationOptional<number | null>;
 
   static initModel(sequelize: Sequelize): typeof CaughtMail {
     CaughtMail.init(
@@ -20,6 +22,7 @@ export class CaughtMail extends Model<InferAttributes<CaughtMail>, InferCreation
         text: { type: DataTypes.TEXT, allowNull: false },
         messageId: { type: DataTypes.STRING(300), allowNull: true },
         receivedAt: { type: DataTypes.DATE, allowNull: false },
+        mailMessageId: { type: DataTypes.INTEGER, allowNull: true },
       },
       { sequelize, tableName: "caught_mail", underscored: true, timestamps: false },
     );

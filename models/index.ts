@@ -10,6 +10,7 @@ import { RateLimit } from "./rate-limit";
 import { CpModel } from "./cp-model";
 import { Dataset } from "./dataset";
 import { ModelVersion } from "./model-version";
+import { ModelVersionContributor } from "./model-version-contributor";
 import { Species } from "./species";
 import { Invitation } from "./invitation";
 import { Membership } from "./membership";
@@ -27,6 +28,7 @@ export function defineModels(sequelize: Sequelize) {
   CpModel.initModel(sequelize);
   Dataset.initModel(sequelize);
   ModelVersion.initModel(sequelize);
+  ModelVersionContributor.initModel(sequelize);
   MailMessage.initModel(sequelize);
   CaughtMail.initModel(sequelize);
   RateLimit.initModel(sequelize);
@@ -57,8 +59,8 @@ export function defineModels(sequelize: Sequelize) {
   Case.hasMany(Comment, { foreignKey: "caseId", as: "comments" });
   Comment.belongsTo(User, { foreignKey: "authorId", as: "author" });
 
-  return { User, Team, Membership, Invitation, AuditEvent, Species, CpModel, Dataset, ModelVersion, MailMessage, CaughtMail, RateLimit, Case, CaseSnapshot, Review, Comment };
+  return { User, Team, Membership, Invitation, AuditEvent, Species, CpModel, Dataset, ModelVersion, ModelVersionContributor, MailMessage, CaughtMail, RateLimit, Case, CaseSnapshot, Review, Comment };
 }
 
 export type Models = ReturnType<typeof defineModels>;
-export type { AuditEvent, Case, CaseSnapshot, Comment, Review, CaughtMail, MailMessage, CpModel, Dataset, Invitation, Membership, ModelVersion, Species, Team, User };
+export type { AuditEvent, Case, CaseSnapshot, Comment, Review, CaughtMail, MailMessage, CpModel, Dataset, Invitation, Membership, ModelVersion, ModelVersionContributor, Species, Team, User };

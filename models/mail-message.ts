@@ -19,6 +19,8 @@ export class MailMessage extends Model<InferAttributes<MailMessage>, InferCreati
   declare claimedAt: Date | null;
   declare sentAt: Date | null;
   declare lastError: string | null;
+  /** The Message-ID the row is sent with; the catcher links what it receives back to this row by it. */
+  declare messageId: CreationOptional<string | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
@@ -38,6 +40,7 @@ export class MailMessage extends Model<InferAttributes<MailMessage>, InferCreati
         claimedAt: { type: DataTypes.DATE, allowNull: true },
         sentAt: { type: DataTypes.DATE, allowNull: true },
         lastError: { type: DataTypes.STRING(500), allowNull: true },
+        messageId: { type: DataTypes.STRING(200), allowNull: true },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

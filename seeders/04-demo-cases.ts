@@ -18,7 +18,7 @@ import type { SeedContext } from "./index";
  */
 type Term = { formula: string; phase: string | null; coefficient: number };
 /** An invented feed for the equilibrium panel; `extra` names species only the extra reactions use. */
-type DemoEquilibrium = Omit<CaseEquilibrium, "extraTerms"> & { extra: { formula: string; phase: string | null }[] };
+type DemoEquilibrium = Omit<CaseEquilibrium, "extraTerms" | "inert"> & { extra: { formula: string; phase: string | null }[]; inert?: string[] };
 type Plan = {
   title: string;
   notes: string;
@@ -74,6 +74,7 @@ export const DEMO_CASES: Plan[] = [
       key: "CO(g)",
       reactions: [],
       extra: [],
+      inert: ["CH4(g)"],
     },
   },
   {
@@ -191,7 +192,7 @@ export async function seed(ctx: SeedContext): Promise<void> {
       if (plan.equilibrium) {
         const { extra, ...eq } = plan.equilibrium;
         const extraPins = pins.slice(plan.terms.length);
-        inputs.equilibrium = { ...eq, extraTerms: extra.map((t, i) => ({ ...t, versionId: extraPins[i].versionId })) };
+        inputs.equilibrium = { ...eq, inert: eq.inert ?? [], extraTerms: extra.map((t, i) => ({ ...t, versionId: extraPins[i].versionId })) };
       }
       const { title: _t, notes: _n, ...stored } = inputs;
       const row = await Case.create({ teamId: team.id, authorId: erin.id, title: plan.title, notes: plan.notes, status: plan.flow, inputs: stored, lockVersion: plan.flow === "draft" ? 0 : plan.flow === "submitted" ? 1 : 2 }, { transaction });

@@ -148,6 +148,8 @@ export function EquilibriumPanel({
       key: key || null,
       reactions,
       extraTerms,
+      // Feed rows that are in no reaction were added as inert species: say so, or the server refuses them.
+      inert: feedKeys.filter((k) => !caseKeys.includes(k) && !extraKeys.includes(k)),
     };
   };
 

@@ -4,6 +4,8 @@ import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { Button } from "@/components/ui/button";
 import { inputClass } from "@/components/ui/field";
+import { approveVersionAction, rejectVersionAction } from "@/app/(app)/library/versions/[id]/actions";
+import type { ActionState } from "@/lib/actions";
 
 type Allowed = { edit: boolean; propose: boolean; decide: boolean; newDraft: boolean; copy: boolean; ownWork: boolean };
 
@@ -30,6 +32,19 @@ export function VersionActions({ versionId, modelId, allowed }: { versionId: num
     else router.refresh();
   };
 
+  // Decisions go through server actions; the service checks the four-eyes rule either way.
+  const decide = async (what: string, action: (prev: ActionState, form: FormData) => Promise<ActionState>, fields: Record<string, string>) => {
+    setBusy(what);
+    setError(null);
+    const form = new FormData();
+    form.set("versionId", String(versionId));
+    for (const [k, v] of Object.entries(fields)) form.set(k, v);
+    const state = await action({ ok: false }, form);
+    setBusy(null);
+    if (!state.ok) return setError(state.message ?? Object.values(state.fieldErrors ?? {})[0] ?? "That did not work.");
+    router.refresh();
+  };
+
   return (
     <div className="space-y-3" data-testid="version-actions">
       <div className="flex flex-wrap gap-2">
@@ -37,20 +52,20 @@ export function VersionActions({ versionId, modelId, allowed }: { versionId: num
         {allowed.propose && <Button focusableWhenDisabled disabled={!!busy} onClick={() => run("propose", `/api/v1/versions/${versionId}/propose`)}>{busy === "propose" ? "Proposing…" : "Propose for approval"}</Button>}
         {allowed.decide && (
           <>
-            <Button focusableWhenDisabled disabled={!!busy} onClick={() => run("approve", `/api/v1/versions/${versionId}/approve`)}>{busy === "approve" ? "Approving…" : "Approve"}</Button>
+            <Button focusableWhenDisabled disabled={!!busy} onClick={() => decide("approve", approveVersionAction, {})}>{busy === "approve" ? "Approving…" : "Approve"}</Button>
             <Button variant="danger" focusableWhenDisabled disabled={!!busy} onClick={() => setRejecting((r) => !r)}>Reject…</Button>
           </>
         )}
         {allowed.newDraft && <Button variant="secondary" focusableWhenDisabled disabled={!!busy} onClick={() => run("draft", `/api/v1/models/${modelId}/versions`, { fromVersionId: versionId }, (id) => `/library/versions/${id}/edit`)}>New draft from this version</Button>}
         {allowed.copy && <Button variant="secondary" focusableWhenDisabled disabled={!!busy} onClick={() => run("copy", `/api/v1/versions/${versionId}/copy`, undefined, (id) => `/library/versions/${id}/edit`)}>{busy === "copy" ? "Copying…" : "Copy into a team model"}</Button>}
       </div>
-      {allowed.ownWork && <p className="text-sm text-ink-muted" data-testid="own-work-note">You wrote this version, so another steward decides on it.</p>}
+      {allowed.ownWork && <p className="text-sm text-ink-muted" data-testid="own-work-note">You wrote, changed or proposed this version, so another steward decides on it.</p>}
       {rejecting && (
         <form
           className="space-y-2"
           onSubmit={(e) => {
             e.preventDefault();
-            run("reject", `/api/v1/versions/${versionId}/reject`, { reason });
+            decide("reject", rejectVersionAction, { reason });
           }}
         >
           <label htmlFor="reject-reason" className="block text-sm font-medium text-ink-soft">Reason for the author</label>

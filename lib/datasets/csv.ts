@@ -68,6 +68,12 @@ export function headerCpUnit(cell: string): CpUnit | null {
 }
 
 const isNumberCell = (s: string) => /^\s*[-+]?(\d+([.,]\d*)?|[.,]\d+)([eE][-+]?\d+)?\s*$/.test(s);
+/** A cell as quoted back in a message: long cells are cut, so one bad cell cannot make a megabyte message. */
+const shown = (s: string) => {
+  const t = s.trim();
+  return t.length > 24 ? `${t.slice(0, 20)}… (${t.length} characters)` : t;
+};
+
 /** A decimal comma is accepted when the delimiter is not a comma (European spreadsheets). */
 const toNumber = (s: string) => Number(s.trim().replace(",", "."));
 
@@ -165,19 +171,23 @@ export function readDatasetRows(table: string[][], options: ParseOptions = {}): 
     if (cells.length < Math.max(tCol, cpCol) + 1) {
       fail(undefined, `Row ${line}: expected ${width} columns, found ${cells.length}.`);
     } else {
-      if (!isNumberCell(t)) fail(names.t, `Row ${line}, column "${names.t}": "${t.trim()}" is not a number.`);
-      if (!isNumberCell(cp)) fail(names.cp, `Row ${line}, column "${names.cp}": "${cp.trim()}" is not a number.`);
+      if (!isNumberCell(t)) fail(names.t, `Row ${line}, column "${names.t}": "${shown(t)}" is not a number.`);
+      if (!isNumberCell(cp)) fail(names.cp, `Row ${line}, column "${names.cp}": "${shown(cp)}" is not a number.`);
       if (!row.error) {
         row.tK = toKelvin(toNumber(t), tUnit);
         row.cpJ = toJPerMolK(toNumber(cp), cpUnit);
-        if (!(row.tK > 0)) fail(names.t, `Row ${line}, column "${names.t}": ${t.trim()} ${tUnit === "K" ? "K" : tUnit === "degC" ? "°C" : "°F"} is at or below 0 K.`);
-        if (!(row.cpJ > 0)) fail(names.cp, `Row ${line}, column "${names.cp}": a heat capacity must be positive (got ${cp.trim()}).`);
+        // A cell of hundreds of digits reads as Infinity, which no fit can use (and JSON stores as null).
+        if (!Number.isFinite(row.tK)) fail(names.t, `Row ${line}, column "${names.t}": "${shown(t)}" is too large to be a temperature.`);
+        else if (!(row.tK > 0)) fail(names.t, `Row ${line}, column "${names.t}": ${t.trim()} ${tUnit === "K" ? "K" : tUnit === "degC" ? "°C" : "°F"} is at or below 0 K.`);
+        if (!Number.isFinite(row.cpJ)) fail(names.cp, `Row ${line}, column "${names.cp}": "${shown(cp)}" is too large to be a heat capacity.`);
+        else if (!(row.cpJ > 0)) fail(names.cp, `Row ${line}, column "${names.cp}": a heat capacity must be positive (got ${shown(cp)}).`);
       }
       if (sigma !== undefined && sigma.trim() !== "") {
-        if (!isNumberCell(sigma)) fail(names.sigma, `Row ${line}, column "${names.sigma}": "${sigma.trim()}" is not a number.`);
+        if (!isNumberCell(sigma)) fail(names.sigma, `Row ${line}, column "${names.sigma}": "${shown(sigma)}" is not a number.`);
         else {
           row.sigmaJ = toJPerMolK(toNumber(sigma), cpUnit);
-          if (!(row.sigmaJ > 0)) fail(names.sigma, `Row ${line}, column "${names.sigma}": an uncertainty must be positive (got ${sigma.trim()}).`);
+          if (!Number.isFinite(row.sigmaJ)) fail(names.sigma, `Row ${line}, column "${names.sigma}": "${shown(sigma)}" is too large to be an uncertainty.`);
+          else if (!(row.sigmaJ > 0)) fail(names.sigma, `Row ${line}, column "${names.sigma}": an uncertainty must be positive (got ${sigma.trim()}).`);
         }
       }
     }

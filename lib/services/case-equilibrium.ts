@@ -4,6 +4,7 @@ import { requirePermission, type Actor } from "@/lib/auth/guards";
 import { parseWith } from "@/lib/http";
 import { evaluate, type EvaluateResult } from "@/lib/thermo";
 import { caseEquilibriumSchema } from "@/lib/validation/equilibrium";
+import { caseInputSchema } from "@/lib/validation/cases";
 import { buildRequest, getCase, updateCase, type CaseDto } from "./cases";
 import { pinTerms } from "@/lib/cases/equilibrium";
 import { loadPins } from "./pins";
@@ -27,7 +28,9 @@ export async function previewCaseEquilibrium(actor: Actor | null, readBody: () =
   const me = requirePermission(actor, "evaluate.run");
   const body = parseWith(previewSchema, await readBody());
   const c = await getCase(me, body.caseId);
-  const inputs = { ...c.inputs, equilibrium: body.equilibrium };
+  // The whole case with this feed, checked as a case edit is (feed keys against the reaction's species).
+  const { equilibrium } = parseWith(caseInputSchema, { title: c.title, notes: c.notes, ...c.inputs, equilibrium: body.equilibrium });
+  const inputs = { ...c.inputs, equilibrium };
   const pins = await loadPins(me.teamId, pinTerms(inputs), { allowAny: true });
   return evaluate(buildRequest(inputs, pins));
 }
@@ -37,6 +40,7 @@ export async function saveCaseEquilibrium(actor: Actor | null, caseId: number, r
   const me = requirePermission(actor, "cases.create");
   const body = parseWith(saveSchema, await readBody());
   const c = await getCase(me, caseId);
+  parseWith(caseInputSchema, { title: c.title, notes: c.notes, ...c.inputs, equilibrium: body.equilibrium });
   if (body.equilibrium?.extraTerms.length) {
     // Extra species must be visible and current, as a new pin would be.
     await loadPins(me.teamId, body.equilibrium.extraTerms.map((t) => ({ ...t, coefficient: 1 })));

@@ -22,6 +22,7 @@ import {
 } from "@/lib/validation/library";
 import type { CpModel, ModelVersion, Species } from "@/models";
 import type { VersionStatus, VersionUncertainty } from "@/models/model-version";
+import { CONTRIBUTOR_ROLES, type ContributorRole } from "@/models/model-version-contributor";
 import { recordAudit } from "./audit";
 import { notifyDecided, notifyProposed } from "./library-mail";
 
@@ -41,6 +42,8 @@ export type VersionSummaryDto = {
   changeNote: string | null;
   updatedAt: string;
 };
+/** Someone who changed or proposed a version, with each part they took (docs/library.md, four-eyes). */
+export type ContributorDto = { userId: number; name: string; roles: ContributorRole[] };
 export type VersionDto = VersionSummaryDto & {
   modelId: number;
   scope: Scope;
@@ -56,6 +59,8 @@ export type VersionDto = VersionSummaryDto & {
   decidedAt: string | null;
   lockVersion: number;
   createdAt: string;
+  /** Author, editors, proposer and contributors of an unapproved version it was started from: none may decide on it. */
+  contributors: ContributorDto[];
   model: ModelSummaryDto;
   species: SpeciesDto;
 };
@@ -132,11 +137,31 @@ function versionSummary(v: ModelVersion, names: Map<number, string>): VersionSum
   };
 }
 
+// ------------------------------------------------------------------ contributors (four-eyes)
+
+/** Record one person's part in a version, once; the caller holds the transaction. */
+async function addContributor(transaction: Transaction, versionId: number, userId: number, role: ContributorRole): Promise<void> {
+  await models().ModelVersionContributor.findOrCreate({ where: { versionId, userId, role }, defaults: { versionId, userId, role }, transaction });
+}
+
+/**
+ * Who took part in a version, author first, then in the order they joined. The
+ * version's authorId always counts, also for rows written before contributors were recorded.
+ */
+async function contributorsOf(v: ModelVersion, transaction?: Transaction): Promise<{ userId: number; roles: ContributorRole[] }[]> {
+  const rows = await models().ModelVersionContributor.findAll({ where: { versionId: v.id }, order: [["id", "ASC"]], transaction });
+  const byUser = new Map<number, Set<ContributorRole>>();
+  if (v.authorId != null) byUser.set(v.authorId, new Set(["author"]));
+  for (const r of rows) byUser.set(r.userId, (byUser.get(r.userId) ?? new Set<ContributorRole>()).add(r.role));
+  return [...byUser].map(([userId, roles]) => ({ userId, roles: CONTRIBUTOR_ROLES.filter((x) => roles.has(x)) }));
+}
+
 async function versionDto(v: ModelVersion, transaction?: Transaction): Promise<VersionDto> {
   const { CpModel, Species } = models();
   const model = v.model ?? (await CpModel.findByPk(v.modelId, { transaction }))!;
   const species = model.species ?? (await Species.findByPk(model.speciesId, { transaction }))!;
-  const names = await userNames([v.authorId, v.decidedById], transaction);
+  const contributors = await contributorsOf(v, transaction);
+  const names = await userNames([v.authorId, v.decidedById, ...contributors.map((c) => c.userId)], transaction);
   return {
     ...versionSummary(v, names),
     modelId: v.modelId,
@@ -153,9 +178,16 @@ async function versionDto(v: ModelVersion, transaction?: Transaction): Promise<V
     decidedAt: v.decidedAt?.toISOString() ?? null,
     lockVersion: v.lockVersion,
     createdAt: v.createdAt.toISOString(),
+    contributors: contributors.map((c) => ({ userId: c.userId, name: names.get(c.userId) ?? "—", roles: c.roles })),
     model: modelSummary(model),
     species: speciesDto(species),
   };
+}
+
+/** Ids of the versions this user took part in; they are never theirs to decide. */
+export async function contributedVersionIds(userId: number): Promise<number[]> {
+  const rows = await models().ModelVersionContributor.findAll({ where: { userId }, attributes: ["versionId"] });
+  return [...new Set(rows.map((r) => r.versionId))];
 }
 
 /** The global reference library and the actor's own team. */
@@ -332,6 +364,8 @@ export async function insertDraft(me: Actor, model: CpModel, fields: DraftFields
     actorId: me.userId,
     after: { modelId: model.id, versionNumber: version.versionNumber, status: "draft", ...extra },
   });
+  // Whoever creates, copies, fits or imports a draft is its author.
+  await addContributor(transaction, version.id, me.userId, "author");
   return version;
 }
 
@@ -373,8 +407,9 @@ export async function createVersion(actor: Actor | null, modelId: number, input:
     if (model.teamId === null) throw new AppError(403, "read-only", READ_ONLY);
     let fields: DraftFields;
     let extra: Record<string, unknown> | undefined;
+    let from: ModelVersion | null = null;
     if ("fromVersionId" in input) {
-      const from = await models().ModelVersion.findByPk(input.fromVersionId, { transaction });
+      from = await models().ModelVersion.findByPk(input.fromVersionId, { transaction });
       if (!from || from.modelId !== model.id) throw notFound("Model version");
       fields = { data: from.data, citation: from.citation, uncertainty: from.uncertainty, changeNote: null, datasetId: from.datasetId };
       extra = { fromVersionId: from.id };
@@ -382,6 +417,10 @@ export async function createVersion(actor: Actor | null, modelId: number, input:
       fields = versionInputSchema.parse(input) as DraftFields;
     }
     const version = await insertDraft(me, model, fields, transaction, "model-version.created", extra);
+    // Content nobody has checked yet brings its contributors along: copying a draft does not launder it.
+    if (from && from.status !== "approved" && from.status !== "superseded") {
+      for (const c of await contributorsOf(from, transaction)) if (c.userId !== me.userId) await addContributor(transaction, version.id, c.userId, "source");
+    }
     version.model = model;
     return versionDto(version, transaction);
   });
@@ -453,6 +492,7 @@ export async function editVersion(actor: Actor | null, id: number, raw: EditVers
       throw conflict(`Someone saved version ${version.versionNumber} after you opened it; review their changes and edit again.`, { current: await versionDto(current, transaction) });
     }
     await recordAudit(transaction, { action: "model-version.edited", entityType: "model-version", entityId: id, teamId: me.teamId, actorId: me.userId, before, after: changes });
+    await addContributor(transaction, id, me.userId, "editor");
     return versionDto(await loadVersion(me, id, transaction), transaction);
   });
 }
@@ -476,6 +516,7 @@ export async function proposeVersion(actor: Actor | null, id: number): Promise<V
     version.lockVersion += 1;
     await version.save({ transaction });
     await recordAudit(transaction, { action: "model-version.proposed", entityType: "model-version", entityId: id, teamId: me.teamId, actorId: me.userId, before: { status: "draft" }, after: { status: "proposed" } });
+    await addContributor(transaction, id, me.userId, "proposer");
     const dto = await versionDto(version, transaction);
     await notifyProposed(transaction, me, dto);
     return dto;
@@ -486,6 +527,10 @@ async function loadForDecision(me: Actor, id: number, transaction: Transaction):
   const version = await loadVersion(me, id, transaction);
   if (version.teamId === null) throw new AppError(403, "read-only", READ_ONLY);
   requireNotAuthor(me, version.authorId, "You wrote this version: another steward must approve or reject it.");
+  // Four-eyes: nobody who changed the content or proposed it decides on it.
+  if ((await contributorsOf(version, transaction)).some((c) => c.userId === me.userId)) {
+    throw new AppError(403, "own-work", "You changed or proposed this version: another steward must approve or reject it.");
+  }
   if (version.status !== "proposed") throw conflict(`Version ${version.versionNumber} is ${version.status}; only a proposed version can be decided.`);
   return version;
 }

@@ -15,6 +15,9 @@ const MAX_ATTEMPTS = 6;
 const STALE_CLAIM_MS = 120_000;
 const KICK = Symbol.for("heatpath.mail.kick");
 
+/** An unguessable Message-ID per queue row: what the catcher receives is linked back to the row by it. */
+const newMessageId = () => `<${crypto.randomBytes(16).toString("hex")}@heatpath.mail>`;
+
 /**
  * Queue messages inside the caller's transaction: they exist exactly when the
  * action committed, and a mail failure can neither lose nor block the action.
@@ -24,7 +27,19 @@ export async function enqueueMail(transaction: Transaction, input: MailInput): P
   const recipients = [...new Set(Array.isArray(input.to) ? input.to : [input.to])];
   for (const to of recipients) {
     await models().MailMessage.create(
-      { teamId: input.teamId ?? null, kind: input.kind, recipients: [to], subject: input.subject, body: input.text, nextAttemptAt: new Date(), claimToken: null, claimedAt: null, sentAt: null, lastError: null },
+      {
+        teamId: input.teamId ?? null,
+        kind: input.kind,
+        recipients: [to],
+        subject: input.subject,
+        body: input.text,
+        nextAttemptAt: new Date(),
+        claimToken: null,
+        claimedAt: null,
+        sentAt: null,
+        lastError: null,
+        messageId: newMessageId(),
+      },
       { transaction },
     );
   }
@@ -87,7 +102,7 @@ export async function deliverDueMail(transport: Transporter): Promise<{ sent: nu
     const message = await MailMessage.findByPk(id);
     if (!message) continue;
     try {
-      await transport.sendMail({ from: env.MAIL_FROM, to: message.recipients, subject: message.subject, text: message.body });
+      await transport.sendMail({ from: env.MAIL_FROM, to: message.recipients, subject: message.subject, text: message.body, messageId: message.messageId ?? undefined });
       await message.update({ status: "sent", sentAt: new Date(), claimToken: null, lastError: null });
       sent += 1;
     } catch (error) {
@@ -109,21 +124,25 @@ export type CaughtMailDto = { id: number; to: string[]; subject: string; text: s
 export type OutboxDto = { caught: CaughtMailDto[]; queue: { queued: number; sending: number; sent: number; failed: number }; scope: "team" | "mine"; recentFailures: { id: number; subject: string; to: string[]; attempts: number; lastError: string | null }[] };
 
 /**
- * What the local catcher received. Admins see the team's mail (members and
- * invitees); everyone else sees the messages addressed to them. The catcher is
- * shared by the whole demo install, so messages are filtered by address.
+ * What the local catcher received, for mail this team's own actions queued:
+ * each caught message is linked to its queue row (by Message-ID, on arrival)
+ * and the row carries the team whose action queued it. Admins see all of
+ * their team's mail; everyone else sees their team's mail addressed to them.
+ * Nothing is matched by recipient address, so another team mailing the same
+ * address never sees this team's messages, nor this team theirs.
  */
 export async function listOutbox(actor: Actor | null, limit = 50): Promise<OutboxDto> {
   const me = requireUser(actor);
   const everything = can(me.role, "outbox.view");
   const { CaughtMail, MailMessage } = models();
   const teamMail = await MailMessage.findAll({ where: { teamId: me.teamId } });
-  const mine = (m: { recipients: string[] }) => everything || m.recipients.includes(me.email);
-  const addresses = new Set(teamMail.filter(mine).flatMap((m) => m.recipients));
-  const caught = (await CaughtMail.findAll({ order: [["id", "DESC"]], limit: 500 })).filter((c) => c.envelopeTo.some((a) => addresses.has(a) && (everything || a === me.email))).slice(0, limit);
+  const shown = teamMail.filter((m) => everything || m.recipients.includes(me.email));
+  const caught = shown.length
+    ? (await CaughtMail.findAll({ where: { mailMessageId: shown.map((m) => m.id) }, order: [["id", "DESC"]], limit })).filter((c) => everything || c.envelopeTo.includes(me.email))
+    : [];
   const queue = { queued: 0, sending: 0, sent: 0, failed: 0 };
-  for (const m of teamMail.filter(mine)) queue[m.status as keyof typeof queue] += 1;
-  const failures = teamMail.filter((m) => mine(m) && m.lastError !== null).sort((a, b) => b.id - a.id).slice(0, 10);
+  for (const m of shown) queue[m.status as keyof typeof queue] += 1;
+  const failures = shown.filter((m) => m.lastError !== null).sort((a, b) => b.id - a.id).slice(0, 10);
   return {
     caught: caught.map((c) => ({ id: c.id, to: c.envelopeTo, subject: c.subject, text: c.text, receivedAt: c.receivedAt.toISOString() })),
     queue,

@@ -8,6 +8,7 @@ import { AppError, conflict, notFound } from "@/lib/errors";
 import type { DecisionInput } from "@/lib/validation/cases";
 import { recordAudit } from "./audit";
 import { caseReaction, getCase, listCases, type CaseDto, type CaseSummaryDto } from "./cases";
+import { contributedVersionIds } from "./library";
 import { enqueueMail } from "./mail";
 import { CAUTION_TEXT } from "@/lib/cases/caution";
 
@@ -136,7 +137,7 @@ export async function homeCounts(actor: Actor | null) {
   let proposals = 0;
   if (can(me.role, "models.decide")) {
     proposals = await models().ModelVersion.count({
-      where: { teamId: me.teamId, status: "proposed", [Op.or]: [{ authorId: null }, { authorId: { [Op.ne]: me.userId } }] },
+      where: { teamId: me.teamId, status: "proposed", id: { [Op.notIn]: await contributedVersionIds(me.userId) }, [Op.or]: [{ authorId: null }, { authorId: { [Op.ne]: me.userId } }] },
     });
   }
   return { drafts, reviews, proposals, decisions: await recentDecisions(me) };

@@ -2,7 +2,8 @@
 import { z } from "zod";
 import { elementBalance, termKey } from "@/lib/cases/balance";
 import { splitQuantity, toKelvin, toKelvinDifference, type Quantity } from "@/lib/cases/temperature";
-import { caseEquilibriumSchema } from "./equilibrium";
+import { caseEquilibriumSchema, feedKeyIssues } from "./equilibrium";
+import { oneLine, searchText } from "./text";
 
 export const CASE_STATUSES = ["draft", "submitted", "approved", "returned"] as const;
 export type CaseStatus = (typeof CASE_STATUSES)[number];
@@ -59,7 +60,7 @@ export type CaseTemperatures = z.infer<typeof caseTemperaturesSchema>;
 
 export const caseInputSchema = z
   .object({
-    title: z.string({ error: "Give the case a title." }).trim().min(1, "Give the case a title.").max(160, "Use at most 160 characters."),
+    title: oneLine(z.string({ error: "Give the case a title." }).trim().min(1, "Give the case a title.").max(160, "Use at most 160 characters.")),
     notes: z.string().trim().max(5000, "Use at most 5000 characters.").default(""),
     terms: z.array(termSchema).min(2, "A reaction needs at least two species.").max(20, "Use at most 20 species."),
     temperatures: caseTemperaturesSchema,
@@ -81,6 +82,9 @@ export const caseInputSchema = z
     // Rows without a species already say "Pick a species."; the balance waits for them.
     const balance = v.terms.every((t) => t.formula) ? elementBalance(v.terms) : null;
     if (balance && !balance.ok) ctx.addIssue({ code: "custom", path: ["terms"], message: balance.message });
+    if (v.equilibrium) {
+      for (const issue of feedKeyIssues(v.terms.map(termKey), v.equilibrium)) ctx.addIssue({ code: "custom", path: ["equilibrium", ...issue.path], message: issue.message });
+    }
   });
 export type CaseInput = z.infer<typeof caseInputSchema>;
 /** What a case stores as its inputs (title and notes live on the case row). */
@@ -126,4 +130,4 @@ export const exportQuerySchema = z
     unit: z.enum(["K", "degC", "degF"], { error: "Use a unit of K, degC or degF." }).optional(),
   })
   .strict();
-export const pinQuerySchema = z.object({ formula: z.string().trim().min(1).max(60).optional() });
+export const pinQuerySchema = z.object({ formula: searchText(60).pipe(z.string().min(1)).optional() });

@@ -26,6 +26,8 @@ export const caseEquilibriumSchema = z
     reactions: z.array(z.string().trim().min(1, "Write the reaction.").max(400, "Use at most 400 characters.")).max(12, "Use at most 12 reactions.").default([]),
     /** Pinned versions for species that appear only in the extra reactions. */
     extraTerms: z.array(extraTermSchema).max(20, "Use at most 20 extra species.").default([]),
+    /** Feed species that take no part in any reaction and only ride along (N2(g) in a reformer). */
+    inert: z.array(speciesKey).max(20, "Use at most 20 inert species.").default([]),
   })
   .superRefine((v, ctx) => {
     // The panel's own checks, so the API refuses an unknown element, unit or a malformed line too.
@@ -45,3 +47,23 @@ export const caseEquilibriumSchema = z
     if (v.key !== null && !(v.feed[v.key] > 0)) ctx.addIssue({ code: "custom", path: ["key"], message: "The key species needs an amount in the feed." });
   });
 export type CaseEquilibrium = z.infer<typeof caseEquilibriumSchema>;
+
+/**
+ * Feed keys must name a species of the case's reaction, of the extra reactions (their pinned
+ * extraTerms), or a stated inert; anything else (a typo such as "C0(g)") is refused, one field
+ * error per key. `reactionKeys` are the case's own term keys, formula(phase).
+ */
+export function feedKeyIssues(reactionKeys: readonly string[], eq: Pick<CaseEquilibrium, "feed" | "extraTerms" | "inert">): { path: (string | number)[]; message: string }[] {
+  const known = new Set([...reactionKeys, ...eq.extraTerms.map((t) => (t.phase ? `${t.formula}(${t.phase})` : t.formula))]);
+  const inert = new Set(eq.inert);
+  const issues: { path: (string | number)[]; message: string }[] = [];
+  for (const key of Object.keys(eq.feed)) {
+    if (known.has(key) || inert.has(key)) continue;
+    issues.push({ path: ["feed", key], message: `"${key}" is not a species of the reaction(s); list it as an inert species if it only rides along.` });
+  }
+  eq.inert.forEach((key, i) => {
+    if (known.has(key)) issues.push({ path: ["inert", i], message: `"${key}" takes part in the reaction(s), so it cannot be inert.` });
+    else if (!(key in eq.feed)) issues.push({ path: ["inert", i], message: `"${key}" has no amount in the feed.` });
+  });
+  return issues;
+}

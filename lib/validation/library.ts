@@ -4,6 +4,7 @@
  */
 import { z } from "zod";
 import { CP_FORMS, FIT_FORMS, phaseSchema, speciesSchema } from "@/lib/thermo/schema";
+import { hasControl, ONE_LINE, oneLine, searchText } from "./text";
 
 export const VERSION_STATUS_FILTERS = ["current", "approved", "proposed", "draft", "rejected", "superseded", "all"] as const;
 export type VersionStatusFilter = (typeof VERSION_STATUS_FILTERS)[number];
@@ -22,9 +23,11 @@ export const idParamSchema = z.coerce.number({ error: "Expected a numeric id." }
 
 const text = (max: number, what: string) =>
   z.string({ error: `Enter ${what}.` }).trim().min(1, `Enter ${what}.`).max(max, `Use at most ${max} characters.`);
+/** A name or title: one line. */
+const line = (max: number, what: string) => oneLine(text(max, what));
 
 export const listModelsQuerySchema = z.object({
-  q: z.string().trim().max(80, "Use at most 80 characters.").optional().default(""),
+  q: searchText(80).optional().default(""),
   phase: z.union([z.literal(""), phaseSchema]).optional().default(""),
   form: z.union([z.literal(""), z.enum(CP_FORMS, { error: `Choose a form: ${CP_FORMS.join(", ")}.` })]).optional().default(""),
   status: z.enum(VERSION_STATUS_FILTERS, { error: `Choose a status: ${VERSION_STATUS_FILTERS.join(", ")}.` }).optional().default("current"),
@@ -35,7 +38,7 @@ export const listModelsQuerySchema = z.object({
 export type ListModelsQuery = z.infer<typeof listModelsQuerySchema>;
 
 export const listSpeciesQuerySchema = z.object({
-  q: z.string().trim().max(80, "Use at most 80 characters.").optional().default(""),
+  q: searchText(80).optional().default(""),
   page: z.coerce.number().int().min(1, "Pages start at 1.").optional().default(1),
   pageSize: z.coerce.number().int().min(1).max(100, "At most 100 per page.").optional().default(50),
 });
@@ -49,7 +52,7 @@ export const formulaSchema = z
 
 export const createSpeciesSchema = z.object({
   formula: formulaSchema,
-  displayName: text(120, "a display name"),
+  displayName: line(120, "a display name"),
 });
 export type CreateSpeciesInput = z.infer<typeof createSpeciesSchema>;
 
@@ -80,9 +83,9 @@ export const createModelSchema = z
   .object({
     speciesId: z.number().int().positive().optional(),
     species: createSpeciesSchema.optional(),
-    name: text(160, "a model name"),
+    name: line(160, "a model name"),
     family: z.string().trim().min(1).max(40).optional().default("custom"),
-    variant: z.string().trim().max(40).nullable().optional(),
+    variant: oneLine(z.string().trim().max(40)).nullable().optional(),
     version: versionInputSchema,
   })
   .refine((v) => v.speciesId !== undefined || v.species !== undefined, { message: "Choose a species or enter a new one.", path: ["speciesId"] });
@@ -123,7 +126,7 @@ export const CP_UNIT_LABELS: Record<(typeof CP_UNITS)[number], string> = {
 };
 
 export const datasetUploadSchema = z.object({
-  name: text(160, "a name for the dataset"),
+  name: line(160, "a name for the dataset"),
   filename: z.string().trim().max(255).nullable().optional(),
   text: z.string({ error: "Choose a file or paste the data." }).min(1, "Choose a file or paste the data."),
   /** Units when the header does not say; "" = read them from the header. */
@@ -152,7 +155,7 @@ export type FitParams = z.input<typeof fitParamsSchema>;
 export const saveFitSchema = z.object({
   fit: fitParamsSchema,
   modelId: z.number().int().positive().optional(),
-  modelName: z.string().trim().max(160).optional(),
+  modelName: oneLine(z.string().trim().max(160)).optional(),
   citation: text(2000, "a citation (where the measurements come from)"),
   changeNote: z.string().trim().max(2000).nullable().optional(),
 });
@@ -173,8 +176,8 @@ export const exportedVersionSchema = z.object({
 });
 
 export const exportedModelSchema = z.object({
-  species: z.object({ formula: formulaSchema, displayName: z.string().min(1) }),
-  name: z.string().min(1),
+  species: z.object({ formula: formulaSchema, displayName: z.string().min(1).refine((s) => !hasControl(s), ONE_LINE) }),
+  name: z.string().min(1).refine((s) => !hasControl(s), ONE_LINE),
   family: z.string().min(1).max(40),
   variant: z.string().max(40).nullable().optional(),
   versions: z.array(exportedVersionSchema).min(1, "A model needs at least one version."),

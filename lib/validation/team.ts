@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { oneLine } from "./text";
 import { ROLES } from "@/lib/auth/permissions";
 import { emailSchema, newPasswordSchema } from "./auth";
 
@@ -13,7 +14,7 @@ export type InviteInput = z.infer<typeof inviteSchema>;
 
 export const acceptInvitationSchema = z.object({
   token: z.string().min(20, "This invitation link is incomplete.").max(200, "This invitation link is malformed."),
-  name: z.string({ error: "Enter your name." }).trim().min(1, "Enter your name.").max(120, "Use at most 120 characters."),
+  name: oneLine(z.string({ error: "Enter your name." }).trim().min(1, "Enter your name.").max(120, "Use at most 120 characters.")),
   password: newPasswordSchema,
 });
 export type AcceptInvitationInput = z.infer<typeof acceptInvitationSchema>;

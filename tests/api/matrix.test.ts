@@ -45,6 +45,16 @@ describe.each(ROUTES.filter((r) => r.author))("$method $file ($name) by the auth
   });
 });
 
+describe.each(ROUTES.filter((r) => r.contributors?.length))("$method $file ($name) by a contributor", (row) => {
+  it.each(row.contributors!)("as the $as ($who)", async (c) => {
+    const prepared = await c.prepare();
+    await signInAs(c.who);
+    const response = await row.handler(jsonRequest(row.method, `/api/v1/${row.file}`, prepared.body), ctx(prepared.params ?? {}));
+    expect(response.status).toBe(c.expect);
+    expect(await bodyOf(response)).toMatchObject({ error: { code: "own-work" } });
+  });
+});
+
 describe.each(ROUTES)("$method $file ($name)", (row) => {
   it.each(ALL_WHO)("as %s", async (who) => {
     const prepared = row.prepare ? await row.prepare() : {};

@@ -117,6 +117,10 @@ describe("model version immutability in the database", () => {
     const { sequelize } = registry();
     const v = await version("draft");
     await sequelize.query(`UPDATE model_versions SET citation = 'edited', lock_version = lock_version + 1 WHERE id = ${v.id}`);
+    const [edited] = await sequelize.query<{ citation: string }>(`SELECT citation FROM model_versions WHERE id = ${v.id}`, { type: QueryTypes.SELECT });
+    expect(edited.citation).toBe("edited");
     await sequelize.query(`DELETE FROM model_versions WHERE id = ${v.id}`);
+    const left = await sequelize.query(`SELECT id FROM model_versions WHERE id = ${v.id}`, { type: QueryTypes.SELECT });
+    expect(left).toEqual([]);
   });
 });

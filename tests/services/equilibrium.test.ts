@@ -23,7 +23,7 @@ beforeAll(async () => {
 afterAll(() => closeDb());
 
 // Larkspur Hydrogen Works shift converter (invented demo scenario): steam-to-CO 3, 30 bar.
-const equilibrium = { feed: { "CO(g)": 1, "H2O(g)": 3, "CO2(g)": 0.1, "H2(g)": 0.5 }, feedUnit: "kmol/h", pressure: "30 bar", key: "CO(g)" as string | null, reactions: [], extraTerms: [] };
+const equilibrium = { feed: { "CO(g)": 1, "H2O(g)": 3, "CO2(g)": 0.1, "H2(g)": 0.5 }, feedUnit: "kmol/h", pressure: "30 bar", key: "CO(g)" as string | null, reactions: [], extraTerms: [], inert: [] as string[] };
 
 describe("a case with an equilibrium", () => {
   it("builds the request, freezes the composition in the snapshot and exports it", async () => {
@@ -76,11 +76,15 @@ describe("sources side by side over the approved families", () => {
     const out = await compareFamilies(erin, async () => request);
     expect(out.families.length).toBeGreaterThanOrEqual(2);
     expect(out.comparison!.variants.map((v) => v.label)).toEqual(out.families.map((f) => f.family));
-    for (const row of out.comparison!.spread) {
-      expect(row.keyFraction!.range).toBeGreaterThanOrEqual(0);
+    const variants = out.comparison!.variants;
+    out.comparison!.spread.forEach((row, i) => {
+      // The spread is max − min over the families' own outlet rows, recomputed here from each variant.
+      const fractions = variants.map((v) => v.result.equilibrium![i].keyFraction!);
+      expect(row.keyFraction!.range).toBeCloseTo(Math.max(...fractions) - Math.min(...fractions), 12);
+      expect(row.keyFraction!.range).toBeGreaterThan(0);
       // Published sets of different families agree on the shift's log10 K within 0.1 (shared/reference README: 0.05 each vs JANAF).
       expect(row.log10K.range).toBeLessThan(0.1);
-    }
+    });
   });
 });
 

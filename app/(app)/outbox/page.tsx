@@ -30,7 +30,7 @@ export default async function OutboxPage() {
       <PageHeader
         title="Outbox"
         lead={
-          (outbox.scope === "team" ? "All of the team's mail. " : "Mail addressed to you. ") +
+          (outbox.scope === "team" ? "Every message this team's own actions sent. " : "Messages this team's actions sent to you. ") +
           (isProduction ? "Delivery status of outgoing messages." : "Demo mode: every message the app sends lands in the local mail catcher on 127.0.0.1 and is shown here.")
         }
       />

@@ -1,5 +1,6 @@
 /** Route matrix rows for the Cp library: species, models, versions, datasets, preview, import/export. */
 import { models } from "@/lib/db";
+import { copyReferenceVersion, editVersion, proposeVersion } from "@/lib/services/library";
 import type { VersionStatus } from "@/models/model-version";
 import { actorOf } from "../../helpers/actors";
 import type { Expect, Handler, Row } from "./types";
@@ -64,6 +65,32 @@ async function larkspurSpecies(): Promise<string> {
   return String((await models().Species.findOne({ where: { teamId: team } }))!.id);
 }
 
+/** Erin's draft, edited by Sam (steward) and proposed by Erin: Sam changed the content. */
+async function editedBySam(): Promise<string> {
+  const id = await larkspurVersion("draft", "engineer");
+  await editVersion(await actorOf("steward"), Number(id), { lockVersion: 0, data: { ...solidData, segments: [{ ...solidData.segments[0], coeffs: { cpJ: 999 } }] } });
+  await proposeVersion(await actorOf("engineer"), Number(id));
+  return id;
+}
+/** Erin's draft, proposed (unchanged) by Sam. */
+async function proposedBySam(): Promise<string> {
+  const id = await larkspurVersion("draft", "engineer");
+  await proposeVersion(await actorOf("steward"), Number(id));
+  return id;
+}
+/** A reference version copied by Alex (admin) and proposed by Sam: copy then propose. */
+async function copiedByAlex(): Promise<string> {
+  const copy = await copyReferenceVersion(await actorOf("admin"), Number(await referenceVersion()));
+  await proposeVersion(await actorOf("steward"), copy.id);
+  return String(copy.id);
+}
+const contributorRows = (body?: unknown): NonNullable<Row["contributors"]> => [
+  { as: "editor who changed the content", who: "steward", prepare: async () => ({ params: { id: await editedBySam() }, body }), expect: 403 },
+  { as: "proposer", who: "steward", prepare: async () => ({ params: { id: await proposedBySam() }, body }), expect: 403 },
+  { as: "copier (copy then propose)", who: "admin", prepare: async () => ({ params: { id: await copiedByAlex() }, body }), expect: 403 },
+  { as: "proposer of a copy", who: "steward", prepare: async () => ({ params: { id: await copiedByAlex() }, body }), expect: 403 },
+];
+
 const csv = "T (K),Cp (J/mol/K)\n300,100\n400,110\n500,118\n600,124\n";
 const mkFit = { form: "maier-kelley", phase: "cr", reference: { tK: 298.15, hkJ: -1000, sJ: 80 } };
 
@@ -113,6 +140,7 @@ export const ROWS: Row[] = [
     expect: stewards(200),
     // Four-eyes: a steward may approve, but not their own proposal.
     author: { who: "steward", prepare: async () => ({ params: { id: await larkspurVersion("proposed", "steward") } }), expect: 403 },
+    contributors: contributorRows(),
   },
   {
     name: "reject",
@@ -122,6 +150,7 @@ export const ROWS: Row[] = [
     prepare: async () => ({ params: { id: await larkspurVersion("proposed", "engineer") }, body: { reason: "Range too short." } }),
     expect: stewards(200),
     author: { who: "steward", prepare: async () => ({ params: { id: await larkspurVersion("proposed", "steward") }, body: { reason: "Range too short." } }), expect: 403 },
+    contributors: contributorRows({ reason: "Range too short." }),
   },
   { name: "copy reference", file: "versions/[id]/copy", method: "POST", handler: copy.POST as Handler, prepare: async () => ({ params: { id: await referenceVersion() } }), expect: stewards(201, 201) },
   { name: "version curve", file: "versions/[id]/curve", method: "GET", handler: curve.GET as Handler, prepare: async () => ({ params: { id: await larkspurVersion("draft") } }), expect: teamRead() },

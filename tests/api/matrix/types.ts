@@ -19,6 +19,11 @@ export type Row = {
    * and `who` calls. Four-eyes routes expect a refusal here even where the role may act.
    */
   author?: { who: Exclude<Who, "anonymous" | "other">; prepare: () => Promise<{ params?: Record<string, string>; body?: unknown }>; expect: number };
+  /**
+   * Four-eyes beyond authorship: someone who changed or proposed the record (an editor, the
+   * proposer, a copier) calls. Each entry prepares the record with `who` as that contributor.
+   */
+  contributors?: { as: string; who: Exclude<Who, "anonymous" | "other">; prepare: () => Promise<{ params?: Record<string, string>; body?: unknown }>; expect: number }[];
 };
 
 export const allowAll = (status: number): Expect => ({ anonymous: 401, engineer: status, steward: status, reviewer: status, admin: status, other: status });

@@ -1,13 +1,13 @@
+import { pagePermission } from "@/lib/pages";
 import { CaseBuilder } from "@/components/cases/case-builder";
 import { PageHeader } from "@/components/ui/card";
-import { requirePermission } from "@/lib/auth/guards";
 import { getActor } from "@/lib/auth/session";
 import { listPinOptions } from "@/lib/services/pins";
 
 export const metadata = { title: "New case" };
 
 export default async function NewCasePage() {
-  const actor = requirePermission(await getActor(), "cases.create");
+  const actor = pagePermission(await getActor(), "cases.create");
   const options = await listPinOptions(actor);
   return (
     <>

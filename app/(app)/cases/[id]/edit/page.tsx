@@ -1,8 +1,7 @@
-import { orNotFound } from "@/lib/pages";
+import { orNotFound, pagePermission } from "@/lib/pages";
 import { notFound, redirect } from "next/navigation";
 import { CaseBuilder } from "@/components/cases/case-builder";
 import { PageHeader } from "@/components/ui/card";
-import { requirePermission } from "@/lib/auth/guards";
 import { getActor } from "@/lib/auth/session";
 import { getCase } from "@/lib/services/cases";
 import { listPinOptions } from "@/lib/services/pins";
@@ -10,7 +9,7 @@ import { listPinOptions } from "@/lib/services/pins";
 export const metadata = { title: "Edit case" };
 
 export default async function EditCasePage({ params }: { params: Promise<{ id: string }> }) {
-  const actor = requirePermission(await getActor(), "cases.create");
+  const actor = pagePermission(await getActor(), "cases.create");
   const id = Number((await params).id);
   if (!Number.isInteger(id) || id <= 0) notFound();
   const c = await orNotFound(getCase(actor, id));

@@ -14,6 +14,8 @@ import { FAMILY_LABELS } from "@/lib/validation/library";
 
 type Props = { params: Promise<{ id: string }> };
 
+const ROLE_WORDS: Record<string, string> = { author: "author", editor: "edited", proposer: "proposed", source: "worked on the draft it started from" };
+
 const ACTION_WORDS: Record<string, string> = {
   "model-version.created": "created the draft",
   "model-version.edited": "edited the draft",
@@ -45,11 +47,13 @@ export default async function VersionPage({ params }: Props) {
   const [audit, curve] = await Promise.all([versionAudit(actor, id), versionCurve(actor, id).catch((e: Error) => e)]);
   const team = v.scope === "team";
   const mine = v.authorId === actor.userId;
+  // Four-eyes: anyone who changed or proposed this version leaves the decision to someone else.
+  const contributed = v.contributors.some((c) => c.userId === actor.userId);
   const allowed = {
     edit: team && v.status === "draft" && (mine ? can(actor.role, "models.draft") : can(actor.role, "models.edit")),
     propose: team && v.status === "draft" && (mine ? can(actor.role, "models.draft") : can(actor.role, "models.edit")),
-    decide: team && v.status === "proposed" && can(actor.role, "models.decide") && !mine,
-    ownWork: team && v.status === "proposed" && can(actor.role, "models.decide") && mine,
+    decide: team && v.status === "proposed" && can(actor.role, "models.decide") && !contributed,
+    ownWork: team && v.status === "proposed" && can(actor.role, "models.decide") && contributed,
     newDraft: team && can(actor.role, "models.draft"),
     copy: !team && can(actor.role, "models.edit"),
   };
@@ -62,7 +66,7 @@ export default async function VersionPage({ params }: Props) {
       />
       {v.status !== "approved" && v.status !== "superseded" && (
         <p className="mb-4 rounded-md border border-ember-100 bg-ember-50 px-3 py-2 text-sm text-ember-700" data-testid="not-approved-note">
-          This version is {v.status === "draft" ? "a draft" : v.status}: it is not part of the approved library{v.status === "proposed" ? " until a steward other than its author approves it" : ""}.
+          This version is {v.status === "draft" ? "a draft" : v.status}: it is not part of the approved library{v.status === "proposed" ? " until a steward who neither changed nor proposed it approves it" : ""}.
         </p>
       )}
       {v.status === "rejected" && v.decisionReason && (
@@ -102,6 +106,12 @@ export default async function VersionPage({ params }: Props) {
             <VersionActions versionId={v.id} modelId={v.modelId} allowed={allowed} />
             <dl className="mt-4 space-y-1 text-sm">
               <div className="flex justify-between gap-2"><dt className="text-ink-muted">Author</dt><dd>{v.authorName ?? (v.scope === "reference" ? "Published source" : "—")}</dd></div>
+              {v.contributors.length > 0 && (
+                <div className="flex justify-between gap-2" data-testid="contributors">
+                  <dt className="text-ink-muted">Contributors</dt>
+                  <dd className="text-right">{v.contributors.map((c) => `${c.name} (${c.roles.map((r) => ROLE_WORDS[r] ?? r).join(", ")})`).join("; ")}</dd>
+                </div>
+              )}
               {v.decidedByName && <div className="flex justify-between gap-2"><dt className="text-ink-muted">Decided by</dt><dd>{v.decidedByName}</dd></div>}
               <div className="flex justify-between gap-2"><dt className="text-ink-muted">Updated</dt><dd className="tabular">{v.updatedAt.slice(0, 16).replace("T", " ")}</dd></div>
               {v.datasetId && <div className="flex justify-between gap-2"><dt className="text-ink-muted">Fitted to</dt><dd>dataset #{v.datasetId}</dd></div>}
