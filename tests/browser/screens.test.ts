@@ -223,7 +223,7 @@ describe("the equilibrium panel's checks (item 9)", () => {
     await panel.getByLabel("Unit of amount").fill("bananas");
     await panel.getByLabel("Pressure").fill("abc");
     await panel.getByLabel("Simultaneous reactions (optional, one per line)").fill("banana\nx CO(g) + H2O(g) -> CO2(g) + H2(g)");
-    await panel.getByLabel("CH4(g)").fill("lots");
+    await panel.getByRole("textbox", { name: "CH4(g)", exact: true }).fill("lots");
     await panel.getByRole("button", { name: "Solve" }).click();
     await panel.getByTestId("equilibrium-error").waitFor();
     const text = (await panel.textContent()) ?? "";
