@@ -1,7 +1,10 @@
 /**
  * npm run bench:api — HTTP throughput of the app under `next start` on 127.0.0.1, and the
  * first-load JavaScript of the case page, against the budgets:
- *   POST /api/v1/evaluate (500 temperatures) ≥ 0.5 × the requests/s of a bare health route;
+ *   POST /api/v1/evaluate (500 temperatures, ?format=columns) ≥ 0.5 × the requests/s of a bare health route
+ *   (the row format is measured beside it, for comparison);
+ *   the case page's results request for a 10 000-point case < 250 ms (median of sequential requests,
+ *   a live draft and a frozen snapshot, rows and columns);
  *   first-load JS of the case page ≤ 250 kB gzip.
  * Bounded: 16 connections, a few seconds per target, loopback only. Reports figures, never fails on them.
  */
@@ -75,6 +78,22 @@ function findCasePageManifest(): { file: string; entries: string[] } {
   throw new Error("no case page in the build");
 }
 
+/** Median wall time of `n` sequential requests (after one discarded warm-up), and the answer's size. */
+async function timed(url: string, headers: Record<string, string>, n = 9, init: { method?: string; body?: string } = {}): Promise<{ ms: number; bytes: number }> {
+  let bytes = 0;
+  const times: number[] = [];
+  for (let i = 0; i <= n; i++) {
+    const t0 = performance.now();
+    const r = await fetch(url, { headers, ...init });
+    const text = await r.text();
+    if (!r.ok) throw new Error(`${url}: ${r.status} ${text.slice(0, 200)}`);
+    if (i > 0) times.push(performance.now() - t0);
+    bytes = text.length;
+  }
+  times.sort((a, b) => a - b);
+  return { ms: times[Math.floor(times.length / 2)], bytes };
+}
+
 async function main() {
   buildIfNeeded(root);
   const dir = fs.mkdtempSync(path.join(os.tmpdir(), "heatpath-bench-"));
@@ -99,6 +118,28 @@ async function main() {
     const health = await load(`${base}/api/v1/health`);
     const me = await load(`${base}/api/v1/me`, { headers: { cookie } });
     const evaluate = await load(`${base}/api/v1/evaluate`, { method: "POST", body, headers: { "content-type": "application/json", cookie } });
+    const columns = await load(`${base}/api/v1/evaluate?format=columns`, { method: "POST", body, headers: { "content-type": "application/json", cookie } });
+    const rowBytes = (await (await fetch(`${base}/api/v1/evaluate`, { method: "POST", headers: { "content-type": "application/json", cookie }, body })).text()).length;
+    const columnBytes = (await (await fetch(`${base}/api/v1/evaluate?format=columns`, { method: "POST", headers: { "content-type": "application/json", cookie }, body })).text()).length;
+
+    // One request at a time: what the server spends, with the load generator out of the way.
+    const post = { method: "POST", body };
+    const json = { "content-type": "application/json", cookie };
+    const single = { health: await timed(`${base}/api/v1/health`, {}, 29), rows: await timed(`${base}/api/v1/evaluate`, json, 29, post), columns: await timed(`${base}/api/v1/evaluate?format=columns`, json, 29, post) };
+
+    // A 10 000-point case: a seeded draft's reaction and pins over 300–1299.9 K in 0.1 K steps.
+    const list = (await (await fetch(`${base}/api/v1/cases?status=draft`, { headers: { cookie } })).json()) as { cases: { id: number }[] };
+    const seeded = (await (await fetch(`${base}/api/v1/cases/${list.cases[0].id}/results`, { headers: { cookie } })).json()) as { inputs: Record<string, unknown> };
+    const inputs = { ...seeded.inputs, title: "Bench: 10 000 temperatures", temperatures: { fromK: 300, toK: 1299.9, stepK: 0.1 }, equilibrium: null };
+    const created = await fetch(`${base}/api/v1/cases`, { method: "POST", headers: { "content-type": "application/json", cookie }, body: JSON.stringify(inputs) });
+    if (created.status !== 201) throw new Error(`could not create the 10 000-point case: ${created.status} ${await created.text()}`);
+    const big = ((await created.json()) as { case: { id: number; lockVersion: number } }).case;
+    const resultsUrl = `${base}/api/v1/cases/${big.id}/results`;
+    const bigPoints = ((await (await fetch(resultsUrl, { headers: { cookie } })).json()) as { result: { points: unknown[] } }).result.points.length;
+    const live = { rows: await timed(resultsUrl, { cookie }), columns: await timed(`${resultsUrl}?format=columns`, { cookie }) };
+    const submitted = await fetch(`${base}/api/v1/cases/${big.id}/submit`, { method: "POST", headers: { "content-type": "application/json", cookie }, body: JSON.stringify({ lockVersion: big.lockVersion }) });
+    if (submitted.status !== 200) throw new Error(`could not submit the 10 000-point case: ${submitted.status} ${await submitted.text()}`);
+    const frozen = { rows: await timed(resultsUrl, { cookie }), columns: await timed(`${resultsUrl}?format=columns`, { cookie }) };
     const js = (() => {
       try {
         return firstLoadJs(findCasePageManifest().file, findCasePageManifest().entries);
@@ -108,13 +149,21 @@ async function main() {
     })();
 
     const row = (name: string, r: Run) => `| ${name} | ${r.rps.toFixed(0)} | ${r.p50.toFixed(1)} | ${r.p95.toFixed(1)} | ${r.non2xx} |`;
-    console.log(`\nHeatpath API benchmark — ${CONNECTIONS} connections, ${SECONDS} s per target, next start on 127.0.0.1 (${os.cpus().length} cores)\n`);
+    console.log(`\nHeatpath API benchmark — ${CONNECTIONS} connections, ${SECONDS} s per target, next start on 127.0.0.1 (${os.cpus().length} cores, load average ${os.loadavg()[0].toFixed(1)} at the end), ${new Date().toISOString().slice(0, 16)}Z\n`);
     console.log("| target | requests/s | p50 ms | p95 ms | non-2xx |\n|---|---|---|---|---|");
     console.log(row("GET /api/v1/health", health));
     console.log(row("GET /api/v1/me (session + membership lookup)", me));
-    console.log(row(`POST /api/v1/evaluate (${points} points, 4 species, NASA-7)`, evaluate));
-    const ratio = evaluate.rps / health.rps;
-    console.log(`\nevaluate / health throughput: ${ratio.toFixed(2)} (target ≥ 0.5: ${ratio >= 0.5 ? "met" : "not met"})`);
+    console.log(row(`POST /api/v1/evaluate (${points} points, 4 species, NASA-7), rows`, evaluate));
+    console.log(row(`POST /api/v1/evaluate?format=columns (${points} points)`, columns));
+    const ratio = columns.rps / health.rps;
+    console.log(`\nanswer size, ${points} points: rows ${(rowBytes / 1024).toFixed(0)} kB, columns ${(columnBytes / 1024).toFixed(0)} kB`);
+    console.log(`evaluate (columns) / health throughput: ${ratio.toFixed(2)} (target ≥ 0.5: ${ratio >= 0.5 ? "met" : "not met"}); rows: ${(evaluate.rps / health.rps).toFixed(2)}`);
+    console.log(`one request at a time (median of 29): health ${single.health.ms.toFixed(1)} ms, evaluate rows ${single.rows.ms.toFixed(1)} ms, columns ${single.columns.ms.toFixed(1)} ms`);
+    const ms = (t: { ms: number; bytes: number }) => `${t.ms.toFixed(0)} ms (${(t.bytes / 1024).toFixed(0)} kB)`;
+    const verdict = (t: { ms: number }) => (t.ms < 250 ? "met" : "not met");
+    console.log(`\ncase results request, ${bigPoints}-point case, median of 9 sequential (target < 250 ms):`);
+    console.log(`  live draft (evaluated per request): rows ${ms(live.rows)}: ${verdict(live.rows)}; columns ${ms(live.columns)}: ${verdict(live.columns)}`);
+    console.log(`  frozen snapshot (read from the database): rows ${ms(frozen.rows)}: ${verdict(frozen.rows)}; columns ${ms(frozen.columns)}: ${verdict(frozen.columns)}`);
     console.log(`first-load JS of the case page: ${(js.gzipBytes / 1024).toFixed(1)} kB gzip in ${js.files} files (target ≤ 250 kB: ${js.gzipBytes <= 250 * 1024 ? "met" : "not met"})`);
   } finally {
     server.kill("SIGKILL");

@@ -65,7 +65,7 @@ function serializeTransactions(sequelize: Sequelize, retrySerializationFailures 
 
 /** PostgreSQL's codes for "run the transaction again": serialization failure, deadlock. */
 const RETRYABLE = new Set(["40001", "40P01"]);
-const MAX_ATTEMPTS = 8;
+const MAX_ATTEMPTS = 10;
 
 function retryable(error: unknown): boolean {
   const e = error as { parent?: { code?: string }; original?: { code?: string }; code?: string };
@@ -76,7 +76,7 @@ function retryable(error: unknown): boolean {
 /**
  * Several app servers share one PostgreSQL: managed transactions run
  * SERIALIZABLE, and one that loses a race to another server is rolled back
- * whole and run again (a short random pause between tries), so it sees the
+ * whole and run again (a growing random pause between tries), so it sees the
  * winner's commit just as it would have on SQLite.
  */
 function withRetries(transaction: (...args: unknown[]) => Promise<unknown>) {
@@ -86,7 +86,9 @@ function withRetries(transaction: (...args: unknown[]) => Promise<unknown>) {
         return await transaction(...args);
       } catch (error) {
         if (attempt >= MAX_ATTEMPTS || !retryable(error)) throw error;
-        await new Promise((r) => setTimeout(r, Math.random() * 10 * attempt));
+        // Exponential back-off with full jitter (at most 10, 20, 40 … 250 ms): two servers
+        // retrying in step would collide again.
+        await new Promise((r) => setTimeout(r, Math.random() * Math.min(250, 5 * 2 ** attempt)));
       }
     }
   };

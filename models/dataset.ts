@@ -13,6 +13,8 @@ export class Dataset extends Model<InferAttributes<Dataset>, InferCreationAttrib
   declare sha256: string;
   declare tUnit: string;
   declare cpUnit: string;
+  /** The phase measured (cr, l, g, cr-…); null when the uploader did not say. */
+  declare phase: CreationOptional<string | null>;
   declare points: DatasetPoint[];
   declare uploadedById: number | null;
   declare createdAt: CreationOptional<Date>;
@@ -30,6 +32,7 @@ export class Dataset extends Model<InferAttributes<Dataset>, InferCreationAttrib
         sha256: { type: DataTypes.STRING(64), allowNull: false },
         tUnit: { type: DataTypes.STRING(20), allowNull: false },
         cpUnit: { type: DataTypes.STRING(40), allowNull: false },
+        phase: { type: DataTypes.STRING(24), allowNull: true },
         points: { type: DataTypes.JSON, allowNull: false },
         uploadedById: { type: DataTypes.INTEGER, allowNull: true },
         createdAt: DataTypes.DATE,

@@ -23,7 +23,8 @@ try {
 
 let request: unknown;
 try {
-  request = JSON.parse(text!);
+  // A UTF-8 byte-order mark (as some editors save) is not part of the JSON.
+  request = JSON.parse(text!.replace(/^\uFEFF/, ""));
 } catch (e) {
   refuseAndExit(`invalid request: ${file} is not valid JSON (${(e as Error).message})`);
 }

@@ -21,7 +21,14 @@ export default async function AppLayout({ children }: { children: React.ReactNod
       <a href="#main" className="sr-only z-50 rounded-md bg-paper px-3 py-2 text-sm font-medium text-ink focus:not-sr-only focus:absolute focus:left-3 focus:top-3" data-testid="skip-link">
         Skip to main content
       </a>
-      <AppHeader actor={actor} items={can(actor.role, "outbox.view") || !isProduction ? [...NAV, { href: "/outbox", label: "Outbox" }] : NAV} />
+      <AppHeader
+        actor={actor}
+        items={[
+          ...NAV,
+          ...(can(actor.role, "audit.view") ? [{ href: "/audit", label: "Audit" }] : []),
+          ...(can(actor.role, "outbox.view") || !isProduction ? [{ href: "/outbox", label: "Outbox" }] : []),
+        ]}
+      />
       <main id="main" tabIndex={-1} className="mx-auto max-w-6xl px-4 py-8 focus:outline-none">{children}</main>
     </>
   );

@@ -69,10 +69,23 @@ export default async function HomePage() {
         )}
         {can(actor.role, "models.decide") && (
           <Card title={<span data-testid="home-proposals">Proposals waiting for my approval ({waiting.proposals})</span>}>
-            <p className="text-sm text-ink-muted">
-              {waiting.proposals === 0 ? "No proposed model versions from colleagues." : `${waiting.proposals} proposed model version${waiting.proposals === 1 ? "" : "s"} from colleagues.`}{" "}
-              <Link className={link} href="/library">Open the library</Link>.
-            </p>
+            {waiting.proposalItems.length === 0 ? (
+              <p className="text-sm text-ink-muted">
+                No proposed model versions from colleagues. <Link className={link} href="/library">Open the library</Link>.
+              </p>
+            ) : (
+              <ul className="space-y-2 text-sm" data-testid="home-proposal-list">
+                {waiting.proposalItems.slice(0, 6).map((p) => (
+                  <li key={p.versionId}>
+                    <Link className={link} href={`/library/versions/${p.versionId}`}>{p.modelName} · v{p.versionNumber}</Link>
+                    <span className="block text-xs text-ink-muted">{p.formula}{p.authorName ? ` · proposed by ${p.authorName}` : ""}{p.proposedAt ? ` · ${p.proposedAt.slice(0, 10)}` : ""}</span>
+                  </li>
+                ))}
+                {waiting.proposalItems.length > 6 && (
+                  <li><Link className={link} href="/library?status=proposed">All {waiting.proposalItems.length} proposals</Link></li>
+                )}
+              </ul>
+            )}
           </Card>
         )}
         <Card title={<span data-testid="home-decisions">Recent decisions ({waiting.decisions.count30d} in 30 days)</span>}>

@@ -6,7 +6,7 @@ import { Button } from "@/components/ui/button";
 import { Field, inputClass, Select, TextInput } from "@/components/ui/field";
 import { elementBalance, reactionText, termKey } from "@/lib/cases/balance";
 import { sendJson } from "@/lib/cases/client";
-import { joinQuantity, splitQuantity, TEMPERATURE_UNITS, UNIT_LABELS, type Quantity, type TemperatureUnit } from "@/lib/cases/temperature";
+import { convertTyped, convertTypedList, joinQuantity, splitQuantity, TEMPERATURE_UNITS, UNIT_LABELS, type Quantity, type TemperatureUnit } from "@/lib/cases/temperature";
 import { fieldErrorsOf } from "@/lib/cases/zod-errors";
 import { caseInputSchema, type CaseInputs } from "@/lib/validation/cases";
 
@@ -157,6 +157,21 @@ export function CaseBuilder({ options, initial }: { options: BuilderOption[]; in
     router.refresh();
   }
 
+  /** A unit switch converts what is typed, so the span stays the same temperatures (a step is a difference). */
+  const switchUnit = (next: TemperatureUnit) => {
+    touch("temperatures");
+    setFrom((v) => convertTyped(v, unit, next));
+    setTo((v) => convertTyped(v, unit, next));
+    setStep((v) => convertTyped(v, unit, next, "difference"));
+    setListText((v) => convertTypedList(v, unit, next));
+    setUnit(next);
+  };
+  const switchRefUnit = (next: TemperatureUnit) => {
+    touch("referenceK");
+    setRef((v) => convertTyped(v, refUnit, next));
+    setRefUnit(next);
+  };
+
   const err = (k: string) => errors[k];
   const unitSelect = (name: string, value: TemperatureUnit, set: (u: TemperatureUnit) => void, label: string) => (
     <select aria-label={label} name={name} value={value} onChange={(e) => set(e.target.value as TemperatureUnit)} className={`${inputClass} !w-24`}>
@@ -286,7 +301,7 @@ export function CaseBuilder({ options, initial }: { options: BuilderOption[]; in
             <label className="flex items-center gap-2">
               <input type="radio" name="mode" checked={mode === "list"} onChange={() => setMode("list")} /> List
             </label>
-            {unitSelect("unit", unit, setUnit, "Temperature unit")}
+            {unitSelect("unit", unit, switchUnit, "Temperature unit")}
           </div>
           {mode === "span" ? (
             <div className="grid grid-cols-3 gap-2">
@@ -315,7 +330,7 @@ export function CaseBuilder({ options, initial }: { options: BuilderOption[]; in
                 <TextInput name="referenceK" inputMode="decimal" value={ref} onChange={(e) => { touch("referenceK"); setRef(e.target.value); }} error={err("referenceK")} />
               </Field>
             </div>
-            <div className="pb-5">{unitSelect("refUnit", refUnit, setRefUnit, "Reference temperature unit")}</div>
+            <div className="pb-5">{unitSelect("refUnit", refUnit, switchRefUnit, "Reference temperature unit")}</div>
           </div>
           <div className="grid grid-cols-2 gap-2">
             <Field label="Tolerance on ΔrG (kJ/mol)" name="toleranceKJ" error={err("toleranceKJ")}>

@@ -6,11 +6,12 @@ import { useState } from "react";
 import { PointsChart } from "@/components/charts/residual-chart";
 import { Button } from "@/components/ui/button";
 import { inputClass } from "@/components/ui/field";
+import { defaultPhase, PhaseSelect } from "./phase-select";
 import { fileProblems, guessDelimiter, readDatasetRows, type DatasetParse } from "@/lib/datasets/csv";
 import { CP_UNIT_LABELS, CP_UNITS, DATASET_MAX_BYTES, T_UNIT_LABELS, T_UNITS } from "@/lib/validation/library";
 
-type SpeciesOption = { id: number; formula: string; displayName: string };
-type Dataset = { id: number; name: string; pointCount: number; rangeK: [number, number] | null; sha256: string };
+type SpeciesOption = { id: number; formula: string; displayName: string; phases?: string[] };
+type Dataset = { id: number; name: string; pointCount: number; rangeK: [number, number] | null; sha256: string; phase?: string | null };
 type Fit = {
   form: string;
   coefficients: Record<string, number>;
@@ -59,6 +60,10 @@ export function UploadWizard({ species }: { species: SpeciesOption[] }) {
   const router = useRouter();
   const [name, setName] = useState("");
   const [speciesId, setSpeciesId] = useState(species[0] ? String(species[0].id) : "new");
+  const knownPhases = (id: string) => species.find((s) => String(s.id) === id)?.phases ?? [];
+  // The phase measured: the species' one phase when it has exactly one, else the uploader says.
+  const [measuredPhase, setMeasuredPhase] = useState(() => defaultPhase(knownPhases(speciesId)));
+  const [measuredTouched, setMeasuredTouched] = useState(false);
   const [formula, setFormula] = useState("");
   const [displayName, setDisplayName] = useState("");
   const [tUnit, setTUnit] = useState<"" | (typeof T_UNITS)[number]>("");
@@ -72,7 +77,7 @@ export function UploadWizard({ species }: { species: SpeciesOption[] }) {
   const [dataset, setDataset] = useState<Dataset | null>(null);
   const [form, setForm] = useState<string>("maier-kelley");
   const [exponents, setExponents] = useState("0 1 -2");
-  const [phase, setPhase] = useState("cr");
+  const [phase, setPhase] = useState("");
   const [tmin, setTmin] = useState("");
   const [tmax, setTmax] = useState("");
   const [refT, setRefT] = useState("298.15");
@@ -114,11 +119,12 @@ export function UploadWizard({ species }: { species: SpeciesOption[] }) {
   async function upload() {
     setBusy("upload");
     setError(null);
-    const body = { name, filename, text, tUnit, cpUnit, ...(speciesId === "new" ? { species: { formula, displayName } } : { speciesId: Number(speciesId) }) };
+    const body = { name, filename, text, tUnit, cpUnit, phase: measuredPhase || null, ...(speciesId === "new" ? { species: { formula, displayName } } : { speciesId: Number(speciesId) }) };
     const { ok, data } = await send("/api/v1/datasets", body);
     setBusy(null);
     if (!ok) return setError(data.error?.message ?? "Not uploaded.");
     setDataset(data.dataset);
+    setPhase(defaultPhase(knownPhases(speciesId), data.dataset.phase));
     if (data.dataset.rangeK) {
       setTmin(String(data.dataset.rangeK[0]));
       setTmax(String(data.dataset.rangeK[1]));
@@ -136,8 +142,10 @@ export function UploadWizard({ species }: { species: SpeciesOption[] }) {
     ...(refH.trim() && refS.trim() ? { reference: { tK: Number(refT), hkJ: Number(refH), sJ: Number(refS) } } : {}),
   });
 
+  const phaseMissing = "Choose the phase the fit is for: the dataset does not say and the species has no single phase.";
   async function runFit() {
     if (!dataset) return;
+    if (!phase) return setError(phaseMissing);
     setBusy("fit");
     setError(null);
     const { ok, data } = await send(`/api/v1/datasets/${dataset.id}/fit`, fitBody());
@@ -148,6 +156,7 @@ export function UploadWizard({ species }: { species: SpeciesOption[] }) {
 
   async function saveDraft() {
     if (!dataset) return;
+    if (!phase) return setError(phaseMissing);
     setBusy("save");
     setError(null);
     const { ok, data } = await send(`/api/v1/datasets/${dataset.id}/versions`, { fit: fitBody(), modelName, citation });
@@ -166,10 +175,14 @@ export function UploadWizard({ species }: { species: SpeciesOption[] }) {
           <label className={label}><span className="font-medium">Dataset name</span><input className={inputClass} value={name} onChange={(e) => setName(e.target.value)} aria-label="Dataset name" /></label>
           <label className={label}>
             <span className="font-medium">Species measured</span>
-            <select className={inputClass} value={speciesId} onChange={(e) => setSpeciesId(e.target.value)} aria-label="Species measured">
+            <select className={inputClass} value={speciesId} onChange={(e) => { setSpeciesId(e.target.value); if (!measuredTouched) setMeasuredPhase(defaultPhase(knownPhases(e.target.value))); }} aria-label="Species measured">
               {species.map((s) => <option key={s.id} value={s.id}>{s.formula} · {s.displayName}</option>)}
               <option value="new">New species…</option>
             </select>
+          </label>
+          <label className={label}>
+            <span className="font-medium">Phase measured</span>
+            <PhaseSelect value={measuredPhase} onChange={(p) => { setMeasuredPhase(p); setMeasuredTouched(true); }} known={speciesId === "new" ? [] : knownPhases(speciesId)} label="Phase measured" />
           </label>
           <label className={label}>
             <span className="font-medium">Temperature unit</span>
@@ -245,7 +258,7 @@ export function UploadWizard({ species }: { species: SpeciesOption[] }) {
           <div className="grid gap-3 sm:grid-cols-2 lg:grid-cols-4">
             <label className={label}><span className="font-medium">Form</span><select className={inputClass} value={form} onChange={(e) => setForm(e.target.value)} aria-label="Form to fit">{FIT_FORMS.map(([v, l]) => <option key={v} value={v}>{l}</option>)}</select></label>
             {form === "power" && <label className={label}><span className="font-medium">Exponents</span><input className={inputClass} value={exponents} onChange={(e) => setExponents(e.target.value)} aria-label="Exponents" /></label>}
-            <label className={label}><span className="font-medium">Phase</span><input className={inputClass} value={phase} onChange={(e) => setPhase(e.target.value)} aria-label="Phase" /></label>
+            <label className={label}><span className="font-medium">Phase</span><PhaseSelect value={phase} onChange={(p) => { setPhase(p); setError(null); }} known={speciesId === "new" ? [] : knownPhases(speciesId)} label="Phase" invalid={!phase} /></label>
             <label className={label}><span className="font-medium">From (K)</span><input className={inputClass} value={tmin} onChange={(e) => setTmin(e.target.value)} aria-label="Fit from (K)" /></label>
             <label className={label}><span className="font-medium">To (K)</span><input className={inputClass} value={tmax} onChange={(e) => setTmax(e.target.value)} aria-label="Fit to (K)" /></label>
             <label className={label}><span className="font-medium">Anchor T (K)</span><input className={inputClass} value={refT} onChange={(e) => setRefT(e.target.value)} aria-label="Anchor T (K)" /></label>

@@ -3,11 +3,12 @@
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { Button } from "@/components/ui/button";
+import { ConfirmDialog } from "@/components/ui/confirm-dialog";
 import { inputClass } from "@/components/ui/field";
 import { approveVersionAction, rejectVersionAction } from "@/app/(app)/library/versions/[id]/actions";
 import type { ActionState } from "@/lib/actions";
 
-type Allowed = { edit: boolean; propose: boolean; decide: boolean; newDraft: boolean; copy: boolean; ownWork: boolean };
+type Allowed = { edit: boolean; propose: boolean; decide: boolean; newDraft: boolean; copy: boolean; ownWork: boolean; withdraw?: boolean; remove?: boolean };
 
 async function post(url: string, body?: unknown): Promise<{ ok: boolean; data: { version?: { id: number }; error?: { message: string } } }> {
   const res = await fetch(url, { method: "POST", headers: body ? { "content-type": "application/json" } : {}, body: body ? JSON.stringify(body) : undefined });
@@ -15,12 +16,25 @@ async function post(url: string, body?: unknown): Promise<{ ok: boolean; data: {
 }
 
 /** The workflow buttons the server said this person may use; the server checks again on every call. */
-export function VersionActions({ versionId, modelId, allowed }: { versionId: number; modelId: number; allowed: Allowed }) {
+export function VersionActions({ versionId, modelId, allowed, label, speciesHref }: { versionId: number; modelId: number; allowed: Allowed; label?: string; speciesHref?: string }) {
   const router = useRouter();
   const [busy, setBusy] = useState<string | null>(null);
   const [error, setError] = useState<string | null>(null);
   const [reason, setReason] = useState("");
   const [rejecting, setRejecting] = useState(false);
+  const [confirm, setConfirm] = useState<"withdraw" | "delete" | null>(null);
+
+  const remove = async () => {
+    setBusy("delete");
+    setError(null);
+    const res = await fetch(`/api/v1/versions/${versionId}`, { method: "DELETE" });
+    const data = await res.json().catch(() => ({}));
+    setBusy(null);
+    setConfirm(null);
+    if (!res.ok) return setError(data.error?.message ?? "Not deleted.");
+    router.push(speciesHref ?? "/library");
+    router.refresh();
+  };
 
   const run = async (what: string, url: string, body?: unknown, go?: (id: number) => string) => {
     setBusy(what);
@@ -56,6 +70,8 @@ export function VersionActions({ versionId, modelId, allowed }: { versionId: num
             <Button variant="danger" focusableWhenDisabled disabled={!!busy} onClick={() => setRejecting((r) => !r)}>Reject…</Button>
           </>
         )}
+        {allowed.withdraw && <Button variant="secondary" focusableWhenDisabled disabled={!!busy} onClick={() => setConfirm("withdraw")}>Withdraw proposal</Button>}
+        {allowed.remove && <Button variant="danger" focusableWhenDisabled disabled={!!busy} onClick={() => setConfirm("delete")}>Delete…</Button>}
         {allowed.newDraft && <Button variant="secondary" focusableWhenDisabled disabled={!!busy} onClick={() => run("draft", `/api/v1/models/${modelId}/versions`, { fromVersionId: versionId }, (id) => `/library/versions/${id}/edit`)}>New draft from this version</Button>}
         {allowed.copy && <Button variant="secondary" focusableWhenDisabled disabled={!!busy} onClick={() => run("copy", `/api/v1/versions/${versionId}/copy`, undefined, (id) => `/library/versions/${id}/edit`)}>{busy === "copy" ? "Copying…" : "Copy into a team model"}</Button>}
       </div>
@@ -74,6 +90,27 @@ export function VersionActions({ versionId, modelId, allowed }: { versionId: num
         </form>
       )}
       {error && <p role="alert" className="text-sm text-flag-700">{error}</p>}
+      <ConfirmDialog
+        open={confirm !== null}
+        title={confirm === "withdraw" ? "Withdraw this proposal?" : "Delete this version?"}
+        confirmLabel={confirm === "withdraw" ? "Withdraw" : "Delete"}
+        tone={confirm === "withdraw" ? "primary" : "danger"}
+        busy={!!busy}
+        onCancel={() => setConfirm(null)}
+        onConfirm={() => {
+          if (confirm === "withdraw") {
+            setConfirm(null);
+            void run("withdraw", `/api/v1/versions/${versionId}/withdraw`);
+          } else void remove();
+        }}
+      >
+        <p>{label ?? "This version"}.</p>
+        <p>
+          {confirm === "withdraw"
+            ? "It leaves the stewards' queue and becomes a draft again that its author can edit and propose later."
+            : "It is removed for good (the audit trail keeps a record). A model left without versions is removed with it; a version a case pins cannot be deleted."}
+        </p>
+      </ConfirmDialog>
     </div>
   );
 }

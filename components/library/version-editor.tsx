@@ -9,20 +9,22 @@ import type { SpeciesInput } from "@/lib/thermo/schema";
 import { CP_FORMS, type CpForm } from "@/lib/thermo/schema";
 import { versionInputSchema } from "@/lib/validation/library";
 import { FORM_SPECS, splitRow } from "./cp-forms";
+import { defaultPhase, PhaseSelect } from "./phase-select";
 import type { CurveLike } from "./curve-rows";
 import { PropertyCharts } from "./property-charts";
 
 type SegmentState = { phase: string; form: CpForm; tminK: string; tmaxK: string; values: Record<string, string> };
 type RefState = { on: boolean; tK: string; phase: string; hkJ: string; sJ: string };
 type Existing = { id: number; lockVersion: number; data: SpeciesInput; citation: string; changeNote: string | null };
-type SpeciesOption = { id: number; formula: string; displayName: string };
+type SpeciesOption = { id: number; formula: string; displayName: string; phases?: string[] };
 
-function toState(data: SpeciesInput | undefined): { segments: SegmentState[]; reference: RefState; pressure: string } {
+/** A new entry starts in `phase` (the species' one phase, or "" for the author to choose), never a silent "cr". */
+function toState(data: SpeciesInput | undefined, phase = ""): { segments: SegmentState[]; reference: RefState; pressure: string } {
   const segments = (data?.segments ?? []).map((s) => ({ phase: s.phase, form: s.form as CpForm, tminK: String(s.tminK), tmaxK: String(s.tmaxK), values: FORM_SPECS[s.form as CpForm].fromCoeffs(s.coeffs) }));
   const r = data?.reference;
   return {
-    segments: segments.length ? segments : [{ phase: "cr", form: "constant", tminK: "298.15", tmaxK: "1000", values: { cpJ: "" } }],
-    reference: r ? { on: true, tK: String(r.tK), phase: r.phase, hkJ: String(r.hkJ), sJ: String(r.sJ) } : { on: false, tK: "298.15", phase: "cr", hkJ: "", sJ: "" },
+    segments: segments.length ? segments : [{ phase, form: "constant", tminK: "298.15", tmaxK: "1000", values: { cpJ: "" } }],
+    reference: r ? { on: true, tK: String(r.tK), phase: r.phase, hkJ: String(r.hkJ), sJ: String(r.sJ) } : { on: false, tK: "298.15", phase, hkJ: "", sJ: "" },
     pressure: String(data?.standardPressurePa ?? 100000),
   };
 }
@@ -56,14 +58,25 @@ function FieldError({ error }: { error?: string }) {
  */
 export function VersionEditor({ existing, species, modelId }: { existing?: Existing; species?: SpeciesOption[]; modelId?: number }) {
   const router = useRouter();
-  const initial = useMemo(() => toState(existing?.data), [existing]);
+  const phasesOf = (id: string) => species?.find((x) => String(x.id) === id)?.phases ?? [];
+  const firstSpecies = species?.[0] ? String(species[0].id) : "new";
+  const initial = useMemo(() => toState(existing?.data, defaultPhase(phasesOf(firstSpecies))), [existing]); // eslint-disable-line react-hooks/exhaustive-deps
   const [segments, setSegments] = useState<SegmentState[]>(initial.segments);
   const [reference, setReference] = useState<RefState>(initial.reference);
   const [pressure, setPressure] = useState(initial.pressure);
   const [citation, setCitation] = useState(existing?.citation ?? "");
   const [changeNote, setChangeNote] = useState(existing?.changeNote ?? "");
   const [lockVersion, setLockVersion] = useState(existing?.lockVersion ?? 0);
-  const [speciesId, setSpeciesId] = useState<string>(species?.[0] ? String(species[0].id) : "new");
+  const [speciesId, setSpeciesId] = useState<string>(firstSpecies);
+  const known = existing || modelId ? [...new Set(segments.map((x) => x.phase).filter(Boolean))] : speciesId === "new" ? [] : phasesOf(speciesId);
+  /** Another species: phases still on the old default follow the new one. */
+  const changeSpecies = (id: string) => {
+    const was = defaultPhase(phasesOf(speciesId));
+    const now = defaultPhase(id === "new" ? [] : phasesOf(id));
+    setSpeciesId(id);
+    setSegments((all) => all.map((x) => (x.phase === was ? { ...x, phase: now } : x)));
+    setReference((r) => (r.phase === was ? { ...r, phase: now } : r));
+  };
   const [newFormula, setNewFormula] = useState("");
   const [newName, setNewName] = useState("");
   const [modelName, setModelName] = useState("");
@@ -159,7 +172,7 @@ export function VersionEditor({ existing, species, modelId }: { existing?: Exist
             <div className="grid gap-3 sm:grid-cols-2">
               <label className="space-y-1 text-sm text-ink-soft">
                 <span className="font-medium">Species</span>
-                <select className={inputClass} value={speciesId} onChange={(e) => setSpeciesId(e.target.value)} aria-label="Species">
+                <select className={inputClass} value={speciesId} onChange={(e) => changeSpecies(e.target.value)} aria-label="Species">
                   {species?.map((s) => <option key={s.id} value={s.id}>{s.formula} · {s.displayName}</option>)}
                   <option value="new">New species…</option>
                 </select>
@@ -190,8 +203,18 @@ export function VersionEditor({ existing, species, modelId }: { existing?: Exist
               <div className="grid gap-3 sm:grid-cols-4">
                 <label className="space-y-1 text-sm text-ink-soft">
                   <span className="font-medium">Phase</span>
-                  <input className={inputClass} value={s.phase} onChange={(e) => update(i, { phase: e.target.value })} aria-label={`Segment ${i + 1} phase`} list="phases" />
-                  <FieldError error={err(`data.segments.${i}.phase`)} />
+                  <PhaseSelect
+                    value={s.phase}
+                    onChange={(p) => {
+                      update(i, { phase: p });
+                      // The anchor usually sits in the first segment's phase: it follows it unless set apart.
+                      if (i === 0 && (!reference.phase || reference.phase === s.phase)) setReference({ ...reference, phase: p });
+                    }}
+                    known={known}
+                    label={`Segment ${i + 1} phase`}
+                    invalid={!s.phase}
+                  />
+                  <FieldError error={s.phase ? err(`data.segments.${i}.phase`) : "Choose a phase."} />
                 </label>
                 <label className="space-y-1 text-sm text-ink-soft">
                   <span className="font-medium">Cp form</span>
@@ -243,7 +266,6 @@ export function VersionEditor({ existing, species, modelId }: { existing?: Exist
             </section>
           );
         })}
-        <datalist id="phases"><option value="cr" /><option value="l" /><option value="g" /></datalist>
         <Button type="button" variant="secondary" onClick={() => setSegments((all) => [...all, { ...all[all.length - 1], tminK: all[all.length - 1].tmaxK, tmaxK: "", values: { ...all[all.length - 1].values } }])}>Add a segment</Button>
 
         <section className="space-y-3 rounded-lg border border-ink-line bg-white p-4 shadow-card">
@@ -254,7 +276,7 @@ export function VersionEditor({ existing, species, modelId }: { existing?: Exist
           {reference.on && (
             <div className="grid gap-3 sm:grid-cols-4">
               <label className="space-y-1 text-sm text-ink-soft"><span className="font-medium">T (K)</span><input className={inputClass} value={reference.tK} onChange={(e) => setReference({ ...reference, tK: e.target.value })} aria-label="Anchor T (K)" /><FieldError error={err("data.reference.tK")} /></label>
-              <label className="space-y-1 text-sm text-ink-soft"><span className="font-medium">Phase</span><input className={inputClass} value={reference.phase} onChange={(e) => setReference({ ...reference, phase: e.target.value })} aria-label="Anchor phase" list="phases" /></label>
+              <label className="space-y-1 text-sm text-ink-soft"><span className="font-medium">Phase</span><PhaseSelect value={reference.phase} onChange={(p) => setReference({ ...reference, phase: p })} known={known} label="Anchor phase" invalid={!reference.phase} /><FieldError error={reference.phase ? err("data.reference.phase") : "Choose the anchor's phase."} /></label>
               <label className="space-y-1 text-sm text-ink-soft"><span className="font-medium">H <span className="font-normal text-ink-muted">kJ/mol</span></span><input className={inputClass} value={reference.hkJ} onChange={(e) => setReference({ ...reference, hkJ: e.target.value })} aria-label="Anchor H (kJ/mol)" /><FieldError error={err("data.reference.hkJ")} /></label>
               <label className="space-y-1 text-sm text-ink-soft"><span className="font-medium">S <span className="font-normal text-ink-muted">J/(mol·K)</span></span><input className={inputClass} value={reference.sJ} onChange={(e) => setReference({ ...reference, sJ: e.target.value })} aria-label="Anchor S (J/(mol·K))" /><FieldError error={err("data.reference.sJ")} /></label>
             </div>

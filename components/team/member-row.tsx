@@ -1,23 +1,39 @@
 "use client";
 
-import { useActionState } from "react";
+import { startTransition, useActionState, useState } from "react";
 import { changeRoleAction, removeMemberAction } from "@/app/(app)/team/actions";
 import { Button } from "@/components/ui/button";
 import { inputClass } from "@/components/ui/field";
-import { initialActionState } from "@/lib/actions";
+import { initialActionState, type ActionState } from "@/lib/actions";
 import { ROLES, ROLE_LABELS, type Role } from "@/lib/auth/permissions";
 
 export function MemberControls({ membershipId, role, name }: { membershipId: number; role: Role; name: string }) {
-  const [roleState, roleAction, rolePending] = useActionState(changeRoleAction, initialActionState);
+  // The select is controlled and the form is sent without the automatic form reset (which
+  // put the select back on the role it was first rendered with): after "Role saved." it
+  // shows what was stored, and a second save sends that again.
+  const [chosen, setChosen] = useState<Role>(role);
+  const [roleState, roleAction, rolePending] = useActionState(async (prev: ActionState, formData: FormData) => {
+    const answer = await changeRoleAction(prev, formData);
+    // Refused: the stored role did not change, so show it again.
+    if (!answer.ok) setChosen(role);
+    return answer;
+  }, initialActionState);
   const [removeState, removeAction, removePending] = useActionState(removeMemberAction, initialActionState);
   const message = removeState.message ?? roleState.message;
   const failed = (removeState.message && !removeState.ok) || (roleState.message && !roleState.ok);
   return (
     <div className="flex flex-wrap items-center justify-end gap-2">
-      <form action={roleAction} className="flex items-center gap-2">
+      <form
+        className="flex items-center gap-2"
+        onSubmit={(e) => {
+          e.preventDefault();
+          const data = new FormData(e.currentTarget);
+          startTransition(() => roleAction(data));
+        }}
+      >
         <input type="hidden" name="membershipId" value={membershipId} />
         <label className="sr-only" htmlFor={`role-${membershipId}`}>Role of {name}</label>
-        <select id={`role-${membershipId}`} name="role" defaultValue={role} className={`${inputClass} w-36 py-1.5`}>
+        <select id={`role-${membershipId}`} name="role" value={chosen} onChange={(e) => setChosen(e.target.value as Role)} className={`${inputClass} w-36 py-1.5`} data-stored-role={role}>
           {ROLES.map((r) => (
             <option key={r} value={r}>{ROLE_LABELS[r]}</option>
           ))}

@@ -19,7 +19,7 @@ export const PERMISSIONS = {
   "team.view": everyone,
   "members.manage": ["admin"],
   "invitations.manage": ["admin"],
-  "audit.view": ["admin", "reviewer"],
+  "audit.view": ["admin", "reviewer", "steward"],
   "outbox.view": ["admin"],
   "evaluate.run": everyone,
   "library.view": everyone,

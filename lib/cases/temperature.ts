@@ -47,3 +47,42 @@ export function formatQuantity(q: Quantity): string {
   if (!s) return String(q);
   return `${s.value} ${UNIT_LABELS[s.unit]}`;
 }
+
+/** A temperature in K shown in `unit`. */
+export function fromKelvin(k: number, unit: TemperatureUnit): number {
+  if (unit === "degC") return k - 273.15;
+  if (unit === "degF") return ((k - 273.15) * 9) / 5 + 32;
+  return k;
+}
+
+/** Rounded so that 300 K reads 26.85 °C, not 26.850000000000023. */
+const tidy = (x: number) => Number(x.toPrecision(12));
+
+/** An absolute temperature moved from one unit to another (300 K → 26.85 °C). */
+export function convertTemperature(value: number, from: TemperatureUnit, to: TemperatureUnit): number {
+  return from === to ? value : tidy(fromKelvin(toKelvin(joinQuantity(value, from)), to));
+}
+
+/** A temperature difference moved from one unit to another (a step of 10 K is 10 °C and 18 °F). */
+export function convertDifference(value: number, from: TemperatureUnit, to: TemperatureUnit): number {
+  if (from === to) return value;
+  const k = from === "degF" ? (value * 5) / 9 : value;
+  return tidy(to === "degF" ? (k * 9) / 5 : k);
+}
+
+/**
+ * What a typed field reads after the unit switch: the same temperature (or difference) in the
+ * new unit. Text that is not a number is left as typed for the form to flag.
+ */
+export function convertTyped(text: string, from: TemperatureUnit, to: TemperatureUnit, kind: "absolute" | "difference" = "absolute"): string {
+  const t = text.trim();
+  if (t === "" || from === to) return text;
+  const n = Number(t);
+  if (!Number.isFinite(n)) return text;
+  return String(kind === "absolute" ? convertTemperature(n, from, to) : convertDifference(n, from, to));
+}
+
+/** A list of typed temperatures ("300, 400 500") converted entry by entry, keeping the separators. */
+export function convertTypedList(text: string, from: TemperatureUnit, to: TemperatureUnit): string {
+  return text.replace(/[^\s,;]+/g, (entry) => convertTyped(entry, from, to));
+}

@@ -1,5 +1,5 @@
 import "server-only";
-import type { Transaction } from "sequelize";
+import { Op, type Transaction, type WhereOptions } from "sequelize";
 import type { Actor } from "@/lib/auth/guards";
 import { requirePermission } from "@/lib/auth/guards";
 import { models } from "@/lib/db";
@@ -35,20 +35,28 @@ export type AuditEventDto = {
   action: string;
   entityType: string;
   entityId: string;
+  actorId: number | null;
   actorName: string | null;
   before: unknown;
   after: unknown;
   at: string;
 };
 
-export async function listAudit(actor: Actor | null, limit = 50): Promise<AuditEventDto[]> {
+/** Which events to list: one record (type, optionally its id), one actor, one action; newest first. */
+export type AuditFilter = { entityType?: string; entityId?: string; actorId?: number; action?: string; beforeId?: number; limit?: number };
+
+/** The team's audit trail, newest first, filtered by record, actor or action (at most 200 a page; page on with `beforeId`). */
+export async function listAudit(actor: Actor | null, filter: AuditFilter | number = {}): Promise<AuditEventDto[]> {
   const me = requirePermission(actor, "audit.view");
+  const f: AuditFilter = typeof filter === "number" ? { limit: filter } : filter;
   const { AuditEvent, User } = models();
-  const rows = await AuditEvent.findAll({
-    where: { teamId: me.teamId },
-    order: [["id", "DESC"]],
-    limit,
-  });
+  const where: WhereOptions = { teamId: me.teamId };
+  if (f.entityType) Object.assign(where, { entityType: f.entityType });
+  if (f.entityId) Object.assign(where, { entityId: f.entityId });
+  if (f.actorId) Object.assign(where, { actorId: f.actorId });
+  if (f.action) Object.assign(where, { action: f.action });
+  if (f.beforeId) Object.assign(where, { id: { [Op.lt]: f.beforeId } });
+  const rows = await AuditEvent.findAll({ where, order: [["id", "DESC"]], limit: Math.min(200, Math.max(1, f.limit ?? 50)) });
   const names = new Map(
     (await User.findAll({ where: { id: [...new Set(rows.map((r) => r.actorId).filter((x): x is number => x != null))] } })).map(
       (u) => [u.id, u.name],
@@ -59,9 +67,24 @@ export async function listAudit(actor: Actor | null, limit = 50): Promise<AuditE
     action: r.action,
     entityType: r.entityType,
     entityId: r.entityId,
+    actorId: r.actorId,
     actorName: r.actorId != null ? (names.get(r.actorId) ?? null) : null,
     before: r.before,
     after: r.after,
     at: r.createdAt.toISOString(),
   }));
+}
+
+/** What the filters can choose from: the team's record types, actions and actors that appear in its trail. */
+export async function auditFacets(actor: Actor | null): Promise<{ entityTypes: string[]; actions: string[]; actors: { id: number; name: string }[] }> {
+  const me = requirePermission(actor, "audit.view");
+  const { AuditEvent, User } = models();
+  const rows = await AuditEvent.findAll({ where: { teamId: me.teamId }, attributes: ["entityType", "action", "actorId"], group: ["entityType", "action", "actorId"] });
+  const ids = [...new Set(rows.map((r) => r.actorId).filter((x): x is number => x != null))];
+  const users = ids.length ? await User.findAll({ where: { id: ids }, attributes: ["id", "name"] }) : [];
+  return {
+    entityTypes: [...new Set(rows.map((r) => r.entityType))].sort(),
+    actions: [...new Set(rows.map((r) => r.action))].sort(),
+    actors: users.map((u) => ({ id: u.id, name: u.name })).sort((a, b) => a.name.localeCompare(b.name)),
+  };
 }

@@ -12,11 +12,12 @@ import { db, models } from "@/lib/db";
 import { AppError, conflict, notFound } from "@/lib/errors";
 import { env } from "@/lib/env";
 import { ENGINE_VERSION, evaluate, type EvaluateRequest, type EvaluateResult } from "@/lib/thermo";
-import type { CaseInput, CaseInputs, CaseStatus, CaseUpdate, CommentInput } from "@/lib/validation/cases";
+import { caseInputSchema, type CaseInput, type CaseInputs, type CaseStatus, type CaseUpdate, type CommentInput } from "@/lib/validation/cases";
+import { validationError } from "@/lib/http";
 import type { Case } from "@/models/case";
 import type { CaseSnapshot, PinnedVersion } from "@/models/case-snapshot";
 import { recordAudit } from "./audit";
-import { enqueueMailToRoles } from "./mail";
+import { enqueueMail, enqueueMailToRoles } from "./mail";
 import { equilibriumCsvColumns, equilibriumRequestOf, pinTerms, speciesOfPin } from "@/lib/cases/equilibrium";
 import { loadPins, newerApprovedVersions, type NewerVersionDto } from "./pins";
 
@@ -368,7 +369,51 @@ export type SnapshotDiffDto = {
   signCase: [string, string];
   warnings: { added: string[]; removed: string[] };
   points: { common: number; maxAbsDGkJ: number; maxAbsLog10K: number; rows: { tK: number; fromDGkJ: number; toDGkJ: number; fromLog10K: number; toLog10K: number }[] };
+  equilibrium: EquilibriumDiff;
 };
+
+/**
+ * How the equilibrium results moved between two revisions: `lost` when the newer one has
+ * none (its feed was dropped), `added`, `changed` (a conversion or mole fraction moved), or
+ * `unchanged`; `none` when neither has one.
+ */
+export type EquilibriumDiff = {
+  status: "none" | "lost" | "added" | "changed" | "unchanged";
+  key: [string | null, string | null];
+  pressureBar: [number | null, number | null];
+  common: number;
+  maxAbsConversion: number;
+  maxAbsMoleFraction: number;
+  rows: { tK: number; fromConversion: number; toConversion: number }[];
+};
+
+function diffEquilibrium(a: EvaluateResult, b: EvaluateResult): EquilibriumDiff {
+  const ea = a.equilibrium ?? null;
+  const eb = b.equilibrium ?? null;
+  const key: [string | null, string | null] = [a.equilibriumInfo?.key ?? null, b.equilibriumInfo?.key ?? null];
+  const pressureBar: [number | null, number | null] = [a.equilibriumInfo?.pressureBar ?? null, b.equilibriumInfo?.pressureBar ?? null];
+  const base = { key, pressureBar, common: 0, maxAbsConversion: 0, maxAbsMoleFraction: 0, rows: [] };
+  if (!ea && !eb) return { status: "none", ...base };
+  if (ea && !eb) return { status: "lost", ...base };
+  if (!ea && eb) return { status: "added", ...base };
+  const byT = new Map(ea!.map((p) => [p.tK, p]));
+  const common = eb!.filter((p) => byT.has(p.tK));
+  let maxAbsConversion = 0;
+  let maxAbsMoleFraction = 0;
+  for (const p of common) {
+    const q = byT.get(p.tK)!;
+    maxAbsConversion = Math.max(maxAbsConversion, Math.abs(p.keyConversion - q.keyConversion));
+    for (const s of new Set([...Object.keys(p.moleFractions), ...Object.keys(q.moleFractions)])) {
+      maxAbsMoleFraction = Math.max(maxAbsMoleFraction, Math.abs((p.moleFractions[s] ?? 0) - (q.moleFractions[s] ?? 0)));
+    }
+  }
+  const stride = Math.max(1, Math.ceil(common.length / 25));
+  const rows = common
+    .filter((_, i) => i % stride === 0 || i === common.length - 1)
+    .map((p) => ({ tK: p.tK, fromConversion: byT.get(p.tK)!.keyConversion, toConversion: p.keyConversion }));
+  const same = maxAbsConversion === 0 && maxAbsMoleFraction === 0 && key[0] === key[1] && pressureBar[0] === pressureBar[1];
+  return { status: same ? "unchanged" : "changed", key, pressureBar, common: common.length, maxAbsConversion, maxAbsMoleFraction, rows };
+}
 
 function flatten(value: unknown, prefix = "", out: Map<string, unknown> = new Map()): Map<string, unknown> {
   if (value !== null && typeof value === "object") {
@@ -384,7 +429,8 @@ export function diffSnapshotContents(a: Pick<CaseSnapshot, "inputs" | "pins" | "
   const fb = flatten(b.inputs);
   const inputs: ValueChange[] = [];
   for (const path of [...new Set([...fa.keys(), ...fb.keys()])].sort()) {
-    if (JSON.stringify(fa.get(path)) !== JSON.stringify(fb.get(path))) inputs.push({ path, from: fa.get(path) ?? null, to: fb.get(path) ?? null });
+    // Absent and null read the same ("—"): a dropped feed shows as its fields going, not as a null row.
+    if (JSON.stringify(fa.get(path) ?? null) !== JSON.stringify(fb.get(path) ?? null)) inputs.push({ path, from: fa.get(path) ?? null, to: fb.get(path) ?? null });
   }
   const keys = [...new Set([...a.pins.map((p) => p.key), ...b.pins.map((p) => p.key)])];
   const pins = keys
@@ -423,6 +469,7 @@ export function diffSnapshotContents(a: Pick<CaseSnapshot, "inputs" | "pins" | "
     signCase: [a.result.signCase.text, b.result.signCase.text] as [string, string],
     warnings: { added: [...wb].filter((w) => !wa.has(w)), removed: [...wa].filter((w) => !wb.has(w)) },
     points: { common: common.length, maxAbsDGkJ, maxAbsLog10K, rows },
+    equilibrium: diffEquilibrium(a.result, b.result),
   };
 }
 
@@ -462,6 +509,18 @@ export async function createCase(actor: Actor | null, input: CaseInput): Promise
   return getCase(me, id);
 }
 
+/**
+ * A PATCH changes what its body names and keeps the rest as stored (the equilibrium feed
+ * the builder does not show, for one); the merged case is checked as a whole.
+ */
+function mergeUpdate(row: Case, input: CaseUpdate): CaseInput {
+  const { lockVersion: _lock, ...named } = input;
+  const given = Object.fromEntries(Object.entries(named).filter(([, v]) => v !== undefined));
+  const parsed = caseInputSchema.safeParse({ title: row.title, notes: row.notes ?? "", ...row.inputs, ...given });
+  if (!parsed.success) throw validationError(parsed.error);
+  return parsed.data;
+}
+
 export async function updateCase(actor: Actor | null, id: number, input: CaseUpdate): Promise<CaseDto> {
   const me = requirePermission(actor, "cases.create");
   await db().transaction(async (transaction) => {
@@ -470,12 +529,13 @@ export async function updateCase(actor: Actor | null, id: number, input: CaseUpd
     if (!EDITABLE.includes(row.status)) throw conflict(`This case is ${row.status}; its snapshot is frozen and it cannot be edited.`);
     checkLock(row, input.lockVersion);
     const before = { title: row.title, notes: row.notes, inputs: row.inputs };
+    const merged = mergeUpdate(row, input);
     const old = new Map(row.inputs.terms.map((t) => [`${termKey(t)}#${t.versionId}`, true]));
     // A pin kept from before may have been superseded meanwhile; a new pin must be current.
-    const fresh = input.terms.filter((t) => !old.has(`${termKey(t)}#${t.versionId}`));
-    await loadPins(me.teamId, input.terms, { transaction, allowAny: true });
+    const fresh = merged.terms.filter((t) => !old.has(`${termKey(t)}#${t.versionId}`));
+    await loadPins(me.teamId, merged.terms, { transaction, allowAny: true });
     if (fresh.length) await loadPins(me.teamId, fresh, { transaction });
-    await row.update({ title: input.title, notes: input.notes || null, inputs: caseInputsOf(input), lockVersion: row.lockVersion + 1 }, { transaction });
+    await row.update({ title: merged.title, notes: merged.notes || null, inputs: caseInputsOf(merged), lockVersion: row.lockVersion + 1 }, { transaction });
     await recordAudit(transaction, {
       action: "case.updated",
       entityType: "case",
@@ -621,6 +681,34 @@ export async function rerunWithNewerVersions(actor: Actor | null, id: number, lo
   return getCase(me, id);
 }
 
+/**
+ * A comment is mailed to the case's author; when the author replies, to the reviewers who
+ * decided the case and everyone else who commented on it. Queued in the comment's transaction.
+ */
+async function mailComment(transaction: Transaction, me: Actor, row: Case, input: CommentInput): Promise<void> {
+  const { Comment, Review, User } = models();
+  let ids: number[];
+  if (me.userId !== row.authorId) ids = [row.authorId];
+  else {
+    const reviewers = await Review.findAll({ where: { caseId: row.id }, attributes: ["reviewerId"], transaction });
+    const commenters = await Comment.findAll({ where: { caseId: row.id }, attributes: ["authorId"], transaction });
+    ids = [...reviewers.map((r) => r.reviewerId), ...commenters.map((c) => c.authorId)];
+  }
+  const wanted = [...new Set(ids)].filter((id) => id !== me.userId);
+  if (wanted.length === 0) return;
+  // Only people still in the team hear about it.
+  const members = await models().Membership.findAll({ where: { teamId: row.teamId, userId: { [Op.in]: wanted } }, attributes: ["userId"], transaction });
+  const users = await User.findAll({ where: { id: { [Op.in]: members.map((m) => m.userId) } }, attributes: ["id", "email"], transaction });
+  if (users.length === 0) return;
+  await enqueueMail(transaction, {
+    to: users.map((u) => u.email),
+    teamId: row.teamId,
+    kind: "comment-posted",
+    subject: `Comment on ${row.title}${input.revision ? ` (revision ${input.revision})` : ""}`,
+    text: [`${me.name} commented on "${row.title}":`, ``, input.body, ``, `Open the case: ${caseUrl(row.id)}`].join("\n"),
+  });
+}
+
 export async function addComment(actor: Actor | null, caseId: number, input: CommentInput): Promise<CommentDto> {
   const me = requirePermission(actor, "comments.create");
   const id = await db().transaction(async (transaction) => {
@@ -640,6 +728,7 @@ export async function addComment(actor: Actor | null, caseId: number, input: Com
       actorId: me.userId,
       after: { commentId: c.id, revision: input.revision ?? null },
     });
+    await mailComment(transaction, me, row, input);
     return c.id;
   });
   return (await listComments(me, caseId)).find((c) => c.id === id)!;

@@ -1,6 +1,6 @@
 import "server-only";
 import crypto from "node:crypto";
-import type { Transaction } from "sequelize";
+import { Op, type Transaction } from "sequelize";
 import { requirePermission, requireSameTeam, type Actor } from "@/lib/auth/guards";
 import { parseDatasetCsv, type RowError } from "@/lib/datasets/csv";
 import { db, models } from "@/lib/db";
@@ -9,8 +9,9 @@ import { fitCp, type FitResult, type SpeciesInput } from "@/lib/thermo";
 import { datasetUploadSchema, fitParamsSchema, saveFitSchema, type DatasetUploadInput, type FitParams, type SaveFitInput } from "@/lib/validation/library";
 import type { Dataset } from "@/models";
 import type { DatasetPoint } from "@/models/dataset";
+import type { VersionStatus } from "@/models/model-version";
 import { recordAudit } from "./audit";
-import { createTeamModel, findOrCreateSpecies, getVersion, insertDraft, loadModel, type VersionDto } from "./library";
+import { createTeamModel, describeData, findOrCreateSpecies, getVersion, insertDraft, loadModel, type VersionDto } from "./library";
 
 export type DatasetSummaryDto = {
   id: number;
@@ -20,6 +21,8 @@ export type DatasetSummaryDto = {
   sha256: string;
   tUnit: string;
   cpUnit: string;
+  /** The phase measured, when the uploader said. */
+  phase: string | null;
   pointCount: number;
   rangeK: [number, number] | null;
   species: { id: number; formula: string; displayName: string } | null;
@@ -49,6 +52,7 @@ async function toDto(d: Dataset, transaction?: Transaction): Promise<DatasetDto>
     sha256: d.sha256,
     tUnit: d.tUnit,
     cpUnit: d.cpUnit,
+    phase: d.phase ?? null,
     pointCount: d.points.length,
     rangeK: temps.length ? [Math.min(...temps), Math.max(...temps)] : null,
     species: species ? { id: species.id, formula: species.formula, displayName: species.displayName } : null,
@@ -114,6 +118,7 @@ export async function uploadDataset(actor: Actor | null, raw: DatasetUploadInput
         sha256: crypto.createHash("sha256").update(input.text, "utf8").digest("hex"),
         tUnit: parsed.tUnit,
         cpUnit: parsed.cpUnit,
+        phase: input.phase ?? null,
         points: parsed.points,
         uploadedById: me.userId,
       },
@@ -125,14 +130,24 @@ export async function uploadDataset(actor: Actor | null, raw: DatasetUploadInput
       entityId: dataset.id,
       teamId: me.teamId,
       actorId: me.userId,
-      after: { name: dataset.name, points: parsed.points.length, sha256: dataset.sha256, tUnit: parsed.tUnit, cpUnit: parsed.cpUnit },
+      after: { name: dataset.name, points: parsed.points.length, sha256: dataset.sha256, tUnit: parsed.tUnit, cpUnit: parsed.cpUnit, phase: input.phase ?? null },
     });
     return toDto(dataset, transaction);
   });
 }
 
+const NEEDS_PHASE = "phase: say which phase the measurements are for (cr, l or g); the dataset does not say.";
+
+/** The phase a fit is for: as asked, else the dataset's own; never a silent default. */
+function fitPhase(dataset: Dataset, asked: string | undefined): string {
+  const phase = asked ?? dataset.phase ?? null;
+  if (!phase) throw new AppError(422, "invalid-request", NEEDS_PHASE, { fields: { phase: NEEDS_PHASE.replace(/^phase: /, "") } });
+  return phase;
+}
+
 function runFit(dataset: Dataset, params: FitParams): FitDto {
-  const p = fitParamsSchema.parse(params);
+  const p = { ...fitParamsSchema.parse(params) };
+  p.phase = fitPhase(dataset, p.phase);
   const lo = p.tminK ?? -Infinity;
   const hi = p.tmaxK ?? Infinity;
   const points = dataset.points.filter((pt) => pt.tK >= lo && pt.tK <= hi);
@@ -190,4 +205,33 @@ export async function saveFitAsDraft(actor: Actor | null, id: number, raw: SaveF
     return version.id;
   });
   return getVersion(me, versionId);
+}
+
+/**
+ * The phases each species' visible versions already hold (reference and the team's own,
+ * any status but rejected), so a phase picker can offer them and default to the only one.
+ */
+export async function phasesBySpecies(actor: Actor | null): Promise<Record<number, string[]>> {
+  const me = requirePermission(actor, "library.view");
+  const { CpModel, ModelVersion } = models();
+  const cpModels = await CpModel.findAll({ where: { [Op.or]: [{ teamId: null }, { teamId: me.teamId }] }, attributes: ["id", "speciesId"] });
+  const versions = await ModelVersion.findAll({ where: { modelId: { [Op.in]: cpModels.map((m) => m.id) }, status: { [Op.ne]: "rejected" } }, attributes: ["modelId", "data"] });
+  const speciesOf = new Map(cpModels.map((m) => [m.id, m.speciesId]));
+  const out: Record<number, string[]> = {};
+  for (const v of versions) {
+    const sid = speciesOf.get(v.modelId);
+    if (sid == null) continue;
+    const list = (out[sid] ??= []);
+    for (const p of describeData(v.data).phases) if (!list.includes(p)) list.push(p);
+  }
+  return out;
+}
+
+/** The model versions fitted to a dataset (any status), newest first. */
+export async function datasetVersions(actor: Actor | null, id: number): Promise<{ id: number; modelName: string; versionNumber: number; status: VersionStatus }[]> {
+  const me = requirePermission(actor, "library.view");
+  const d = await loadDataset(me, id);
+  const { CpModel, ModelVersion } = models();
+  const rows = await ModelVersion.findAll({ where: { datasetId: d.id, teamId: me.teamId }, include: [{ model: CpModel, as: "model" }], order: [["id", "DESC"]] });
+  return rows.map((v) => ({ id: v.id, modelName: v.model?.name ?? "—", versionNumber: v.versionNumber, status: v.status }));
 }

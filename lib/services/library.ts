@@ -156,7 +156,7 @@ async function contributorsOf(v: ModelVersion, transaction?: Transaction): Promi
   return [...byUser].map(([userId, roles]) => ({ userId, roles: CONTRIBUTOR_ROLES.filter((x) => roles.has(x)) }));
 }
 
-async function versionDto(v: ModelVersion, transaction?: Transaction): Promise<VersionDto> {
+export async function versionDto(v: ModelVersion, transaction?: Transaction): Promise<VersionDto> {
   const { CpModel, Species } = models();
   const model = v.model ?? (await CpModel.findByPk(v.modelId, { transaction }))!;
   const species = model.species ?? (await Species.findByPk(model.speciesId, { transaction }))!;
@@ -428,7 +428,7 @@ export async function createVersion(actor: Actor | null, modelId: number, input:
 
 // ------------------------------------------------------------------ versions
 
-async function loadVersion(me: Actor, id: number, transaction?: Transaction): Promise<ModelVersion> {
+export async function loadVersion(me: Actor, id: number, transaction?: Transaction): Promise<ModelVersion> {
   const { ModelVersion, CpModel, Species } = models();
   const version = await ModelVersion.findByPk(id, { include: [{ model: CpModel, as: "model", include: [{ model: Species, as: "species" }] }], transaction });
   if (!version) throw notFound("Model version");

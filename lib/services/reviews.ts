@@ -127,6 +127,9 @@ export async function recentDecisions(actor: Actor | null, limit = 5): Promise<{
   };
 }
 
+/** A proposed model version waiting for the actor's approval. */
+export type ProposalSummaryDto = { versionId: number; versionNumber: number; modelName: string; formula: string; authorName: string | null; proposedAt: string | null };
+
 /** What waits for the actor, for the home page. */
 export async function homeCounts(actor: Actor | null) {
   const me = requirePermission(actor, "cases.view");
@@ -135,10 +138,24 @@ export async function homeCounts(actor: Actor | null) {
     : [];
   const reviews = can(me.role, "cases.review") ? await reviewQueue(me) : [];
   let proposals = 0;
+  let proposalItems: ProposalSummaryDto[] = [];
   if (can(me.role, "models.decide")) {
-    proposals = await models().ModelVersion.count({
+    // Colleagues' proposals only: nobody decides work they contributed to (four-eyes).
+    const rows = await models().ModelVersion.findAll({
       where: { teamId: me.teamId, status: "proposed", id: { [Op.notIn]: await contributedVersionIds(me.userId) }, [Op.or]: [{ authorId: null }, { authorId: { [Op.ne]: me.userId } }] },
+      include: [{ model: models().CpModel, as: "model", include: [{ model: models().Species, as: "species" }] }],
+      order: [["proposedAt", "ASC"], ["id", "ASC"]],
     });
+    proposals = rows.length;
+    const authors = await models().User.findAll({ where: { id: { [Op.in]: rows.map((r) => r.authorId).filter((x): x is number => x != null) } }, attributes: ["id", "name"] });
+    proposalItems = rows.map((v) => ({
+      versionId: v.id,
+      versionNumber: v.versionNumber,
+      modelName: v.model?.name ?? "—",
+      formula: v.model?.species?.formula ?? "",
+      authorName: authors.find((u) => u.id === v.authorId)?.name ?? null,
+      proposedAt: v.proposedAt ? v.proposedAt.toISOString() : null,
+    }));
   }
-  return { drafts, reviews, proposals, decisions: await recentDecisions(me) };
+  return { drafts, reviews, proposals, proposalItems, decisions: await recentDecisions(me) };
 }

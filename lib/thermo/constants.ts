@@ -8,6 +8,9 @@ export const ATM_PA = 101325;
 export const T298 = 298.15;
 /** Above this pressure the ideal-gas K gets a `high-pressure` warning. */
 export const HIGH_PRESSURE_BAR = 10;
+/** Supported temperatures, K: a grid temperature or referenceK outside [1 K, 100 000 K] is refused. */
+export const MIN_TEMPERATURE_K = 1;
+export const MAX_TEMPERATURE_K = 100000;
 /** Largest temperature grid the engine accepts. */
 export const MAX_POINTS = 100000;
 

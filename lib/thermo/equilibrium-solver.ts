@@ -282,6 +282,48 @@ function interiorStart(p: EquilibriumProblem, mayBeAbsent: (i: number) => boolea
   return { xi, n, absent };
 }
 
+/** Convergence threshold on ΔrG/RT: never tighter than 1e-10, and never below the rounding floor. */
+export const RESIDUAL_TOL = 1e-10;
+const FLOOR_ULPS = 32;
+
+/**
+ * The rounding floor of each reaction's ΔrG/RT at amounts n reached from the feed by the
+ * extents xi: ν·μ°/RT carries eps × Σ|ν μ°/RT|, and ln nᵢ carries eps × (n0ᵢ + Σ|ν ξ|)/nᵢ,
+ * since nᵢ = n0ᵢ + Σ ν ξ is formed by a sum whose terms may be far larger than nᵢ (a species
+ * nearly used up, or one made in traces from large extents).
+ */
+export function residualFloor(p: EquilibriumProblem, n: Float64Array, xi: number[]): number {
+  const S = n.length;
+  const R = p.nu.length;
+  const gross = new Float64Array(S);
+  let grossGas = 0;
+  let ng = 0;
+  for (let i = 0; i < S; i++) {
+    let g = p.n0[i];
+    for (let j = 0; j < R; j++) g += Math.abs(p.nu[j][i] * xi[j]);
+    gross[i] = g;
+    if (p.gas[i]) {
+      grossGas += g;
+      ng += n[i];
+    }
+  }
+  const lnNg = ng > 0 ? Math.log(ng) : 0;
+  let worst = 0;
+  for (let j = 0; j < R; j++) {
+    let f = 0;
+    for (let i = 0; i < S; i++) {
+      const v = Math.abs(p.nu[j][i]);
+      if (v === 0) continue;
+      f += v * Math.abs(p.g[i]);
+      if (p.gas[i] && n[i] > 0) {
+        f += v * (Math.abs(Math.log(n[i])) + Math.abs(lnNg) + Math.abs(p.lnP) + gross[i] / n[i] + (ng > 0 ? grossGas / ng : 0));
+      }
+    }
+    worst = Math.max(worst, f);
+  }
+  return FLOOR_ULPS * Number.EPSILON * worst;
+}
+
 /** G/RT of the mixture at amounts n (inert and condensed terms included; constants cancel in differences). */
 function gibbs(p: EquilibriumProblem, n: Float64Array): number {
   const ng = gasTotal(n, p.gas);
@@ -300,7 +342,8 @@ function gibbs(p: EquilibriumProblem, n: Float64Array): number {
  * backtracking on G/RT. A pure condensed species is a phase that may vanish: a step that
  * exhausts it stops exactly there and pins it at zero (an active constraint in a KKT step);
  * it is released when its multiplier says forming it would lower G. Converged when the
- * projected ΔrG/RT of every reaction is below 1e-10 and every pinned phase would raise G.
+ * projected ΔrG/RT of every reaction is below 1e-10 (or its rounding floor, residualFloor,
+ * when that is larger) and every pinned phase would raise G.
  */
 export function solveSet(p: EquilibriumProblem, maxIter = 200): EquilibriumSolution {
   const R = p.nu.length;
@@ -317,6 +360,7 @@ export function solveSet(p: EquilibriumProblem, maxIter = 200): EquilibriumSolut
   let converged = false;
   let residual = Infinity;
   let releases = 0;
+  let stalled = false;
   const affinities = (m: Float64Array) => {
     const lnNg = Math.log(gasTotal(m, p.gas));
     return p.nu.map((row) => reactionAffinity(row, m, p, lnNg));
@@ -351,7 +395,7 @@ export function solveSet(p: EquilibriumProblem, maxIter = 200): EquilibriumSolut
       pins.forEach((i, q) => (r += p.nu[j][i] * lam[q]));
       residual = Math.max(residual, Math.abs(r));
     }
-    if (residual < 1e-10) {
+    if (residual < Math.max(RESIDUAL_TOL, residualFloor(p, n, xi))) {
       // μ = −λ ≥ 0 for a phase rightly absent; a negative one would lower G by forming.
       const release = pins.filter((_, q) => lam[q] > 1e-9);
       if (release.length === 0 || releases >= 2 * S) {
@@ -360,8 +404,11 @@ export function solveSet(p: EquilibriumProblem, maxIter = 200): EquilibriumSolut
       }
       for (const i of release) pinned.delete(i);
       releases++;
+      stalled = false;
       continue;
     }
+    // The last step changed nothing a double can hold and the residual is still above the floor.
+    if (stalled) break;
     const dn = new Float64Array(S);
     for (let i = 0; i < S; i++) for (let j = 0; j < R; j++) dn[i] += p.nu[j][i] * d[j];
     let aGas = Infinity;
@@ -409,10 +456,7 @@ export function solveSet(p: EquilibriumProblem, maxIter = 200): EquilibriumSolut
       fresh[i] = pinned.has(i) ? 0 : v > 0 ? v : trial[i];
     }
     n = fresh;
-    if (Math.abs(a) * Math.max(...d.map(Math.abs)) < 1e-16 * scale && !pinHit) {
-      iterations++;
-      break;
-    }
+    if (Math.abs(a) * Math.max(...d.map(Math.abs)) < 1e-16 * scale && !pinHit) stalled = true;
   }
   return finish(p, xi, n, converged, iterations, new Array(R).fill(false), { residual, pinned: [...pinned] });
 }

@@ -6,10 +6,10 @@
  */
 import { R } from "./constants";
 import { EngineRefusal, refuse } from "./errors";
-import { checkBalance, parseReaction, parseSpeciesKey } from "./formula";
+import { checkBalance, parseFormula, parseReaction, parseSpeciesKey } from "./formula";
 import { checkIndependent, interiorStart, solveEquilibrium, type EquilibriumProblem, type EquilibriumSolution } from "./equilibrium-solver";
-import type { ParsedSpecies } from "./schema";
-import { fmt, termAt, termOnGrid, termWarnings, type EngineWarning, type SpeciesModel, type TermGrid } from "./species";
+import { FEED_UNITS, type FeedUnit, type ParsedSpecies } from "./schema";
+import { checkFiniteGrid, fmt, termAt, termOnGrid, termWarnings, type EngineWarning, type SpeciesModel, type TermGrid } from "./species";
 import { parseUncertainty, sigmaG, sigmaGNaive, type SpeciesUncertainty } from "./uncertainty";
 import { parsePressureBar } from "./units";
 
@@ -60,8 +60,14 @@ export interface EquilibriumInfo {
   reactions: string[];
   key: string;
   pressureBar: number;
+  /** The unit the request gave (default mol). */
   feedUnit: string;
+  /** The unit of `feed` and of every `moles` in the result: mass units are converted to amounts (g → mol, kg → kmol, kg/h and t/h → kmol/h). */
+  amountUnit: string;
+  /** Feed amounts in `amountUnit`. */
   feed: Record<string, number>;
+  /** Molar masses (g/mol, from the formulas) used to convert mass units; only when a mass unit was given. */
+  molarMassGPerMol?: Record<string, number>;
   /** Species of the set and the inert ones that only ride along. */
   species: { key: string; role: "reacting" | "inert" }[];
   /** Temperatures at which the naive key fraction differs from the corrected one by more than its 1σ. */
@@ -81,7 +87,7 @@ interface SetSpecies {
 
 export interface EquilibriumInput {
   equilibrium: {
-    feed: Record<string, number>;
+    feed: Record<string, number | string>;
     feedUnit?: string;
     pressureBar?: number | string;
     key?: string;
@@ -160,8 +166,9 @@ export function equilibriumOnGrid(input: EquilibriumInput): {
   });
   if (set && nu.length > 1) checkIndependent(nu, texts, field);
 
+  const conv = feedAmounts(eq.feed, eq.feedUnit);
   const n0 = new Float64Array(S);
-  for (const [key, v] of Object.entries(eq.feed)) n0[index.get(key)!] = v;
+  for (const [key, v] of Object.entries(conv.amounts)) n0[index.get(key)!] = v;
   if (!n0.some((v) => v > 0)) {
     refuse("empty-feed", "equilibrium.feed: every amount is 0; give at least one species a positive amount");
   }
@@ -218,6 +225,7 @@ export function equilibriumOnGrid(input: EquilibriumInput): {
     let grid = input.grids.get(sp.key);
     if (!grid) {
       grid = termOnGrid(model, sp.phase, T, model.chains.size > 1);
+      checkFiniteGrid(sp.key, grid, T);
       input.grids.set(sp.key, grid);
       warnings.push(...termWarnings(model, sp.phase, T, grid, referenceK));
     }
@@ -230,6 +238,8 @@ export function equilibriumOnGrid(input: EquilibriumInput): {
   const points: EquilibriumPoint[] = new Array(n);
   const exceeds: number[] = [];
   const notConverged: number[] = [];
+  const notConvergedCorrected: number[] = [];
+  const notConvergedNaive: number[] = [];
   for (let t = 0; t < n; t++) {
     const tK = T[t];
     const RT = R * tK;
@@ -266,24 +276,112 @@ export function equilibriumOnGrid(input: EquilibriumInput): {
       if (point.naiveExceedsUncertainty) exceeds.push(tK);
     }
     if (!corrected.converged || !naive.converged) notConverged.push(tK);
+    if (!corrected.converged) notConvergedCorrected.push(tK);
+    if (!naive.converged) notConvergedNaive.push(tK);
     points[t] = point;
   }
   if (notConverged.length > 0) {
+    const list = (ts: number[]) =>
+      ts.length === 0 ? "none" : `${ts.length} (${ts.slice(0, 5).map(fmt).join(", ")}${ts.length > 5 ? ", …" : ""} K)`;
     warnings.push({
       code: "equilibrium-not-converged", tK: notConverged[0], temperaturesK: notConverged,
-      message: `the equilibrium solution did not converge at ${notConverged.length} temperature${notConverged.length > 1 ? "s" : ""} (first ${fmt(notConverged[0])} K); see diagnostics.residual`,
+      correctedK: notConvergedCorrected, naiveK: notConvergedNaive,
+      message: `the equilibrium solution did not converge at ${notConverged.length} temperature${notConverged.length > 1 ? "s" : ""} (first ${fmt(notConverged[0])} K): corrected rows ${list(notConvergedCorrected)}, naive rows ${list(notConvergedNaive)}; see diagnostics.residual`,
     });
   }
   const info: EquilibriumInfo = {
     reactions: texts,
     key,
     pressureBar,
-    feedUnit: eq.feedUnit ?? "mol",
+    feedUnit: conv.feedUnit,
+    amountUnit: conv.amountUnit,
     feed: Object.fromEntries(list.map((s, i) => [s.key, n0[i]])),
+    ...(conv.molarMass ? { molarMassGPerMol: conv.molarMass } : {}),
     species: list.map((s) => ({ key: s.key, role: s.reacting ? "reacting" : "inert" })),
   };
   if (anyUncertainty) info.naiveExceedsUncertaintyK = exceeds;
   return { points, info, warnings };
+}
+
+interface FeedUnitInfo {
+  /** Amount (mol, or g for a mass unit) or rate (mol/s, or g/s). */
+  rate: boolean;
+  mass: boolean;
+  /** Size in mol, mol/s, g or g/s. */
+  factor: number;
+}
+
+const FEED_UNIT_INFO: Record<FeedUnit, FeedUnitInfo> = {
+  mol: { rate: false, mass: false, factor: 1 },
+  kmol: { rate: false, mass: false, factor: 1000 },
+  "mol/s": { rate: true, mass: false, factor: 1 },
+  "kmol/s": { rate: true, mass: false, factor: 1000 },
+  "kmol/h": { rate: true, mass: false, factor: 1000 / 3600 },
+  g: { rate: false, mass: true, factor: 1 },
+  kg: { rate: false, mass: true, factor: 1000 },
+  "kg/h": { rate: true, mass: true, factor: 1000 / 3600 },
+  "t/h": { rate: true, mass: true, factor: 1e6 / 3600 },
+};
+
+/** The amount unit results are given in, for each feed unit. */
+const AMOUNT_UNIT: Record<FeedUnit, FeedUnit> = {
+  mol: "mol", kmol: "kmol", "mol/s": "mol/s", "kmol/s": "kmol/s", "kmol/h": "kmol/h", g: "mol", kg: "kmol", "kg/h": "kmol/h", "t/h": "kmol/h",
+};
+
+const FEED_AMOUNT = /^([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*(\S+)$/;
+
+/**
+ * Feed amounts in the amount unit of `feedUnit`: bare numbers are in feedUnit; a string
+ * carries its own unit of the same set (an amount when feedUnit is an amount, a rate when
+ * it is a rate); mass units go through each species' molar mass (from its formula).
+ */
+export function feedAmounts(
+  feed: Record<string, number | string>,
+  feedUnit: string | undefined,
+): { amounts: Record<string, number>; feedUnit: FeedUnit; amountUnit: FeedUnit; molarMass?: Record<string, number> } {
+  const unit = (feedUnit ?? "mol") as FeedUnit;
+  if (!Object.prototype.hasOwnProperty.call(FEED_UNIT_INFO, unit)) {
+    refuse("invalid-request", `invalid request: equilibrium.feedUnit: expected one of ${FEED_UNITS.join(", ")}`);
+  }
+  const target = AMOUNT_UNIT[unit];
+  const tInfo = FEED_UNIT_INFO[target];
+  const amounts: Record<string, number> = {};
+  let molarMass: Record<string, number> | undefined;
+  for (const [key, raw] of Object.entries(feed)) {
+    const field = `equilibrium.feed[${JSON.stringify(key)}]`;
+    let value: number;
+    let u: FeedUnit = unit;
+    const text = typeof raw === "number" ? "" : raw.trim();
+    if (typeof raw === "number") value = raw;
+    else if (/^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/.test(text)) value = Number(text);
+    else {
+      const m = FEED_AMOUNT.exec(text);
+      if (!m || !Object.prototype.hasOwnProperty.call(FEED_UNIT_INFO, m[2])) {
+        refuse("unit-error", `${field}: cannot read "${raw}" as a feed amount; expected a number with one of ${FEED_UNITS.join(", ")}`, { field });
+      }
+      value = Number(m![1]);
+      u = m![2] as FeedUnit;
+    }
+    if (!Number.isFinite(value!) || value! < 0) {
+      refuse("invalid-request", `invalid request: ${field}: expected an amount of 0 or more (got ${JSON.stringify(raw)})`, { field });
+    }
+    const info = FEED_UNIT_INFO[u];
+    if (info.rate !== tInfo.rate) {
+      refuse(
+        "unit-error",
+        `${field}: "${raw}" is ${info.rate ? "a rate" : "an amount"} but feedUnit "${unit}" is ${tInfo.rate ? "a rate" : "an amount"}; give every feed amount as ${tInfo.rate ? "a rate" : "an amount"}`,
+        { field },
+      );
+    }
+    let base = value! * info.factor;
+    if (info.mass) {
+      const M = parseFormula(parseSpeciesKey(key).formula).molarMassGPerMol;
+      molarMass = { ...(molarMass ?? {}), [key]: M };
+      base /= M;
+    }
+    amounts[key] = base / tInfo.factor;
+  }
+  return { amounts, feedUnit: unit, amountUnit: target, molarMass };
 }
 
 /** Solve one problem and shape it; `sigma` (μ°/RT units per species) adds the linear bands. */

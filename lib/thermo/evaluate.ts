@@ -5,11 +5,13 @@
 import { ENGINE_VERSION, HIGH_PRESSURE_BAR, R, T298 } from "./constants";
 import { refuse } from "./errors";
 import { checkBalance, parseReaction } from "./formula";
-import { parseTemperatureGrid } from "./grid";
+import { inSupportedRange, parseTemperatureGrid } from "./grid";
 import { brent } from "./roots";
+import { withWorkBudget, WORK_BUDGET } from "./integrate";
 import { describeIssue, evaluateRequestSchema, missingIsRequired } from "./schema";
 import {
   buildSpeciesModel,
+  checkFiniteGrid,
   fmt,
   termAt,
   termOnGrid,
@@ -19,7 +21,7 @@ import {
   type SpeciesRow,
   type TermGrid,
 } from "./species";
-import { parsePressureBar, parseTemperatureK } from "./units";
+import { parseMolarEnergyKJ, parsePressureBar, parseTemperatureK } from "./units";
 import { equilibriumOnGrid, type EquilibriumInfo, type EquilibriumPoint } from "./equilibrium";
 import { combine, parseUncertainty, sigmaG, sigmaGNaive, type SpeciesUncertainty } from "./uncertainty";
 
@@ -101,11 +103,45 @@ function reactionAt(terms: Term[], T: number): { dCp: number; dH: number; dS: nu
 }
 
 /**
+ * Rounding scale of ΔrG at T (J/mol): ΔrG is a sum of ν·(H − T·S) over the terms, each known
+ * to about 1e-13 of its size from the integration and a few ulps from the arithmetic.
+ */
+function touchTolerance(terms: Term[], T: number): number {
+  let size = 0;
+  for (const t of terms) {
+    const v = termAt(t.model, t.phase, T);
+    size += Math.abs(t.nu) * (Math.abs(v.hJ) + T * Math.abs(v.sJ));
+  }
+  return 1e-12 * size;
+}
+
+/** Refuses (`nonfinite-value`) a reaction value that overflowed although every species' values are finite. */
+function checkFinitePoints(points: EvaluatePoint[], ref: { dCp: number; dH: number; dS: number; dG: number }): void {
+  const fields = ["dCpJ", "dHkJ", "dSJ", "dGkJ", "lnK", "log10K", "naiveDGkJ", "naiveLnK", "diffKJ"] as const;
+  const refBad = (["dCp", "dH", "dS", "dG"] as const).find((f) => !Number.isFinite(ref[f]));
+  if (refBad) {
+    refuse("nonfinite-value", `reference: Δr${refBad.slice(1)} is not finite in double precision; the models' coefficients are outside any physical range`, { field: refBad });
+  }
+  for (const p of points) {
+    const bad = fields.find((f) => !Number.isFinite(p[f]));
+    if (bad) {
+      refuse("nonfinite-value", `points at ${fmt(p.tK)} K: ${bad} is not finite in double precision; the models' coefficients are outside any physical range`, {
+        tK: p.tK, field: bad,
+      });
+    }
+  }
+}
+
+/**
  * Evaluate a request (EVALUATE.md). Validates with `evaluateRequestSchema`; every refusal is
  * an EngineRefusal with a stable code and an exact message. Units: kJ/mol for H and G,
  * J/(mol·K) for S and Cp, K for temperatures.
  */
 export function evaluate(request: unknown): EvaluateResult {
+  return withWorkBudget(WORK_BUDGET, () => evaluateWithin(request));
+}
+
+function evaluateWithin(request: unknown): EvaluateResult {
   const parsed = evaluateRequestSchema.safeParse(request, { error: missingIsRequired });
   if (!parsed.success) {
     const issue = parsed.error.issues[0];
@@ -123,6 +159,7 @@ export function evaluate(request: unknown): EvaluateResult {
   checkBalance(reaction.terms);
   const referenceK = parseTemperatureK(req.referenceK ?? T298, "referenceK");
   if (!(referenceK > 0)) refuse("nonpositive-temperature", `referenceK: temperatures must be above 0 K (got ${referenceK} K)`);
+  inSupportedRange(referenceK, "referenceK");
   const T = parseTemperatureGrid(req.temperatures);
   const n = T.length;
 
@@ -137,6 +174,7 @@ export function evaluate(request: unknown): EvaluateResult {
   const warnings: EngineWarning[] = [];
   for (const term of terms) {
     const g = termOnGrid(term.model, term.phase, T, term.model.chains.size > 1);
+    checkFiniteGrid(term.key, g, T);
     grids.push(g);
     for (let i = 0; i < n; i++) {
       dCp[i] += term.nu * g.cp[i];
@@ -147,7 +185,12 @@ export function evaluate(request: unknown): EvaluateResult {
   }
 
   const ref = reactionAt(terms, referenceK);
-  const tolJ = req.toleranceKJ === undefined ? Infinity : req.toleranceKJ * 1000;
+  let tolJ = Infinity;
+  if (req.toleranceKJ !== undefined) {
+    const kJ = parseMolarEnergyKJ(req.toleranceKJ, "toleranceKJ");
+    if (!(kJ >= 0)) refuse("invalid-request", `invalid request: toleranceKJ: expected a tolerance of 0 or more (got ${fmt(kJ)} kJ/mol)`);
+    tolJ = kJ * 1000;
+  }
   const tolLn = req.toleranceKFactor === undefined ? Infinity : Math.log(req.toleranceKFactor);
   const dG = new Float64Array(n);
   const naive = new Float64Array(n);
@@ -177,6 +220,8 @@ export function evaluate(request: unknown): EvaluateResult {
       exceedsTolerance: Math.abs(gn - g) > tolJ || Math.abs(naiveLnK - lnK) > tolLn,
     };
   }
+
+  checkFinitePoints(points, ref);
 
   const uncertain = terms.map((t) => parseUncertainty(t.key, req.species[t.key]));
   let uncertaintySummary: UncertaintySummary | undefined;
@@ -212,12 +257,23 @@ export function evaluate(request: unknown): EvaluateResult {
   const dGAt = (t: number) => reactionAt(terms, t).dG;
   const dSAt = (t: number) => reactionAt(terms, t).dS;
   const nodes: { t: number; g: number }[] = [];
+  const extrema = new Set<number>();
+  const isExtremum = (t: number) => extrema.has(t);
   for (let i = 0; i < n; i++) {
     nodes.push({ t: T[i], g: dG[i] });
+    if (dS[i] === 0) extrema.add(T[i]);
     if (i + 1 < n && dS[i] * dS[i + 1] < 0) {
       const te = brent(dSAt, T[i], T[i + 1], dS[i], dS[i + 1]);
-      if (te > T[i] && te < T[i + 1]) nodes.push({ t: te, g: dGAt(te) });
+      if (te > T[i] && te < T[i + 1]) {
+        nodes.push({ t: te, g: dGAt(te) });
+        extrema.add(te);
+      }
     }
+  }
+  // A double root: ΔrG touches zero at an extremum (ΔrS = 0) without changing sign. An extremum
+  // whose |ΔrG| is within the rounding of the terms' H and T·S counts as a root there.
+  for (const node of nodes) {
+    if (node.g !== 0 && isExtremum(node.t) && Math.abs(node.g) <= touchTolerance(terms, node.t)) node.g = 0;
   }
   const roots: number[] = [];
   for (let i = 0; i < nodes.length; i++) {

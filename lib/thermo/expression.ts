@@ -17,15 +17,99 @@ const ALLOWED_OPERATORS = new Set(["add", "subtract", "multiply", "divide", "pow
   "smaller", "smallerEq", "larger", "largerEq", "equal", "unequal", "and", "or", "not"]);
 const FORBIDDEN = new Set(["import", "createUnit", "evaluate", "parse", "compile", "simplify", "derivative", "reviver", "chain", "config", "help"]);
 
-/** Compile a Cp expression once; throws EngineRefusal `invalid-expression` with an exact message. */
-export function compileCpExpression(text: string, label: string): (tK: number) => number {
+/** The expression budget, checked before anything is evaluated. */
+export const EXPRESSION_MAX_CHARS = 2000;
+export const EXPRESSION_MAX_NODES = 400;
+export const EXPRESSION_MAX_DEPTH = 48;
+
+function overBudget(label: string, what: string, got: number, limit: number, unit: string): never {
+  return refuse(
+    "expression-budget",
+    `${label}: the Cp expression ${what} ${got} ${unit}; at most ${limit} are allowed`,
+    { got, limit },
+  );
+}
+
+/**
+ * Nesting the parser itself would recurse through, counted on the text (mathjs parses
+ * prefix operators, powers and parentheses recursively): open parentheses, and runs of
+ * prefix signs and `^` between operands.
+ */
+function textNesting(text: string): number {
+  let depth = 0;
+  let worst = 0;
+  let run = 0;
+  let afterOperand = false;
+  for (const ch of text) {
+    if (ch === " " || ch === "\t") continue;
+    if (ch === "(" || ch === "[") {
+      depth++;
+      run = 0;
+      afterOperand = false;
+    } else if (ch === ")" || ch === "]") {
+      depth = Math.max(0, depth - 1);
+      afterOperand = true;
+    } else if (ch === "^") {
+      run++;
+      afterOperand = false;
+    } else if ((ch === "-" || ch === "+" || ch === "!") && !afterOperand) {
+      run++;
+    } else if (/[-+*\/,<>=?:&|]/.test(ch)) {
+      afterOperand = false;
+      run = 0;
+    } else {
+      afterOperand = true;
+    }
+    worst = Math.max(worst, depth + run);
+  }
+  return worst;
+}
+
+/** Node count and depth without recursion (a flat chain of 10 000 terms is a tree 10 000 deep). */
+function measure(root: MathNode, label: string): number {
+  let nodes = 0;
+  let deepest = 0;
+  const stack: [MathNode, number][] = [[root, 1]];
+  while (stack.length) {
+    const [n, d] = stack.pop()!;
+    nodes++;
+    if (d > deepest) deepest = d;
+    for (const c of childrenOf(n)) stack.push([c, d + 1]);
+  }
+  if (nodes > EXPRESSION_MAX_NODES) overBudget(label, "has", nodes, EXPRESSION_MAX_NODES, "nodes (numbers, symbols, operators and calls)");
+  if (deepest > EXPRESSION_MAX_DEPTH) overBudget(label, "nests", deepest, EXPRESSION_MAX_DEPTH, "levels deep");
+  return nodes;
+}
+
+function childrenOf(n: MathNode): MathNode[] {
+  const out: MathNode[] = [];
+  n.forEach((child: MathNode) => out.push(child));
+  return out;
+}
+
+/** A compiled Cp expression: Cp(T) in J/(mol·K), and its node count. */
+export interface CompiledExpression {
+  (tK: number): number;
+  nodes: number;
+}
+
+/**
+ * Compile a Cp expression once; throws EngineRefusal `invalid-expression` (or
+ * `expression-budget` for one too long, too large or too deep) with an exact message.
+ */
+export function compileCpExpression(text: string, label: string): CompiledExpression {
   const fail = (why: string): never => refuse("invalid-expression", `${label}: ${why}`);
+  if (text.length > EXPRESSION_MAX_CHARS) overBudget(label, "is", text.length, EXPRESSION_MAX_CHARS, "characters long");
+  const nesting = textNesting(text);
+  if (nesting > EXPRESSION_MAX_DEPTH) overBudget(label, "nests", nesting, EXPRESSION_MAX_DEPTH, "levels deep");
   let node: MathNode;
   try {
     node = math.parse(text);
   } catch (e) {
+    if (e instanceof RangeError) overBudget(label, "nests", nesting, EXPRESSION_MAX_DEPTH, "levels deep");
     fail(`cannot read the expression (${(e as Error).message})`);
   }
+  const nodes = measure(node!, label);
   node!.traverse((n: MathNode, _path: string, parent: MathNode | null) => {
     switch (n.type) {
       case "ConstantNode":
@@ -68,9 +152,11 @@ export function compileCpExpression(text: string, label: string): (tK: number) =
   });
   const code = node!.compile();
   const scope = new Map<string, number>();
-  return (tK: number): number => {
+  const f = ((tK: number): number => {
     scope.set("T", tK);
     const v = code.evaluate(scope);
     return typeof v === "number" ? v : Number.NaN;
-  };
+  }) as CompiledExpression;
+  f.nodes = nodes;
+  return f;
 }

@@ -29,6 +29,10 @@ export interface CompiledSegment {
   cpBatch: CpBatch;
   /** Temperatures inside the range where Cp has a kink (table points): integration break points. */
   breaks?: Float64Array;
+  /** Σ|terms| of Cp at T (J/(mol·K)), the size of what is summed: the integrator's rounding floor. */
+  magnitude?: (tK: number) => number;
+  /** Work units per Cp evaluation (the request's work budget); 1 when absent. */
+  cost?: number;
   /** H (J/mol, formation basis) and S (J/(mol·K), at the source's standard pressure) from the published constants. */
   constants?: { hJ: (tK: number) => number; sJ: (tK: number) => number };
 }
@@ -53,6 +57,7 @@ function compileForm(seg: ParsedSegment, label: string): Omit<CompiledSegment, "
       return {
         ...base,
         cp: () => c,
+        magnitude: () => Math.abs(c),
         cpBatch: (_x, f, n) => {
           for (let i = 0; i < n; i++) f[i] = c;
         },
@@ -65,6 +70,10 @@ function compileForm(seg: ParsedSegment, label: string): Omit<CompiledSegment, "
         cp: (T) => {
           const t = T * 1e-3;
           return A + t * (B + t * (C + t * D)) + E / (t * t);
+        },
+        magnitude: (T) => {
+          const t = T * 1e-3;
+          return Math.abs(A) + Math.abs(B * t) + Math.abs(C * t * t) + Math.abs(D * t * t * t) + Math.abs(E / (t * t));
         },
         cpBatch: (x, f, n) => {
           for (let i = 0; i < n; i++) {
@@ -90,6 +99,7 @@ function compileForm(seg: ParsedSegment, label: string): Omit<CompiledSegment, "
       return {
         ...base,
         cp: (T) => R * (a1 + T * (a2 + T * (a3 + T * (a4 + T * a5)))),
+        magnitude: (T) => R * (Math.abs(a1) + Math.abs(a2 * T) + Math.abs(a3 * T * T) + Math.abs(a4 * T ** 3) + Math.abs(a5 * T ** 4)),
         cpBatch: (x, f, n) => {
           for (let i = 0; i < n; i++) {
             const T = x[i];
@@ -107,6 +117,9 @@ function compileForm(seg: ParsedSegment, label: string): Omit<CompiledSegment, "
       return {
         ...base,
         cp: (T) => R * (a1 / (T * T) + a2 / T + a3 + T * (a4 + T * (a5 + T * (a6 + T * a7)))),
+        magnitude: (T) =>
+          R *
+          (Math.abs(a1 / (T * T)) + Math.abs(a2 / T) + Math.abs(a3) + Math.abs(a4 * T) + Math.abs(a5 * T * T) + Math.abs(a6 * T ** 3) + Math.abs(a7 * T ** 4)),
         cpBatch: (x, f, n) => {
           for (let i = 0; i < n; i++) {
             const T = x[i];
@@ -126,6 +139,7 @@ function compileForm(seg: ParsedSegment, label: string): Omit<CompiledSegment, "
       return {
         ...base,
         cp: (T) => a + b * T + c / (T * T),
+        magnitude: (T) => Math.abs(a) + Math.abs(b * T) + Math.abs(c / (T * T)),
         cpBatch: (x, f, n) => {
           for (let i = 0; i < n; i++) {
             const T = x[i];
@@ -143,6 +157,11 @@ function compileForm(seg: ParsedSegment, label: string): Omit<CompiledSegment, "
         cp: (T) => {
           let sum = 0;
           for (let i = 0; i < n; i++) sum += cs[i] * T ** ks[i];
+          return sum;
+        },
+        magnitude: (T) => {
+          let sum = 0;
+          for (let i = 0; i < n; i++) sum += Math.abs(cs[i] * T ** ks[i]);
           return sum;
         },
       };
@@ -169,7 +188,8 @@ function compileForm(seg: ParsedSegment, label: string): Omit<CompiledSegment, "
     }
     case "expression": {
       const f = compileCpExpression(seg.coeffs.cp, `${label}.coeffs.cp`);
-      return { ...base, cp: f };
+      // Work per evaluation grows with the expression's size (a polynomial evaluation is 1).
+      return { ...base, cp: f, cost: Math.max(1, Math.ceil(f.nodes / 2)) };
     }
   }
 }

@@ -30,10 +30,17 @@ export interface ParsedFormula {
  * Element counts and molar mass of a formula such as `H2O`, `Ca(OH)2` or `CH3(CH2)2CH3`.
  * Counts may be decimal (`Fe0.947O`). Throws EngineRefusal `invalid-formula`.
  */
+/** Longest formula and deepest group nesting read (the group reader recurses). */
+export const MAX_FORMULA_CHARS = 200;
+export const MAX_FORMULA_DEPTH = 16;
+
 export function parseFormula(formula: string): ParsedFormula {
   const text = formula.trim();
   let pos = 0;
-  const fail = (why: string): never => refuse("invalid-formula", `formula "${formula}": ${why}`);
+  const shown = formula.length > 60 ? `${formula.slice(0, 60)}…` : formula;
+  const fail = (why: string): never => refuse("invalid-formula", `formula "${shown}": ${why}`);
+  if (text.length > MAX_FORMULA_CHARS) fail(`is ${text.length} characters long; at most ${MAX_FORMULA_CHARS} are allowed`);
+  let depth = 0;
 
   const readCount = (): number => {
     const m = /^(\d+(?:\.\d+)?|\.\d+)/.exec(text.slice(pos));
@@ -49,7 +56,9 @@ export function parseFormula(formula: string): ParsedFormula {
       const ch = text[pos];
       if (ch === "(" || ch === "[") {
         pos++;
+        if (++depth > MAX_FORMULA_DEPTH) fail(`groups nest more than ${MAX_FORMULA_DEPTH} deep`);
         const inner = readGroup(ch === "(" ? ")" : "]");
+        depth--;
         const n = readCount();
         for (const [el, c] of Object.entries(inner)) add(el, c * n);
       } else if (ch === ")" || ch === "]") {
@@ -101,30 +110,49 @@ export interface ParsedReaction {
   terms: ReactionTerm[];
 }
 
+/** Arrows between reactants and products: `->`, `=`, `=>`, `<=>`, `<->`, `→`, `⇌`, `⇄`, `↔`. */
+const ARROW = /<=>|<->|=>|->|=|→|⇌|⇄|↔/;
+/** Largest stoichiometric coefficient accepted. */
+export const MAX_COEFFICIENT = 1000;
+// A coefficient before a key: integer, decimal, exponent or a/b, signed (a sign is refused with
+// its own message), separated from the key by spaces or `*`; or a plain number written against
+// the key (`2CO(g)`, no exponent, so `1e3CO` is not read as 1000 CO).
+const COEFF_SPACED = /^([-+]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][-+]?\d+)?(?:\/\d+(?:\.\d+)?)?)(?:\s+|\s*\*\s*)(\S.*)$/;
+const COEFF_TIGHT = /^([-+]?(?:\d+(?:\.\d+)?(?:\/\d+(?:\.\d+)?)?|\.\d+))\s*\*?\s*([A-Z(\[].*)$/;
+
 /**
- * `N2(g) + 3 H2(g) -> 2 NH3(g)` (arrow `->` or `=`; integer, decimal or a/b coefficients).
- * Throws EngineRefusal `invalid-reaction`.
+ * `N2(g) + 3 H2(g) -> 2 NH3(g)` (arrow `->` or `=`, also `=>`, `<=>`, `→`, `⇌`; integer,
+ * decimal, exponent or a/b coefficients up to 1000). Throws EngineRefusal `invalid-reaction`.
  */
 export function parseReaction(text: string): ParsedReaction {
-  const parts = text.split(/->|=/);
+  const parts = text.split(ARROW);
   if (parts.length !== 2) {
     refuse("invalid-reaction", `reaction "${text}": expected reactants and products separated by one "->" or "="`);
   }
   const side = (s: string, which: string) => {
     const out: { key: string; coefficient: number }[] = [];
-    for (const raw of s.split("+")) {
+    for (const raw of s.split(/\s*\+\s*(?![^()]*\))/)) {
       const term = raw.trim();
       if (!term) refuse("invalid-reaction", `reaction "${text}": empty term among the ${which}`);
-      const m = /^(\d+(?:\.\d+)?(?:\/\d+(?:\.\d+)?)?|\.\d+)?\s*\*?\s*(.+)$/.exec(term)!;
+      const m = COEFF_SPACED.exec(term) ?? COEFF_TIGHT.exec(term);
       let coefficient = 1;
-      if (m[1]) {
+      let key = term;
+      if (m) {
         const [a, b] = m[1].split("/");
         coefficient = Number(a) / (b === undefined ? 1 : Number(b));
+        key = m[2].trim();
+      } else if (/^[-+]/.test(term)) {
+        // "-CO2(g)": a bare sign is a negative (or explicit) coefficient of 1.
+        coefficient = term[0] === "-" ? -1 : 1;
+        key = term.slice(1).trim();
       }
       if (!(coefficient > 0) || !Number.isFinite(coefficient)) {
-        refuse("invalid-reaction", `reaction "${text}": coefficient of ${m[2]} must be positive`);
+        refuse("invalid-reaction", `reaction "${text}": coefficient of ${key} must be positive`);
       }
-      out.push({ key: m[2].trim(), coefficient });
+      if (coefficient > MAX_COEFFICIENT) {
+        refuse("invalid-reaction", `reaction "${text}": coefficient of ${key} is ${coefficient}; coefficients above ${MAX_COEFFICIENT} are refused`);
+      }
+      out.push({ key, coefficient });
     }
     return out;
   };

@@ -1,11 +1,23 @@
 /** Temperature grids with units. */
-import { MAX_POINTS } from "./constants";
+import { MAX_POINTS, MAX_TEMPERATURE_K, MIN_TEMPERATURE_K } from "./constants";
 import { refuse } from "./errors";
 import type { EvaluateRequest } from "./schema";
 import { parseTemperatureDifferenceK, parseTemperatureK } from "./units";
 
 function positive(tK: number, field: string): number {
   if (!(tK > 0)) refuse("nonpositive-temperature", `${field}: temperatures must be above 0 K (got ${tK} K)`, { field });
+  return inSupportedRange(tK, field);
+}
+
+/** Refuses a temperature outside the supported 1 K to 100 000 K (`temperature-out-of-range`). */
+export function inSupportedRange(tK: number, field: string): number {
+  if (!(tK >= MIN_TEMPERATURE_K && tK <= MAX_TEMPERATURE_K)) {
+    refuse(
+      "temperature-out-of-range",
+      `${field}: ${tK} K is outside the supported range of ${MIN_TEMPERATURE_K} K to ${MAX_TEMPERATURE_K} K`,
+      { field, tK, minK: MIN_TEMPERATURE_K, maxK: MAX_TEMPERATURE_K },
+    );
+  }
   return tK;
 }
 

@@ -4,6 +4,7 @@
  * a batched G3/K7 rule per interval with the same error check, falling back to G7/K15. Results are left in `quad.h` and `quad.s`
  * (J/mol and J/(mol·K)) to avoid an allocation per grid interval.
  */
+import { refuse } from "./errors";
 
 // Kronrod 15-point abscissae and weights, Gauss 7-point weights (QUADPACK qk15).
 const XGK = new Float64Array([
@@ -26,6 +27,113 @@ const WG_CENTER = 0.417959183673469387755102040816327;
 /** Relative accuracy asked of each integral (against |K15 − G7|, a pessimistic estimate). */
 const REL_TOL = 1e-13;
 const MAX_DEPTH = 40;
+/**
+ * Rounding floor: an error estimate below FLOOR_ULPS machine epsilons of the size of Cp's
+ * terms (times the interval) is rounding noise, not truncation error, and is accepted. A
+ * polynomial whose terms are 1e4 times its value (NASA-9 liquid water) cannot meet 1e-13
+ * relative; without the floor bisection ran to its depth limit on every interval.
+ */
+const FLOOR_ULPS = 64;
+const EPS = Number.EPSILON;
+/** At the depth limit, a mean |Cp| this many times the interval's first estimate means Cp grows without bound there. */
+const SINGULAR_RATIO = 1e8;
+
+/** The segment being integrated, for the work budget, the rounding floor and messages. */
+export interface IntegrationSite {
+  species: string;
+  phase: string;
+  tminK: number;
+  tmaxK: number;
+  /** Work units per Cp evaluation (1 for a polynomial; more for an expression). */
+  cost?: number;
+  /** Σ|terms| of Cp at T (J/(mol·K)): the size of what is summed, for the rounding floor. Default |Cp|. */
+  magnitude?: (tK: number) => number;
+}
+
+export const site: { current: IntegrationSite | null } = { current: null };
+
+/** Default work budget of one request, in Cp evaluations (weighted by IntegrationSite.cost). */
+export const WORK_BUDGET = 1e8;
+let workUsed = 0;
+let workLimit = Infinity;
+
+/**
+ * Run fn with a budget on the integration work (Cp evaluations, weighted); exceeding it
+ * refuses `integration-budget` naming the species and range being integrated. Nested budgets
+ * never exceed what is left of the enclosing one, and their work counts towards it.
+ */
+export function withWorkBudget<T>(limit: number, fn: () => T): T {
+  const used = workUsed;
+  const lim = workLimit;
+  workUsed = 0;
+  workLimit = Math.min(limit, lim - used);
+  try {
+    return fn();
+  } finally {
+    workUsed = used + workUsed;
+    workLimit = lim;
+  }
+}
+
+/** Work used so far inside the innermost withWorkBudget (for tests and the benchmark). */
+export function workSoFar(): number {
+  return workUsed;
+}
+
+function where(): string {
+  const c = site.current;
+  return c ? `species "${c.species}": the ${c.phase} segment ${fmtK(c.tminK)}–${fmtK(c.tmaxK)} K` : "a Cp model";
+}
+
+function fmtK(x: number): string {
+  return Number.isFinite(x) ? String(Number(x.toPrecision(6))) : String(x);
+}
+
+function charge(n: number, a: number, b: number): void {
+  quad.evaluations += n;
+  workUsed += n * (site.current?.cost ?? 1);
+  if (workUsed > workLimit) {
+    const c = site.current;
+    refuse(
+      "integration-budget",
+      `${where()}: integrating Cp between ${fmtK(a)} K and ${fmtK(b)} K exceeded the work budget of ${workLimit} Cp evaluations for one request; its Cp cannot be integrated to working accuracy with that work (check the model, or ask for fewer temperatures)`,
+      c ? { species: c.species, phase: c.phase, tminK: c.tminK, tmaxK: c.tmaxK, fromK: a, toK: b, budget: workLimit } : { fromK: a, toK: b, budget: workLimit },
+    );
+  }
+}
+
+/** Refuse a non-finite Cp (or a non-finite integral of a finite one) on [a, b]. */
+function refuseNonfinite(cp: CpFunction, a: number, b: number): never {
+  const c = site.current;
+  const probe = [a, b, 0.5 * (a + b)];
+  for (let j = 0; j < 7; j++) {
+    const dx = 0.5 * (b - a) * XGK[j];
+    probe.push(0.5 * (a + b) - dx, 0.5 * (a + b) + dx);
+  }
+  for (const t of probe) {
+    const v = cp(t);
+    if (!Number.isFinite(v)) {
+      refuse("nonfinite-cp", `${where()}: Cp is not finite at ${fmtK(t)} K (got ${v}); the model cannot be integrated there`, {
+        ...(c ? { species: c.species, phase: c.phase } : {}), tK: t,
+      });
+    }
+  }
+  refuse(
+    "nonfinite-cp",
+    `${where()}: the integral of Cp between ${fmtK(a)} K and ${fmtK(b)} K is not finite in double precision; the model's coefficients are outside any physical range`,
+    { ...(c ? { species: c.species, phase: c.phase } : {}), fromK: a, toK: b },
+  );
+}
+
+/** Accept an interval's estimate: relative to the integral and to ∫|Cp|, or below the rounding floor of its terms. */
+function acceptable(errH: number, errS: number, h: number, s: number, absH: number, absS: number, lo: number, hi: number): boolean {
+  if (errH <= REL_TOL * Math.max(Math.abs(h), absH) + 1e-300 && errS <= REL_TOL * Math.max(Math.abs(s), absS) + 1e-300) return true;
+  const mag = site.current?.magnitude;
+  if (!mag) return false;
+  const m = Math.max(mag(lo), mag(0.5 * (lo + hi)), mag(hi));
+  const floorH = FLOOR_ULPS * EPS * m * (hi - lo);
+  return errH <= floorH && errS <= floorH / lo;
+}
 
 export interface CpFunction {
   (tK: number): number;
@@ -37,6 +145,8 @@ let ruleH = 0;
 let ruleS = 0;
 let ruleErrH = 0;
 let ruleErrS = 0;
+let ruleAbsH = 0;
+let ruleAbsS = 0;
 
 function rule(cp: CpFunction, a: number, b: number): void {
   const c = 0.5 * (a + b);
@@ -47,6 +157,8 @@ function rule(cp: CpFunction, a: number, b: number): void {
   let ks = WGK_CENTER * gc;
   let gh = WG_CENTER * fc;
   let gs = WG_CENTER * gc;
+  let ah = WGK_CENTER * Math.abs(fc);
+  let as = WGK_CENTER * Math.abs(gc);
   for (let j = 0; j < 7; j++) {
     const dx = half * XGK[j];
     const x1 = c - dx;
@@ -57,14 +169,18 @@ function rule(cp: CpFunction, a: number, b: number): void {
     const ss = f1 / x1 + f2 / x2;
     kh += WGK[j] * sh;
     ks += WGK[j] * ss;
+    ah += WGK[j] * (Math.abs(f1) + Math.abs(f2));
+    as += WGK[j] * (Math.abs(f1 / x1) + Math.abs(f2 / x2));
     if (j & 1) {
       const w = WG[j >> 1];
       gh += w * sh;
       gs += w * ss;
     }
   }
-  quad.evaluations += 15;
+  charge(15, a, b);
   ruleH = kh * half;
+  ruleAbsH = ah * half;
+  ruleAbsS = as * half;
   ruleS = ks * half;
   ruleErrH = Math.abs((kh - gh) * half);
   ruleErrS = Math.abs((ks - gs) * half);
@@ -91,16 +207,30 @@ export function integrateCp(cp: CpFunction, a: number, b: number): boolean {
   stackA[0] = a;
   stackB[0] = b;
   stackD[0] = 0;
+  let meanAbs0 = -1;
   while (top >= 0) {
     const lo = stackA[top];
     const hi = stackB[top];
     const depth = stackD[top];
     top--;
     rule(cp, lo, hi);
-    const good =
-      ruleErrH <= REL_TOL * Math.abs(ruleH) + 1e-300 && ruleErrS <= REL_TOL * Math.abs(ruleS) + 1e-300;
-    if (good || depth >= MAX_DEPTH || !Number.isFinite(ruleH + ruleS)) {
-      if (!good) ok = false;
+    if (!Number.isFinite(ruleH + ruleS)) refuseNonfinite(cp, lo, hi);
+    if (meanAbs0 < 0) meanAbs0 = ruleAbsH / (hi - lo);
+    const good = acceptable(ruleErrH, ruleErrS, ruleH, ruleS, ruleAbsH, ruleAbsS, lo, hi);
+    if (good || depth >= MAX_DEPTH) {
+      if (!good) {
+        ok = false;
+        // Still not converged on an interval of width (b − a)/2^40: a mean |Cp| far above the
+        // first estimate's means Cp grows without bound here (a pole), not a kink or a step.
+        if (ruleAbsH / (hi - lo) > SINGULAR_RATIO * Math.max(meanAbs0, 1e-300)) {
+          const c = site.current;
+          refuse(
+            "nonfinite-cp",
+            `${where()}: Cp grows without bound near ${fmtK(0.5 * (lo + hi))} K and cannot be integrated across it`,
+            { ...(c ? { species: c.species, phase: c.phase } : {}), tK: 0.5 * (lo + hi) },
+          );
+        }
+      }
       h += ruleH;
       s += ruleS;
       continue;
@@ -192,7 +322,7 @@ export function integrateIntervals(
     X[3 * k + 2] = c + dx;
   }
   cpBatch(X, F, ne);
-  quad.evaluations += ne;
+  if (m > 0) charge(ne, a[0], b[m - 1]);
   let nr = 0;
   let e = 3 * m;
   for (let k = 0; k < m; k++) {
@@ -223,8 +353,15 @@ export function integrateIntervals(
     const ss = WS_END * endsS + WS_CENTER * gc;
     const h = lh * half;
     const sv = ls * half;
-    const good =
+    if (!Number.isFinite(h + sv)) refuseNonfinite(cp, xa, xb);
+    let good =
       Math.abs((lh - sh) * half) <= REL_TOL * Math.abs(h) + 1e-300 && Math.abs((ls - ss) * half) <= REL_TOL * Math.abs(sv) + 1e-300;
+    if (!good) {
+      const ah = (WL_END * (Math.abs(fa) + Math.abs(fb)) + WL_IN * (Math.abs(f1) + Math.abs(f2)) + WL_CENTER * Math.abs(fc)) * half;
+      const as =
+        (WL_END * (Math.abs(fa / xa) + Math.abs(fb / xb)) + WL_IN * (Math.abs(f1 / X[o]) + Math.abs(f2 / X[o + 2])) + WL_CENTER * Math.abs(gc)) * half;
+      good = acceptable(Math.abs((lh - sh) * half), Math.abs((ls - ss) * half), h, sv, ah, as, xa, xb);
+    }
     if (good) {
       outH[k] = h;
       outS[k] = sv;
@@ -288,7 +425,7 @@ function integrateIntervalsK7(
     }
   }
   cpBatch(X, F, need);
-  quad.evaluations += need;
+  if (m > 0) charge(need, a[0], b[m - 1]);
   for (let k = 0; k < m; k++) {
     const half = 0.5 * (b[k] - a[k]);
     if (half === 0) {
@@ -311,8 +448,21 @@ function integrateIntervalsK7(
     const gs = W3_CENTER * gc + W3 * s2;
     const h = kh * half;
     const s = ks * half;
-    const good =
+    if (!Number.isFinite(h + s)) refuseNonfinite(cp, a[k], b[k]);
+    let good =
       Math.abs((kh - gh) * half) <= REL_TOL * Math.abs(h) + 1e-300 && Math.abs((ks - gs) * half) <= REL_TOL * Math.abs(s) + 1e-300;
+    if (!good) {
+      let ah = W7_CENTER * Math.abs(fc);
+      let as = W7_CENTER * Math.abs(gc);
+      for (let j = 0; j < 3; j++) {
+        const w = W7[j];
+        const p = F[o + 1 + 2 * j];
+        const q = F[o + 2 + 2 * j];
+        ah += w * (Math.abs(p) + Math.abs(q));
+        as += w * (Math.abs(p / X[o + 1 + 2 * j]) + Math.abs(q / X[o + 2 + 2 * j]));
+      }
+      good = acceptable(Math.abs((kh - gh) * half), Math.abs((ks - gs) * half), h, s, ah * half, as * half, a[k], b[k]);
+    }
     if (good) {
       outH[k] = h;
       outS[k] = s;

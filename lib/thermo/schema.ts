@@ -5,6 +5,57 @@
  */
 import { z } from "zod";
 
+/** Edit distance (insertions, deletions, substitutions), for "did you mean" suggestions. */
+export function levenshtein(a: string, b: string): number {
+  const prev = Array.from({ length: b.length + 1 }, (_, j) => j);
+  for (let i = 1; i <= a.length; i++) {
+    let diag = prev[0];
+    prev[0] = i;
+    for (let j = 1; j <= b.length; j++) {
+      const up = prev[j];
+      prev[j] = Math.min(prev[j] + 1, prev[j - 1] + 1, diag + (a[i - 1] === b[j - 1] ? 0 : 1));
+      diag = up;
+    }
+  }
+  return prev[b.length];
+}
+
+/** The known name nearest to `name` (case-insensitive edit distance), or null when none is close. */
+export function nearestName(name: string, known: readonly string[]): string | null {
+  let best: string | null = null;
+  let bestD = Infinity;
+  for (const k of known) {
+    const d = levenshtein(name.toLowerCase(), k.toLowerCase());
+    if (d < bestD) {
+      bestD = d;
+      best = k;
+    }
+  }
+  if (best === null) return null;
+  const close = bestD <= Math.max(1, Math.floor(Math.max(name.length, best.length) / 3)) && bestD < Math.min(name.length, best.length);
+  return close ? best : null;
+}
+
+/** `unknown field "presureBar" (did you mean "pressureBar"?)`, or the list of known fields when none is close. */
+export function unknownFieldsMessage(keys: readonly string[], known: readonly string[]): string {
+  return keys
+    .map((k) => {
+      const near = nearestName(k, known);
+      return near
+        ? `unknown field "${k}" (did you mean "${near}"?)`
+        : `unknown field "${k}" (known fields: ${known.join(", ")})`;
+    })
+    .join("; ");
+}
+
+/** A strict object: an unknown field is refused, naming it and the nearest known name. */
+function strict<T extends z.ZodRawShape>(shape: T) {
+  const known = Object.keys(shape);
+  return z.strictObject(shape, {
+    error: (issue) => (issue.code === "unrecognized_keys" ? unknownFieldsMessage(issue.keys, known) : undefined),
+  });
+}
+
 /** A number in the unit its field name carries (…K kelvin, …kJ kJ/mol, …J J/(mol·K)), or a string with a unit. */
 export const quantitySchema = z.union([z.number(), z.string().trim().min(1)], {
   error: (issue) => (issue.input === undefined ? "required" : "expected a number or a string with a unit"),
@@ -33,26 +84,26 @@ const num = z.number({ error: "expected a finite number" });
 export const segmentSchema = z.discriminatedUnion(
   "form",
   [
-    z.object({ ...range, form: z.literal("constant"), coeffs: z.object({ cpJ: quantitySchema }) }),
-    z.object({
+    strict({ ...range, form: z.literal("constant"), coeffs: strict({ cpJ: quantitySchema }) }),
+    strict({
       ...range,
       form: z.literal("shomate"),
-      coeffs: z.object({ A: num, B: num, C: num, D: num, E: num, F: num, G: num, H: num }),
+      coeffs: strict({ A: num, B: num, C: num, D: num, E: num, F: num, G: num, H: num }),
     }),
-    z.object({ ...range, form: z.literal("nasa7"), coeffs: z.array(num).length(7, { error: "expected 7 coefficients a1..a7" }) }),
-    z.object({
+    strict({ ...range, form: z.literal("nasa7"), coeffs: z.array(num).length(7, { error: "expected 7 coefficients a1..a7" }) }),
+    strict({
       ...range,
       form: z.literal("nasa9"),
       coeffs: z.array(num).length(9, { error: "expected 9 coefficients a1..a7, b1, b2" }),
     }),
-    z.object({ ...range, form: z.literal("maier-kelley"), coeffs: z.object({ a: num, b: num, c: num }) }),
-    z.object({
+    strict({ ...range, form: z.literal("maier-kelley"), coeffs: strict({ a: num, b: num, c: num }) }),
+    strict({
       ...range,
       form: z.literal("power"),
-      coeffs: z.object({
+      coeffs: strict({
         terms: z
           .array(
-            z.object({
+            strict({
               k: z.int({ error: "expected an integer exponent" }).min(-3, { error: "exponents run from -3 to 4" }).max(4, { error: "exponents run from -3 to 4" }),
               c: num,
             }),
@@ -60,27 +111,27 @@ export const segmentSchema = z.discriminatedUnion(
           .min(1, { error: "expected at least one term" }),
       }),
     }),
-    z.object({
+    strict({
       ...range,
       form: z.literal("table"),
-      coeffs: z.object({
+      coeffs: strict({
         points: z.array(z.tuple([num, num])).min(2, { error: "expected at least two [tK, cpJ] points" }),
         interpolation: z.enum(["pchip", "linear"]).optional(),
       }),
     }),
-    z.object({ ...range, form: z.literal("expression"), coeffs: z.object({ cp: z.string().trim().min(1) }) }),
+    strict({ ...range, form: z.literal("expression"), coeffs: strict({ cp: z.string().trim().min(1) }) }),
   ],
   { error: `expected form to be one of ${CP_FORMS.join(", ")}` },
 );
 
-export const transitionSchema = z.object({
+export const transitionSchema = strict({
   tK: quantitySchema,
   from: phaseSchema,
   to: phaseSchema,
   dHkJ: quantitySchema,
 });
 
-export const referenceSchema = z.object({
+export const referenceSchema = strict({
   tK: quantitySchema,
   phase: phaseSchema,
   hkJ: quantitySchema,
@@ -88,46 +139,72 @@ export const referenceSchema = z.object({
 });
 
 /** Standard uncertainties (1σ) of a species' data, from its model version. */
-export const speciesUncertaintySchema = z.object({
+export const speciesUncertaintySchema = strict({
   dfHkJ: quantitySchema.optional(),
   sJ: quantitySchema.optional(),
   cpRelative: z.number({ error: "expected a finite number" }).nonnegative({ error: "an uncertainty must not be negative" }).optional(),
 });
 
-export const speciesSchema = z.object({
+export const speciesSchema = strict({
   segments: z.array(segmentSchema).min(1, { error: "expected at least one segment" }),
   transitions: z.array(transitionSchema).optional(),
   reference: referenceSchema.optional(),
-  standardPressurePa: z.number().positive().optional(),
+  /** Standard pressure of the source (Pa when a bare number; "1 atm" is read). */
+  standardPressurePa: quantitySchema.optional(),
   uncertainty: speciesUncertaintySchema.optional(),
 });
 
 export const temperaturesSchema = z.union(
   [
-    z.object({ fromK: quantitySchema, toK: quantitySchema, stepK: quantitySchema }),
-    z.object({ listK: z.array(quantitySchema).min(1, { error: "expected at least one temperature" }) }),
+    strict({ fromK: quantitySchema, toK: quantitySchema, stepK: quantitySchema }),
+    strict({ listK: z.array(quantitySchema).min(1, { error: "expected at least one temperature" }) }),
   ],
-  { error: (issue) => (issue.input === undefined ? "required" : "expected {fromK, toK, stepK} or {listK: [...]}") },
+  {
+    error: (issue) => {
+      const input = issue.input;
+      if (input === undefined) return "required";
+      if (input && typeof input === "object" && !Array.isArray(input)) {
+        const keys = Object.keys(input);
+        const known = ["fromK", "toK", "stepK", "listK"];
+        const unknown = keys.filter((k) => !known.includes(k));
+        if (unknown.length > 0) return unknownFieldsMessage(unknown, known);
+        if (keys.includes("listK") && keys.some((k) => k !== "listK")) {
+          return "give either listK or fromK, toK and stepK, not both";
+        }
+      }
+      return "expected {fromK, toK, stepK} or {listK: [...]}";
+    },
+  },
 );
 
-export const evaluateRequestSchema = z.object({
+/** Units of the equilibrium feed: amounts, amount rates, and masses converted through each species' molar mass. */
+export const FEED_UNITS = ["mol", "kmol", "mol/s", "kmol/s", "kmol/h", "g", "kg", "kg/h", "t/h"] as const;
+export type FeedUnit = (typeof FEED_UNITS)[number];
+
+export const evaluateRequestSchema = strict({
   reaction: z.string().trim().min(1, { error: "expected a reaction" }),
   species: z.record(z.string(), speciesSchema),
   temperatures: temperaturesSchema,
   referenceK: quantitySchema.optional(),
-  toleranceKJ: z.number().nonnegative().optional(),
+  toleranceKJ: quantitySchema.optional(),
   toleranceKFactor: z.number().gt(1, { error: "expected a factor above 1" }).optional(),
   include: z.array(z.enum(["species"])).optional(),
   /** Operating pressure, used only for the `high-pressure` warning (K stays the ideal-gas, 1 bar one). */
   pressureBar: quantitySchema.optional(),
-  equilibrium: z
-    .object({
-      /** Feed amounts per species key, in one unit of amount (`feedUnit`, default "mol"). */
+  equilibrium: strict({
+      /** Feed amounts per species key, in `feedUnit` (default "mol") when bare numbers, or strings with a unit of the set. */
       feed: z.record(
         z.string(),
-        z.number({ error: "expected a finite number" }).nonnegative({ error: "expected an amount of 0 or more" }),
+        z.union([z.number().nonnegative({ error: "expected an amount of 0 or more" }), z.string().trim().min(1)], {
+          error: "expected an amount (a number of 0 or more, or a string such as \"2 kmol/h\")",
+        }),
       ),
-      feedUnit: z.string().trim().min(1).max(24).optional(),
+      // A string in the input type (case forms store free text); the engine takes only the closed set.
+      feedUnit: z
+        .string({ error: `expected one of ${FEED_UNITS.join(", ")}` })
+        .trim()
+        .refine((v) => (FEED_UNITS as readonly string[]).includes(v), { error: `expected one of ${FEED_UNITS.join(", ")}` })
+        .optional(),
       /** Total pressure; bar when a bare number (default 1 bar). */
       pressureBar: quantitySchema.optional(),
       /** Species whose conversion is reported; default the first reactant of the first reaction present in the feed. */

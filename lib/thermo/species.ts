@@ -5,11 +5,19 @@
 import { R, STANDARD_PRESSURE_PA, T298 } from "./constants";
 import { refuse } from "./errors";
 import { compileSegment, type CompiledSegment } from "./forms";
-import { integrateCp, integrateIntervals, quad } from "./integrate";
+import { integrateCp, integrateIntervals, quad, site, withWorkBudget, WORK_BUDGET } from "./integrate";
 import { brent } from "./roots";
 import { formatPath, missingIsRequired, speciesSchema, type ParsedSpecies, type SpeciesInput } from "./schema";
-import { parseMolarEnergyKJ, parseMolarEntropyJ, parseTemperatureK } from "./units";
+import { parseMolarEnergyKJ, parseMolarEntropyJ, parsePressurePa, parseTemperatureK } from "./units";
+
+/** A source's standard pressure in Pa: a bare number is Pa, a string carries its unit ("1 atm"). */
+function parseStandardPressurePa(value: number | string, field: string): number {
+  const pa = parsePressurePa(value, field);
+  if (!(pa > 0) || !Number.isFinite(pa)) refuse("invalid-request", `invalid request: ${field}: expected a positive pressure (got ${pa} Pa)`, { field });
+  return pa;
+}
 import { EngineRefusal } from "./errors";
+import { inSupportedRange } from "./grid";
 
 export interface EngineWarning {
   code: string;
@@ -32,6 +40,8 @@ interface Segment extends CompiledSegment {
   anchor?: Anchor;
   /** Position in the species' `segments` array, for messages. */
   inputIndex: number;
+  /** The species key, for messages (work budget, non-finite Cp). */
+  species: string;
 }
 
 export interface Chain {
@@ -69,6 +79,7 @@ export const MISMATCH_S_J = 0.1;
 
 function integrateSeg(seg: Segment, a: number, b: number): void {
   // a ≤ b; splits at table knots so each piece is smooth.
+  site.current = seg;
   const br = seg.breaks;
   if (!br) {
     integrateCp(seg.cp, a, b);
@@ -171,6 +182,7 @@ export function chainOnGrid(chain: Chain, T: Float64Array, cp: Float64Array, h: 
           bufB[q] = j === split - 1 ? a.tK : T[j + 1];
         }
       }
+      site.current = seg;
       integrateIntervals(seg.cpBatch, seg.cp, bufA, bufB, m, bufH, bufS, bufCA, bufCB);
       let hh = a.hJ;
       let ss = a.sJ;
@@ -249,13 +261,13 @@ export function buildSpeciesModel(key: string, entry: ParsedSpecies, referenceK:
   const label = `species "${key}"`;
   const field = (rest: string) => `${fieldPrefix ?? formatPath(["species", key])}${rest}`;
   const warnings: EngineWarning[] = [];
-  const p0 = entry.standardPressurePa ?? STANDARD_PRESSURE_PA;
+  const p0 = entry.standardPressurePa === undefined ? STANDARD_PRESSURE_PA : parseStandardPressurePa(entry.standardPressurePa, field(".standardPressurePa"));
   // S°(1 bar) = S°(p0) + R ln(p0 / 1 bar) for an ideal gas; condensed phases are left alone.
   const sCorrection = (phase: string) => (phase === "g" ? R * Math.log(p0 / STANDARD_PRESSURE_PA) : 0);
 
   const chains = new Map<string, Chain>();
   entry.segments.forEach((raw, i) => {
-    const seg: Segment = { ...compileSegment(raw, field(`.segments[${i}]`)), inputIndex: i };
+    const seg: Segment = { ...compileSegment(raw, field(`.segments[${i}]`)), inputIndex: i, species: key };
     let chain = chains.get(seg.phase);
     if (!chain) {
       chain = { phase: seg.phase, segs: [], tminK: 0, tmaxK: 0, hasConstants: false };
@@ -301,6 +313,7 @@ export function buildSpeciesModel(key: string, entry: ParsedSpecies, referenceK:
     const ref = entry.reference;
     const tK = parseTemperatureK(ref.tK, field(".reference.tK"));
     if (!(tK > 0)) refuse("nonpositive-temperature", `${field(".reference.tK")}: temperatures must be above 0 K (got ${tK} K)`);
+    inSupportedRange(tK, field(".reference.tK"));
     const hJ = 1000 * parseMolarEnergyKJ(ref.hkJ, field(".reference.hkJ"));
     const sJ = parseMolarEntropyJ(ref.sJ, field(".reference.sJ")) + sCorrection(ref.phase);
     const chain = chainOf(ref.phase, field(".reference.phase"));
@@ -324,6 +337,7 @@ export function buildSpeciesModel(key: string, entry: ParsedSpecies, referenceK:
     const at = field(`.transitions[${i}]`);
     const tK = parseTemperatureK(tr.tK, `${at}.tK`);
     if (!(tK > 0)) refuse("nonpositive-temperature", `${at}.tK: temperatures must be above 0 K (got ${tK} K)`);
+    inSupportedRange(tK, `${at}.tK`);
     return {
       tK, from: chainOf(tr.from, `${at}.from`), to: chainOf(tr.to, `${at}.to`),
       dHJ: 1000 * parseMolarEnergyKJ(tr.dHkJ, `${at}.dHkJ`), used: false,
@@ -674,6 +688,23 @@ export function termWarnings(
   return out;
 }
 
+/**
+ * Refuses (`nonfinite-value`) a term whose Cp, H or S is not a finite double at some grid
+ * temperature (coefficients so large that the values overflow), so that no result carries null.
+ */
+export function checkFiniteGrid(key: string, grid: TermGrid, T: Float64Array): void {
+  for (let i = 0; i < T.length; i++) {
+    const bad = !Number.isFinite(grid.cp[i]) ? "Cp" : !Number.isFinite(grid.h[i]) ? "H" : !Number.isFinite(grid.s[i]) ? "S" : null;
+    if (bad) {
+      refuse(
+        "nonfinite-value",
+        `species "${key}": ${bad} is not finite at ${fmt(T[i])} K (got ${bad === "Cp" ? grid.cp[i] : bad === "H" ? grid.h[i] : grid.s[i]}); the model's coefficients are outside any physical range`,
+        { species: key, tK: T[i], quantity: bad },
+      );
+    }
+  }
+}
+
 /** Numbers in messages: 6 significant figures, no trailing zeros. */
 export function fmt(x: number): string {
   if (!Number.isFinite(x)) return String(x);
@@ -703,6 +734,14 @@ export function speciesProperties(
   temperaturesK: number[],
   options: { phase?: string; referenceK?: number; key?: string } = {},
 ): { rows: SpeciesRow[]; warnings: EngineWarning[] } {
+  return withWorkBudget(WORK_BUDGET, () => speciesPropertiesWithin(species, temperaturesK, options));
+}
+
+function speciesPropertiesWithin(
+  species: SpeciesInput,
+  temperaturesK: number[],
+  options: { phase?: string; referenceK?: number; key?: string },
+): { rows: SpeciesRow[]; warnings: EngineWarning[] } {
   const parsed = speciesSchema.safeParse(species, { error: missingIsRequired });
   if (!parsed.success) {
     const issue = parsed.error.issues[0];
@@ -711,6 +750,7 @@ export function speciesProperties(
   const referenceK = options.referenceK ?? T298;
   for (const t of [...temperaturesK, referenceK]) {
     if (!(t > 0) || !Number.isFinite(t)) refuse("nonpositive-temperature", `temperaturesK: temperatures must be finite and above 0 K (got ${t} K)`);
+    inSupportedRange(t, "temperaturesK");
   }
   const key = options.key ?? "species";
   const model = buildSpeciesModel(key, parsed.data!, referenceK, "species");

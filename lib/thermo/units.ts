@@ -19,14 +19,26 @@ interface Dimension {
 export const TEMPERATURE: Dimension = { unit: "K", expected: "a temperature (K, degC or degF)" };
 export const MOLAR_ENERGY_KJ: Dimension = { unit: "kJ/mol", expected: "an energy per amount (J/mol, kJ/mol, cal/mol, kcal/mol)" };
 export const MOLAR_ENTROPY_J: Dimension = { unit: "J/(mol K)", expected: "an entropy or heat capacity per amount (J/(mol K), cal/(mol K))" };
+export const PRESSURE_PA: Dimension = { unit: "Pa", expected: "a pressure (Pa, kPa, bar, atm, psi)" };
 export const PRESSURE_BAR: Dimension = { unit: "bar", expected: "a pressure (bar, Pa, kPa, MPa, atm, psi)" };
 
 const PLAIN_NUMBER = /^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/;
 
+/** `°C`, `℃`, `°F`, `℉` and a bare `°K`/`K` as written by hand; `·` as a product. */
+function normalise(value: string): string {
+  return value
+    .replace(/℃/g, "degC")
+    .replace(/℉/g, "degF")
+    .replace(/[°º˚]\s*C\b/g, "degC")
+    .replace(/[°º˚]\s*F\b/g, "degF")
+    .replace(/[°º˚]\s*K\b/g, "K")
+    .replace(/[·⋅]/g, " ");
+}
+
 function toUnit(value: string, field: string, dim: Dimension): Unit {
   let u: Unit;
   try {
-    u = math.unit(value);
+    u = math.unit(normalise(value));
   } catch {
     refuse("unit-error", `${field}: cannot read "${value}" as a quantity; expected ${dim.expected}`, { field });
   }
@@ -78,6 +90,11 @@ export function parseMolarEnergyKJ(value: number | string, field: string): numbe
 /** J/(mol·K). */
 export function parseMolarEntropyJ(value: number | string, field: string): number {
   return parseQuantity(value, field, MOLAR_ENTROPY_J);
+}
+
+/** Pa. */
+export function parsePressurePa(value: number | string, field: string): number {
+  return parseQuantity(value, field, PRESSURE_PA);
 }
 
 /** bar. */

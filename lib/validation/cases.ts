@@ -58,16 +58,26 @@ const listSchema = z.object({ listK: z.array(absolute).min(1, "Enter at least on
 export const caseTemperaturesSchema = z.union([spanSchema, listSchema], { error: "Give a span (from, to, step) or a list of temperatures." });
 export type CaseTemperatures = z.infer<typeof caseTemperaturesSchema>;
 
+/** Each field of a case once, without defaults: a create fills the defaults in, a PATCH names only what changes. */
+const caseFields = {
+  title: oneLine(z.string({ error: "Give the case a title." }).trim().min(1, "Give the case a title.").max(160, "Use at most 160 characters.")),
+  notes: z.string().trim().max(5000, "Use at most 5000 characters."),
+  terms: z.array(termSchema).min(2, "A reaction needs at least two species.").max(20, "Use at most 20 species."),
+  temperatures: caseTemperaturesSchema,
+  referenceK: absolute,
+  toleranceKJ: z.number({ error: "Enter a tolerance in kJ/mol." }).min(0, "The tolerance cannot be negative.").max(1000, "Use at most 1000 kJ/mol."),
+  toleranceKFactor: z.number({ error: "Enter a factor above 1." }).gt(1, "A factor on K must be above 1.").max(1e6, "Use at most 1e6.").nullable(),
+  /** How far the reaction goes from a feed (optional; see lib/validation/equilibrium.ts). */
+  equilibrium: caseEquilibriumSchema.nullable(),
+};
+
 export const caseInputSchema = z
   .object({
-    title: oneLine(z.string({ error: "Give the case a title." }).trim().min(1, "Give the case a title.").max(160, "Use at most 160 characters.")),
-    notes: z.string().trim().max(5000, "Use at most 5000 characters.").default(""),
-    terms: z.array(termSchema).min(2, "A reaction needs at least two species.").max(20, "Use at most 20 species."),
-    temperatures: caseTemperaturesSchema,
-    referenceK: absolute.default(298.15),
-    toleranceKJ: z.number({ error: "Enter a tolerance in kJ/mol." }).min(0, "The tolerance cannot be negative.").max(1000, "Use at most 1000 kJ/mol.").default(1),
-    toleranceKFactor: z.number({ error: "Enter a factor above 1." }).gt(1, "A factor on K must be above 1.").max(1e6, "Use at most 1e6.").nullable().default(null),
-    /** How far the reaction goes from a feed (optional; see lib/validation/equilibrium.ts). */
+    ...caseFields,
+    notes: caseFields.notes.default(""),
+    referenceK: caseFields.referenceK.default(298.15),
+    toleranceKJ: caseFields.toleranceKJ.default(1),
+    toleranceKFactor: caseFields.toleranceKFactor.default(null),
     equilibrium: caseEquilibriumSchema.nullish(),
   })
   .superRefine((v, ctx) => {
@@ -92,7 +102,24 @@ export type CaseInputs = Omit<CaseInput, "title" | "notes">;
 
 export const lockSchema = z.object({ lockVersion: z.number({ error: "Send the lockVersion you loaded." }).int().min(0) });
 
-export const caseUpdateSchema = z.intersection(caseInputSchema, lockSchema);
+/**
+ * A PATCH names only what changes: every field is optional and a field the body leaves out
+ * keeps its stored value (the saved equilibrium feed too); `equilibrium: null` clears it.
+ * The service checks the merged case against caseInputSchema.
+ */
+export const caseUpdateSchema = z
+  .object({
+    title: caseFields.title.optional(),
+    notes: caseFields.notes.optional(),
+    terms: caseFields.terms.optional(),
+    temperatures: caseFields.temperatures.optional(),
+    referenceK: caseFields.referenceK.optional(),
+    toleranceKJ: caseFields.toleranceKJ.optional(),
+    toleranceKFactor: caseFields.toleranceKFactor.optional(),
+    equilibrium: caseFields.equilibrium.optional(),
+    lockVersion: lockSchema.shape.lockVersion,
+  })
+  .strict();
 export type CaseUpdate = z.infer<typeof caseUpdateSchema>;
 
 export const caseListQuerySchema = z.object({
@@ -130,4 +157,6 @@ export const exportQuerySchema = z
     unit: z.enum(["K", "degC", "degF"], { error: "Use a unit of K, degC or degF." }).optional(),
   })
   .strict();
+/** GET …/results: `format=columns` gives `result.columns` instead of `result.points` (lib/thermo/columns.ts). */
+export const resultsQuerySchema = z.object({ revision: revisionParamSchema.optional(), format: z.enum(["rows", "columns"]).optional() }).strict();
 export const pinQuerySchema = z.object({ formula: searchText(60).pipe(z.string().min(1)).optional() });

@@ -135,6 +135,8 @@ export const datasetUploadSchema = z.object({
   speciesId: z.number().int().positive().nullable().optional(),
   /** A new team species, when the measured solid is not in the library yet. */
   species: createSpeciesSchema.optional(),
+  /** The phase measured; the fit defaults to it. */
+  phase: phaseSchema.nullable().optional(),
 });
 export type DatasetUploadInput = z.input<typeof datasetUploadSchema>;
 
@@ -146,7 +148,8 @@ export const fitParamsSchema = z
     tminK: positiveK.optional(),
     tmaxK: positiveK.optional(),
     exponents: z.array(z.int().min(-3).max(4)).optional(),
-    phase: phaseSchema.optional().default("cr"),
+    /** Without it: the dataset's phase, else the species' one phase; never a silent "cr". */
+    phase: phaseSchema.optional(),
     reference: z.object({ tK: positiveK.optional(), hkJ: z.number({ error: "Enter H in kJ/mol." }), sJ: z.number({ error: "Enter S in J/(mol·K)." }) }).optional(),
   })
   .refine((v) => v.tminK === undefined || v.tmaxK === undefined || v.tminK < v.tmaxK, { message: "The lower limit must be below the upper one.", path: ["tmaxK"] });

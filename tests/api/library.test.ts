@@ -4,7 +4,7 @@ import * as datasets from "@/app/api/v1/datasets/route";
 import * as exportRoute from "@/app/api/v1/library/export/route";
 import * as cpModels from "@/app/api/v1/models/route";
 import * as versionRoute from "@/app/api/v1/versions/[id]/route";
-import { closeDb } from "@/lib/db";
+import { closeDb, models } from "@/lib/db";
 import { signInAs } from "../helpers/actors";
 import { freshDatabase, tableCounts } from "../helpers/db";
 import { bodyOf, ctx, jsonRequest } from "../helpers/request";
@@ -44,13 +44,17 @@ describe("library API", () => {
     expect(await tableCounts()).toEqual(before);
   });
 
-  it("export downloads a file named by date", async () => {
+  it("export downloads a file named for what it holds and the date", async () => {
     await signInAs("reviewer");
     const res = await exportRoute.GET(jsonRequest("GET", "/api/v1/library/export?models="), ctx());
     expect(res.status).toBe(200);
-    expect(res.headers.get("content-disposition")).toMatch(/^attachment; filename="heatpath-library-\d{4}-\d{2}-\d{2}\.json"$/);
+    expect(res.headers.get("content-disposition")).toMatch(/^attachment; filename="heatpath-library-all-sets-approved-\d{4}-\d{2}-\d{2}\.json"$/);
     const file = (await bodyOf(res)) as { models: unknown[] };
     // 26 reference models plus Larkspur's approved team copy.
     expect(file.models).toHaveLength(27);
+    // One model: its name; every version: said so.
+    const ch4 = await models().CpModel.findOne({ where: { name: "CH4 · Shomate (NIST-JANAF fit)" } });
+    const one = await exportRoute.GET(jsonRequest("GET", `/api/v1/library/export?models=${ch4!.id}&versions=all`), ctx());
+    expect(one.headers.get("content-disposition")).toMatch(/^attachment; filename="heatpath-library-ch4-shomate-nist-janaf-fit-all-versions-\d{4}-\d{2}-\d{2}\.json"$/);
   });
 });

@@ -40,7 +40,7 @@ describe.each(ROUTES.filter((r) => r.author))("$method $file ($name) by the auth
     const author = row.author!;
     const prepared = await author.prepare();
     await signInAs(author.who);
-    const response = await row.handler(jsonRequest(row.method, `/api/v1/${row.file}`, prepared.body), ctx(prepared.params ?? {}));
+    const response = await row.handler(jsonRequest(row.method, `/api/v1/${row.file}${row.query ? `?${row.query}` : ""}`, prepared.body), ctx(prepared.params ?? {}));
     expect(response.status).toBe(author.expect);
   });
 });
@@ -59,7 +59,7 @@ describe.each(ROUTES)("$method $file ($name)", (row) => {
   it.each(ALL_WHO)("as %s", async (who) => {
     const prepared = row.prepare ? await row.prepare() : {};
     await signInAs(who);
-    const request = jsonRequest(row.method, `/api/v1/${row.file}`, prepared.body, prepared.headers);
+    const request = jsonRequest(row.method, `/api/v1/${row.file}${row.query ? `?${row.query}` : ""}`, prepared.body, prepared.headers);
     const response = await row.handler(request, ctx(prepared.params ?? {}));
     expect(response.status).toBe(row.expect[who as keyof Expect]);
     if (response.status >= 400) {

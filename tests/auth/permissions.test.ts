@@ -8,7 +8,7 @@ const EXPECTED: Record<Action, Role[]> = {
   "team.view": ["engineer", "steward", "reviewer", "admin"],
   "members.manage": ["admin"],
   "invitations.manage": ["admin"],
-  "audit.view": ["reviewer", "admin"],
+  "audit.view": ["steward", "reviewer", "admin"],
   "outbox.view": ["admin"],
   "evaluate.run": ["engineer", "steward", "reviewer", "admin"],
   "library.view": ["engineer", "steward", "reviewer", "admin"],

@@ -74,6 +74,7 @@ describe("engineer → reviewer journey", () => {
     await shot(page, "case-results-draft");
 
     await page.getByRole("button", { name: "Submit for review" }).click();
+    await page.getByRole("dialog").getByRole("button", { name: "Submit", exact: true }).click();
     await page.getByTestId("snapshot-hash").waitFor();
     expect(await statusOf(page)).toBe("submitted");
     await signOut(page);
@@ -84,7 +85,7 @@ describe("engineer → reviewer journey", () => {
     await signIn(page, "rory.reviewer@example.test");
     // The request arrives by mail (the local catcher in demo mode); its link opens the case.
     await page.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "Outbox" }).click();
-    // Reloading before the client-side navigation lands would reload Home.
+    // Wait for the client navigation to land, or the reloads below would reload the page we came from.
     await page.waitForURL(/\/outbox$/);
     const mail = page.getByTestId("caught-message").filter({ hasText: `Review requested: ${TITLE} (revision 1)` }).first();
     for (let i = 0; i < 20 && (await mail.count()) === 0; i++) {
@@ -111,6 +112,7 @@ describe("engineer → reviewer journey", () => {
     await page.getByText("Say what needs to change (at least 5 characters).").waitFor();
     await page.getByLabel("Reason (required)").fill("Extend the span to 750 K to cover the bed-inlet excursion.");
     await page.getByRole("button", { name: "Return case" }).click();
+    await page.getByRole("dialog").getByRole("button", { name: "Return", exact: true }).click();
     await page.getByTestId("return-reason").waitFor();
     expect(await statusOf(page)).toBe("returned");
     await signOut(page);
@@ -127,6 +129,7 @@ describe("engineer → reviewer journey", () => {
     await page.waitForURL(new RegExp(`/cases/${caseId}$`));
     await page.getByTestId("input-temperatures").getByText("480 K to 750 K, step 5 K").waitFor();
     await page.getByRole("button", { name: "Resubmit for review" }).click();
+    await page.getByRole("dialog").getByRole("button", { name: "Resubmit", exact: true }).click();
     await page.getByTestId("results-source").getByText("Frozen snapshot · revision 2").waitFor();
     await page.getByRole("link", { name: "Revision 1", exact: true }).click();
     await page.getByTestId("results-source").getByText("Frozen snapshot · revision 1").waitFor();
@@ -143,6 +146,7 @@ describe("engineer → reviewer journey", () => {
     await page.getByRole("link", { name: "Back to the case" }).click();
     await page.getByLabel("Approve").check();
     await page.getByRole("button", { name: "Approve case" }).click();
+    await page.getByRole("dialog").getByRole("button", { name: "Approve", exact: true }).click();
     await page.waitForFunction(() => document.querySelector('[data-testid="case-status"]')?.getAttribute("data-status") === "approved");
     expect(await page.getByTestId("snapshots").locator("li").count()).toBe(2);
     await page.getByTestId("snapshot-hash").waitFor();

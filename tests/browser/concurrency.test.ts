@@ -1,23 +1,19 @@
-import fs from "node:fs";
 import type { ChildProcess } from "node:child_process";
-import sqlite3 from "sqlite3";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { DEMO_PASSWORD } from "@/seeders/demo-accounts";
-import { freePort, prepareDatabase, startServer, stopServer } from "./server";
+import { freePort, pgAdminUrl, prepareDatabase, queryDatabase, removeDatabase, startServer, stopServer, type PreparedDatabase } from "./server";
 
 /**
- * Two app servers on one SQLite file (the way a team scales out before PostgreSQL),
- * hit in parallel over HTTP on 127.0.0.1. Requests alternate between the servers.
+ * Two app servers on one database, hit in parallel over HTTP on 127.0.0.1; requests
+ * alternate between the servers. One SQLite file under `npm run test:browser` (the way
+ * a team scales out before PostgreSQL); one PostgreSQL database under `npm run test:postgres`.
  */
 let servers: ChildProcess[] = [];
 let bases: string[] = [];
-let databasePath = "";
-let dir = "";
+let prepared: PreparedDatabase | undefined;
 
 beforeAll(async () => {
-  const prepared = await prepareDatabase();
-  dir = prepared.dir;
-  databasePath = prepared.databasePath;
+  prepared = await prepareDatabase();
   const second = await freePort();
   servers = [await startServer(prepared.env, prepared.port), await startServer({ ...prepared.env, APP_URL: `http://127.0.0.1:${second}` }, second)];
   bases = [prepared.baseURL, `http://127.0.0.1:${second}`];
@@ -25,17 +21,12 @@ beforeAll(async () => {
 
 afterAll(async () => {
   await Promise.all(servers.map((s) => stopServer(s)));
-  if (dir) fs.rmSync(dir, { recursive: true, force: true });
+  await removeDatabase(prepared);
 });
 
-function query<T>(sql: string): Promise<T[]> {
-  return new Promise((resolve, reject) => {
-    const db = new sqlite3.Database(databasePath, sqlite3.OPEN_READONLY, (err) => {
-      if (err) return reject(err);
-      db.all(sql, (e, rows) => db.close(() => (e ? reject(e) : resolve(rows as T[]))));
-    });
-  });
-}
+const query = <T>(sql: string): Promise<T[]> => queryDatabase<T>(prepared!, sql);
+/** A JSON column: text on SQLite, parsed by the driver on PostgreSQL. */
+const jsonValue = <T>(v: unknown): T => (typeof v === "string" ? JSON.parse(v) : v) as T;
 
 async function signIn(email: string): Promise<string> {
   const r = await fetch(`${bases[0]}/api/v1/session`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ email, password: DEMO_PASSWORD }) });
@@ -56,6 +47,12 @@ async function call(i: number, cookie: string, method: string, path: string, bod
 const solid = { segments: [{ phase: "cr", form: "constant", tminK: 250, tmaxK: 900, coeffs: { cpJ: 120 } }], reference: { tK: 298.15, phase: "cr", hkJ: -1000, sJ: 80 } };
 
 describe("concurrency across two app servers on one database", () => {
+  it(`both servers run on ${pgAdminUrl() ? "PostgreSQL" : "SQLite"}, the database the test reads`, async () => {
+    expect(prepared!.dialect).toBe(pgAdminUrl() ? "postgres" : "sqlite");
+    const [users] = await query<{ n: number }>("SELECT COUNT(*) AS n FROM users");
+    expect(users.n).toBeGreaterThan(0);
+  });
+
   it("50 parallel edits of one draft: one success per lock version, the rest 409, no lost update", async () => {
     const sam = await signIn("sam.steward@example.test");
     const [species] = await query<{ id: number }>("SELECT id FROM species WHERE formula = 'NiAl2O4'");
@@ -86,7 +83,7 @@ describe("concurrency across two app servers on one database", () => {
     );
     expect(landed.every(Boolean)).toBe(true);
     const [row] = await query<{ lock_version: number }>(`SELECT lock_version FROM model_versions WHERE id = ${version.id}`);
-    expect(row.lock_version).toBe(version.lockVersion + 51);
+    expect(Number(row.lock_version)).toBe(version.lockVersion + 51);
     const [audits] = await query<{ n: number }>(`SELECT COUNT(*) AS n FROM audit_events WHERE entity_type = 'model-version' AND entity_id = '${version.id}' AND action LIKE '%edit%'`);
     expect(audits.n).toBe(51);
   });
@@ -110,5 +107,27 @@ describe("concurrency across two app servers on one database", () => {
     expect(results.every((r) => r.status === 200 || r.status === 409)).toBe(true);
     const snapshots = await query<{ revision: number }>(`SELECT revision FROM case_snapshots WHERE case_id = ${draft.id}`);
     expect(snapshots.map((s) => s.revision)).toEqual([1]);
+  });
+
+  it("mail is claimed once: 30 invitations through both servers, each delivered exactly once", async () => {
+    const alex = await signIn("alex.admin@example.test");
+    const emails = Array.from({ length: 30 }, (_, i) => `claim-once-${i}@example.test`);
+    const created = await Promise.all(emails.map((email, i) => call(i, alex, "POST", "/api/v1/team/invitations", { email, role: "engineer" })));
+    expect(created.map((r) => r.status)).toEqual(emails.map(() => 201));
+    // Both servers' workers poll the one queue (and the enqueuing one is woken at once).
+    const ours = async () =>
+      (await query<{ recipients: unknown; status: string; attempts: number }>("SELECT recipients, status, attempts FROM mail_messages WHERE kind = 'invitation' ORDER BY id")).filter((m) =>
+        emails.includes(jsonValue<string[]>(m.recipients)[0]),
+      );
+    const until = Date.now() + 60_000;
+    while ((await ours()).some((m) => m.status !== "sent") && Date.now() < until) await new Promise((r) => setTimeout(r, 250));
+    const sent = await ours();
+    expect(sent).toHaveLength(30);
+    expect(sent.map((m) => m.status)).toEqual(emails.map(() => "sent"));
+    expect(sent.map((m) => Number(m.attempts))).toEqual(emails.map(() => 1));
+    const caught = await query<{ envelope_to: unknown }>("SELECT envelope_to FROM caught_mail ORDER BY id");
+    const counts = new Map<string, number>();
+    for (const c of caught) for (const to of jsonValue<string[]>(c.envelope_to)) counts.set(to, (counts.get(to) ?? 0) + 1);
+    expect(emails.map((e) => counts.get(e) ?? 0)).toEqual(emails.map(() => 1));
   });
 });

@@ -104,6 +104,7 @@ describe("library", () => {
     await page.getByLabel("Segment 1 cpJ").fill("abc");
     await page.getByText("expected a number or a string with a unit").first().waitFor();
     await page.getByLabel("Segment 1 cpJ").fill("79");
+    await page.getByLabel("Segment 1 phase").selectOption("cr");
     await page.getByRole("checkbox", { name: "Anchor (H and S at one temperature)" }).check();
     await page.getByLabel("Anchor H (kJ/mol)").fill("-1675.7");
     await page.getByLabel("Anchor S (J/(mol·K))").fill("50.9");

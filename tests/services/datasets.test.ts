@@ -87,10 +87,12 @@ describe("upload, fit, save as draft", () => {
     expect(fit.coefficients.c / -2e5).toBeCloseTo(1, 8);
     expect(fit.rmsJ).toBeLessThan(1e-9);
     expect(fit.residuals).toHaveLength(13);
-    const ranged = await ds.fitDataset(sam, dataset.id, { form: "maier-kelley", tminK: 400, tmaxK: 800 });
+    // No phase asked and none on the dataset: refused, never a silent "cr".
+    expect((await refusal(ds.fitDataset(sam, dataset.id, { form: "maier-kelley", tminK: 400, tmaxK: 800 }))).message).toBe("phase: say which phase the measurements are for (cr, l or g); the dataset does not say.");
+    const ranged = await ds.fitDataset(sam, dataset.id, { form: "maier-kelley", phase: "cr", tminK: 400, tmaxK: 800 });
     expect([ranged.points, ranged.tminK, ranged.tmaxK, ranged.data]).toEqual([9, 400, 800, null]);
 
-    const e = await refusal(ds.saveFitAsDraft(sam, dataset.id, { fit: { form: "nasa7" }, citation: "Invented test data" }));
+    const e = await refusal(ds.saveFitAsDraft(sam, dataset.id, { fit: { form: "nasa7", phase: "cr" }, citation: "Invented test data" }));
     expect(e.message).toBe("reference: enter H (kJ/mol) and S (J/(mol·K)) at the reference temperature, so the fitted model can give H and S as well as Cp.");
     const draft = await ds.saveFitAsDraft(sam, dataset.id, { fit: { form: "maier-kelley", phase: "cr", reference: { tK: 298.15, hkJ: -601.6, sJ: 26.95 } }, citation: "Invented test data" });
     expect(draft).toMatchObject({ status: "draft", datasetId: dataset.id, versionNumber: 1, model: { family: "measured", name: "MgO · fitted to Exact run" } });
@@ -98,6 +100,15 @@ describe("upload, fit, save as draft", () => {
     const curve = lib.computeCurve(draft.data, { fromK: 300, toK: 900, points: 7 });
     expect(curve.points[2].cpJ).toBeCloseTo(mk(500), 8);
     expect((await lib.versionAudit(sam, draft.id)).map((a) => a.action)).toEqual(["model-version.fitted"]);
+  });
+
+  it("a dataset uploaded with its phase is fitted in that phase when the fit does not say", async () => {
+    const sam = await actorOf("steward");
+    const dataset = await ds.uploadDataset(sam, { name: "Gas run", text: exact, species: { formula: "MgO", displayName: "Magnesia (test)" }, phase: "g" });
+    expect(dataset.phase).toBe("g");
+    const draft = await ds.saveFitAsDraft(sam, dataset.id, { fit: { form: "maier-kelley", reference: { tK: 298.15, hkJ: -601.6, sJ: 26.95 } }, citation: "Invented test data" });
+    expect(draft.data.segments[0].phase).toBe("g");
+    expect(draft.data.reference?.phase).toBe("g");
   });
 
   it("another team cannot see or fit Larkspur's dataset", async () => {

@@ -42,6 +42,7 @@ export default async function LibraryPage({ searchParams }: { searchParams: Sear
           <div className="flex flex-wrap gap-2">
             {can(actor.role, "models.draft") && <Link href="/library/new" className={buttonClass("primary")}>New model</Link>}
             {can(actor.role, "datasets.upload") && <Link href="/library/upload" className={buttonClass("secondary")}>Fit measured data</Link>}
+            <Link href="/library/datasets" className={buttonClass("secondary")}>Datasets</Link>
             <Link href="/library/transfer" className={buttonClass("secondary")}>Import / export</Link>
           </div>
         }

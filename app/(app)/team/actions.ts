@@ -2,6 +2,7 @@
 
 import { revalidatePath } from "next/cache";
 import { actionFailure, formObject, type ActionState } from "@/lib/actions";
+import { ROLE_LABELS } from "@/lib/auth/permissions";
 import { getActor } from "@/lib/auth/session";
 import { parseWith } from "@/lib/http";
 import * as team from "@/lib/services/team";
@@ -14,7 +15,7 @@ export async function changeRoleAction(_prev: ActionState, formData: FormData): 
     const { role } = parseWith(changeRoleSchema, input);
     await team.changeRole(await getActor(), id, role);
     revalidatePath("/team");
-    return { ok: true, message: "Role saved." };
+    return { ok: true, message: `Role saved: ${ROLE_LABELS[role]}.` };
   } catch (error) {
     return actionFailure(error);
   }

@@ -79,6 +79,7 @@ export const ROWS: Row[] = [
     expect: authorOnly(200),
   },
   { name: "case results", file: "cases/[id]/results", method: "GET", handler: results.GET as Handler, prepare: async () => ({ params: { id: await draft() } }), expect: teamReads() },
+  { name: "case results (columns)", file: "cases/[id]/results", method: "GET", query: "format=columns", handler: results.GET as Handler, prepare: async () => ({ params: { id: await draft() } }), expect: teamReads() },
   {
     name: "case submit",
     file: "cases/[id]/submit",

@@ -13,6 +13,7 @@ import * as cpModel from "@/app/api/v1/models/[id]/route";
 import * as modelVersions from "@/app/api/v1/models/[id]/versions/route";
 import * as version from "@/app/api/v1/versions/[id]/route";
 import * as propose from "@/app/api/v1/versions/[id]/propose/route";
+import * as withdraw from "@/app/api/v1/versions/[id]/withdraw/route";
 import * as approve from "@/app/api/v1/versions/[id]/approve/route";
 import * as reject from "@/app/api/v1/versions/[id]/reject/route";
 import * as copy from "@/app/api/v1/versions/[id]/copy/route";
@@ -131,6 +132,9 @@ export const ROWS: Row[] = [
     expect: stewards(200),
   },
   { name: "propose", file: "versions/[id]/propose", method: "POST", handler: propose.POST as Handler, prepare: async () => ({ params: { id: await larkspurVersion("draft") } }), expect: stewards(200) },
+  // Sam wrote them: he or another steward (or an admin) takes them back; Erin may only take back her own.
+  { name: "withdraw", file: "versions/[id]/withdraw", method: "POST", handler: withdraw.POST as Handler, prepare: async () => ({ params: { id: await larkspurVersion("proposed") } }), expect: stewards(200) },
+  { name: "version delete", file: "versions/[id]", method: "DELETE", handler: version.DELETE as Handler, prepare: async () => ({ params: { id: await larkspurVersion("draft") } }), expect: stewards(200) },
   {
     name: "approve",
     file: "versions/[id]/approve",

@@ -11,6 +11,8 @@ export type Row = {
   file: string;
   method: "GET" | "POST" | "PUT" | "PATCH" | "DELETE";
   handler: Handler;
+  /** A query string for the request URL, without the `?`: `deep=1`. */
+  query?: string;
   /** Fresh params and body for each call, since some calls consume records. Runs before signing in. */
   prepare?: () => Promise<{ params?: Record<string, string>; body?: unknown; headers?: Record<string, string> }>;
   expect: Expect;

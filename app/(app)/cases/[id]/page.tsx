@@ -39,6 +39,7 @@ export default async function CasePage({ params, searchParams }: Props) {
   const latest = c.snapshots[c.snapshots.length - 1] ?? null;
   const chosen = sp.revision && c.snapshots.some((s) => String(s.revision) === sp.revision) ? Number(sp.revision) : undefined;
   const lastDecision = [...c.snapshots].reverse().find((s) => s.decision)?.decision ?? null;
+  const latestDecision = latest?.decision ?? null;
   const coefficients = Object.fromEntries(c.inputs.terms.map((t) => [termKey(t), t.coefficient]));
   return (
     <>
@@ -52,13 +53,19 @@ export default async function CasePage({ params, searchParams }: Props) {
                 Edit
               </Link>
             )}
-            <CaseActions caseId={c.id} lockVersion={c.lockVersion} canSubmit={c.can.submit} canRerun={c.can.rerun} status={c.status} />
+            <CaseActions caseId={c.id} lockVersion={c.lockVersion} canSubmit={c.can.submit} canRerun={c.can.rerun} status={c.status} nextRevision={(latest?.revision ?? 0) + 1} />
           </div>
         }
       />
-      <div className="mb-4 flex flex-wrap items-center gap-3 text-sm text-ink-muted">
+      <div className="mb-4 flex flex-wrap items-center gap-x-2 gap-y-1 text-sm text-ink-muted" data-testid="status-line">
         <StatusBadge status={c.status} />
-        <span>by {c.authorName}</span>
+        {/* The badge says the state; the decider is named beside it, the author on their own. */}
+        {latestDecision && (c.status === "approved" || c.status === "returned") && (
+          <span data-testid="decided-by">
+            by {latestDecision.reviewerName}, {when(latestDecision.at)}
+          </span>
+        )}
+        <span data-testid="case-author">· Author: {c.authorName}</span>
         {latest && <span>· {c.snapshots.length} revision{c.snapshots.length === 1 ? "" : "s"}</span>}
         {c.can.review && latest && (
           <a href="#review" className="no-print font-medium text-frost-700 underline">
@@ -97,7 +104,7 @@ export default async function CasePage({ params, searchParams }: Props) {
       {c.can.review && latest && (
         <div id="review" className="mt-6 scroll-mt-4">
           <Card title={`Review revision ${latest.revision}`} className="border-frost-500/40">
-            <ReviewPanel caseId={c.id} revision={latest.revision} />
+            <ReviewPanel caseId={c.id} revision={latest.revision} title={c.title} authorName={c.authorName} />
           </Card>
         </div>
       )}

@@ -6,6 +6,7 @@ import { PageHeader } from "@/components/ui/card";
 import { can } from "@/lib/auth/permissions";
 import { requireUser } from "@/lib/auth/guards";
 import { getActor } from "@/lib/auth/session";
+import { phasesBySpecies } from "@/lib/services/datasets";
 import { listSpecies } from "@/lib/services/library";
 
 export const metadata = { title: "Fit measured data" };
@@ -13,7 +14,7 @@ export const metadata = { title: "Fit measured data" };
 export default async function UploadPage() {
   const actor = requireUser(await getActor());
   if (!can(actor.role, "datasets.upload")) redirect("/library");
-  const species = await listSpecies(actor, { pageSize: 100 });
+  const [species, phases] = await Promise.all([listSpecies(actor, { pageSize: 100 }), phasesBySpecies(actor)]);
   const team = species.items.filter((s) => s.scope === "team");
   const ordered = [...team, ...species.items.filter((s) => s.scope === "reference")];
   return (
@@ -27,7 +28,7 @@ export default async function UploadPage() {
             : "Upload measured Cp points for your team; a steward fits them and saves the model."
         }
       />
-      <UploadWizard species={ordered.map((s) => ({ id: s.id, formula: s.formula, displayName: s.displayName }))} />
+      <UploadWizard species={ordered.map((s) => ({ id: s.id, formula: s.formula, displayName: s.displayName, phases: phases[s.id] ?? [] }))} />
       <Caution className="mt-6" />
     </>
   );

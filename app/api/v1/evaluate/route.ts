@@ -1,6 +1,12 @@
 import { z } from "zod";
 import { getActor } from "@/lib/auth/session";
-import { json, readJson, route } from "@/lib/http";
+import { json, parseWith, queryObject, readJson, route } from "@/lib/http";
 import { runEvaluation } from "@/lib/services/evaluate";
+import { inFormat, resultFormatSchema } from "@/lib/thermo/columns";
 
-export const POST = route(async (request) => json(await runEvaluation(await getActor(), () => readJson(request, z.unknown()))));
+const querySchema = z.object({ format: resultFormatSchema.optional() }).strict();
+
+export const POST = route(async (request) => {
+  const { format } = parseWith(querySchema, queryObject(request));
+  return json(inFormat(await runEvaluation(await getActor(), () => readJson(request, z.unknown())), format));
+});

@@ -61,7 +61,7 @@ export default async function DiffPage({ params, searchParams }: Props) {
                 </thead>
                 <tbody className="divide-y divide-ink-line/60">
                   {diff.inputs.map((ch) => (
-                    <tr key={ch.path}><td className="py-1 pr-3 font-mono text-xs">{ch.path}</td><td className="py-1 pr-3 text-flag-700">{show(ch.from)}</td><td className="py-1 text-moss-700">{show(ch.to)}</td></tr>
+                    <tr key={ch.path}><td className="py-1 pr-3 font-mono text-xs">{ch.path}</td><td className="py-1 pr-3 text-ink-muted">{show(ch.from)}</td><td className="py-1 font-medium">{show(ch.to)}</td></tr>
                   ))}
                 </tbody>
               </table>
@@ -80,6 +80,42 @@ export default async function DiffPage({ params, searchParams }: Props) {
               </ul>
             )}
           </Card>
+          {diff.equilibrium.status !== "none" && (
+            <Card title="Equilibrium results">
+              <div data-testid="diff-equilibrium" data-status={diff.equilibrium.status}>
+                {diff.equilibrium.status === "lost" && (
+                  <p role="alert" className="rounded-md border border-flag-600/30 bg-flag-50 px-3 py-2 text-sm font-medium text-flag-700">
+                    Revision {diff.to.revision} has no equilibrium results: revision {diff.from.revision} had them (key {diff.equilibrium.key[0]}, {diff.equilibrium.pressureBar[0]} bar). The feed was removed or not carried over.
+                  </p>
+                )}
+                {diff.equilibrium.status === "added" && (
+                  <p className="text-sm">Revision {diff.to.revision} adds equilibrium results (key {diff.equilibrium.key[1]}, {diff.equilibrium.pressureBar[1]} bar); revision {diff.from.revision} had none.</p>
+                )}
+                {diff.equilibrium.status === "unchanged" && <p className="text-sm text-ink-muted">The same equilibrium results at every temperature both share.</p>}
+                {diff.equilibrium.status === "changed" && (
+                  <>
+                    <p className="text-sm font-medium text-ember-700">
+                      The equilibrium results changed: largest change in the conversion of {diff.equilibrium.key[1]} {fixed(diff.equilibrium.maxAbsConversion * 100, 3)} percentage points, in a mole fraction {fixed(diff.equilibrium.maxAbsMoleFraction, 5)}, over {diff.equilibrium.common} shared temperatures.
+                      {diff.equilibrium.key[0] !== diff.equilibrium.key[1] ? ` Key species ${diff.equilibrium.key[0]} → ${diff.equilibrium.key[1]}.` : ""}
+                      {diff.equilibrium.pressureBar[0] !== diff.equilibrium.pressureBar[1] ? ` Pressure ${diff.equilibrium.pressureBar[0]} → ${diff.equilibrium.pressureBar[1]} bar.` : ""}
+                    </p>
+                    {diff.equilibrium.rows.length > 0 && (
+                      <table className="mt-3 min-w-full text-xs">
+                        <thead className="text-right text-ink-muted">
+                          <tr><th className="py-1 pr-2 font-medium">T (K)</th><th className="py-1 pr-2 font-medium">conversion r{diff.from.revision} (%)</th><th className="py-1 font-medium">conversion r{diff.to.revision} (%)</th></tr>
+                        </thead>
+                        <tbody className="text-right tabular">
+                          {diff.equilibrium.rows.map((p) => (
+                            <tr key={p.tK}><td className="pr-2">{fixed(p.tK, 2)}</td><td className="pr-2">{fixed(p.fromConversion * 100, 3)}</td><td>{fixed(p.toConversion * 100, 3)}</td></tr>
+                          ))}
+                        </tbody>
+                      </table>
+                    )}
+                  </>
+                )}
+              </div>
+            </Card>
+          )}
           <Card title="Results">
             <dl className="grid gap-3 text-sm sm:grid-cols-2">
               <div><dt className="text-xs text-ink-muted">Sign case</dt><dd>{diff.signCase[0]} → {diff.signCase[1]}</dd></div>
@@ -97,8 +133,9 @@ export default async function DiffPage({ params, searchParams }: Props) {
                 <dt className="text-xs text-ink-muted">Warnings</dt>
                 <dd>
                   {diff.warnings.added.length === 0 && diff.warnings.removed.length === 0 ? "unchanged" : null}
-                  {diff.warnings.added.map((w) => <span key={w} className="block text-flag-700">+ {w}</span>)}
-                  {diff.warnings.removed.map((w) => <span key={w} className="block text-moss-700">− {w}</span>)}
+                  {diff.warnings.added.map((w) => <span key={w} className="block text-flag-700" data-testid="warning-added">+ new: {w}</span>)}
+                  {/* A warning that went away is news, not a verdict: the cause may have left with an input. */}
+                  {diff.warnings.removed.map((w) => <span key={w} className="block text-ink-soft" data-testid="warning-removed">− no longer raised: {w}</span>)}
                 </dd>
               </div>
             </dl>

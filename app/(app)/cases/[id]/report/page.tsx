@@ -13,6 +13,8 @@ import { fixed, sci } from "@/lib/cases/format";
 import { formatQuantity } from "@/lib/cases/temperature";
 import { getResults } from "@/lib/services/cases";
 import { reportSources } from "@/lib/services/equilibrium";
+import { signOffRecord } from "@/lib/services/sign-off";
+import { approverText, SignOffRecord } from "@/components/cases/sign-off";
 
 export const metadata = { title: "Case report" };
 
@@ -33,6 +35,7 @@ export default async function ReportPage({ params, searchParams }: Props) {
   // The unit the case was entered in, unless the reader asked for another (?unit=K|degC|degF).
   const unit = isDisplayUnit(sp.unit) ? sp.unit : enteredUnit(data.inputs.temperatures);
   const unitHref = (u: string) => `?${new URLSearchParams({ ...(revision ? { revision: String(revision) } : {}), unit: u })}`;
+  const record = data.source === "snapshot" ? await signOffRecord(actor, id, data.revision ?? undefined) : null;
   const pts = r.points;
   const stride = Math.max(1, Math.ceil(pts.length / SUMMARY_ROWS));
   const rows = pts.filter((_, i) => i % stride === 0 || i === pts.length - 1);
@@ -68,6 +71,8 @@ export default async function ReportPage({ params, searchParams }: Props) {
         </div>
       </header>
 
+      {record && <SignOffRecord record={record} />}
+
       <section className="grid grid-cols-2 gap-4 text-xs">
         <div>
           <h2 className="mb-1 text-sm font-semibold">Snapshot</h2>
@@ -101,6 +106,7 @@ export default async function ReportPage({ params, searchParams }: Props) {
               <th className="border-b border-ink-line py-1 pr-2 font-medium">ν</th>
               <th className="border-b border-ink-line py-1 pr-2 font-medium">Species</th>
               <th className="border-b border-ink-line py-1 pr-2 font-medium">Model and version</th>
+              {record && <th className="border-b border-ink-line py-1 pr-2 font-medium">Approved by</th>}
               <th className="border-b border-ink-line py-1 font-medium">Citation</th>
             </tr>
           </thead>
@@ -112,6 +118,7 @@ export default async function ReportPage({ params, searchParams }: Props) {
                 <td className="py-1 pr-2">
                   {p.modelName} · v{p.versionNumber} · <span className={p.status === "approved" ? "" : "font-semibold text-flag-700"}>{p.status}</span>
                 </td>
+                {record && <td className="py-1 pr-2" data-testid="pin-approver">{approverText(record.pins.find((x) => x.key === p.key))}</td>}
                 <td className="py-1 text-ink-soft">{p.citation}</td>
               </tr>
             ))}

@@ -56,6 +56,9 @@ export default async function VersionPage({ params }: Props) {
     ownWork: team && v.status === "proposed" && can(actor.role, "models.decide") && contributed,
     newDraft: team && can(actor.role, "models.draft"),
     copy: !team && can(actor.role, "models.edit"),
+    // The author, or a steward, takes back a proposal or deletes a draft or proposal (the service checks again).
+    withdraw: team && v.status === "proposed" && (mine ? can(actor.role, "models.draft") : can(actor.role, "models.edit")),
+    remove: team && (v.status === "draft" || v.status === "proposed") && (mine ? can(actor.role, "models.draft") : can(actor.role, "models.edit")),
   };
   return (
     <>
@@ -103,7 +106,7 @@ export default async function VersionPage({ params }: Props) {
         </div>
         <div className="space-y-6">
           <Card title="Workflow">
-            <VersionActions versionId={v.id} modelId={v.modelId} allowed={allowed} />
+            <VersionActions versionId={v.id} modelId={v.modelId} allowed={allowed} label={`${v.model.name}, version ${v.versionNumber}`} speciesHref={`/library/species/${v.species.id}`} />
             <dl className="mt-4 space-y-1 text-sm">
               <div className="flex justify-between gap-2"><dt className="text-ink-muted">Author</dt><dd>{v.authorName ?? (v.scope === "reference" ? "Published source" : "—")}</dd></div>
               {v.contributors.length > 0 && (
@@ -114,7 +117,7 @@ export default async function VersionPage({ params }: Props) {
               )}
               {v.decidedByName && <div className="flex justify-between gap-2"><dt className="text-ink-muted">Decided by</dt><dd>{v.decidedByName}</dd></div>}
               <div className="flex justify-between gap-2"><dt className="text-ink-muted">Updated</dt><dd className="tabular">{v.updatedAt.slice(0, 16).replace("T", " ")}</dd></div>
-              {v.datasetId && <div className="flex justify-between gap-2"><dt className="text-ink-muted">Fitted to</dt><dd>dataset #{v.datasetId}</dd></div>}
+              {v.datasetId && <div className="flex justify-between gap-2"><dt className="text-ink-muted">Fitted to</dt><dd><Link className="text-frost-700 hover:underline" href={`/library/datasets/${v.datasetId}`}>dataset #{v.datasetId}</Link></dd></div>}
             </dl>
             <a className="mt-3 inline-block text-sm text-frost-700 hover:underline" href={`/api/v1/library/export?models=${v.modelId}&versions=all`}>Export this model (JSON)</a>
           </Card>

@@ -1,7 +1,8 @@
 import { getActor } from "@/lib/auth/session";
 import { json, parseWith, queryObject, route } from "@/lib/http";
 import { getResults } from "@/lib/services/cases";
-import { exportQuerySchema } from "@/lib/validation/cases";
+import { inFormat } from "@/lib/thermo/columns";
+import { resultsQuerySchema } from "@/lib/validation/cases";
 import { idParamSchema } from "@/lib/validation/team";
 
 type Context = { params: Promise<{ id: string }> };
@@ -9,6 +10,7 @@ type Context = { params: Promise<{ id: string }> };
 /** A submitted or approved case answers with its stored snapshot; a draft is evaluated now. */
 export const GET = route<Context>(async (request, { params }) => {
   const id = parseWith(idParamSchema, (await params).id);
-  const { revision } = parseWith(exportQuerySchema, queryObject(request));
-  return json(await getResults(await getActor(), id, revision));
+  const { revision, format } = parseWith(resultsQuerySchema, queryObject(request));
+  const results = await getResults(await getActor(), id, revision);
+  return json(format === "columns" ? { ...results, result: inFormat(results.result, format) } : results);
 });
