@@ -186,15 +186,20 @@ describe("charts (item 7) and the sign-case sentence (item 8)", () => {
 
   it("says ±1σ only when the result carries uncertainties", async () => {
     const { page } = b;
-    for (const title of ["Shift converter 480–700 K", "Ammonia loop near 700 K"]) {
+    // Other browser files may edit these demo cases first: check those that still carry an outlet.
+    let checked = 0;
+    for (const title of ["Shift converter 480–700 K", "Ammonia loop near 700 K", "Reformer outlet near 1100 K"]) {
       const id = await openCase(page, title);
       const { result } = await results(page, id);
+      if (!result.equilibrium?.length) continue;
+      checked++;
       const panel = page.getByTestId("equilibrium-panel");
       await panel.getByTestId("equilibrium-results").waitFor();
       const sigma = Boolean(result.equilibrium?.[0].sigma || result.equilibrium?.[0].naive.sigma);
       const heads = `${await panel.locator("h3").allTextContents()} ${await panel.getByTestId("equilibrium-table").locator("thead").textContent()}`;
       expect(heads.includes("±1σ")).toBe(sigma);
     }
+    expect(checked).toBeGreaterThan(0);
   });
 
   it("the sign-case sentence says what differs, in the display unit", async () => {
