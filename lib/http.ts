@@ -17,16 +17,18 @@ export function json(data: unknown, status = 200, headers?: HeadersInit): Respon
 export function fieldErrors(error: ZodError): Record<string, string> {
   const out: Record<string, string> = {};
   for (const issue of error.issues) {
-    const key = issue.path.join(".") || "_";
-    if (!(key in out)) out[key] = issue.message;
+    // An unknown field is reported at its own name, so a client sees which key to drop.
+    const keys = issue.code === "unrecognized_keys" ? issue.keys.map((k) => [...issue.path, k].join(".")) : [issue.path.join(".") || "_"];
+    for (const key of keys) if (!(key in out)) out[key] = issue.message;
   }
   return out;
 }
 
 export function validationError(error: ZodError): AppError {
   const fields = fieldErrors(error);
-  const [firstKey, firstMessage] = Object.entries(fields)[0] ?? ["_", "Invalid request."];
-  const message = firstKey === "_" ? firstMessage : `${firstKey}: ${firstMessage}`;
+  const first = error.issues[0];
+  // An unknown field's message names it; its path is the object that holds it.
+  const message = !first ? "Invalid request." : first.path.length ? `${first.path.join(".")}: ${first.message}` : first.message;
   return new AppError(422, "invalid-request", message, { fields });
 }
 

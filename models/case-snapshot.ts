@@ -18,6 +18,8 @@ export type PinnedVersion = {
   data: unknown;
   /** The version's standard uncertainties, where it has them (added with the equilibrium work). */
   uncertainty?: { dfHkJ?: number; sJ?: number; cpRelative?: number } | null;
+  /** The species' critical constants, where the library has them (added with the real-gas work). */
+  critical?: { tcK: number; pcBar: number; omega: number };
 };
 
 /**

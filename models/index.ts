@@ -3,6 +3,7 @@ import { AuditEvent } from "./audit-event";
 import { Case } from "./case";
 import { CaseSnapshot } from "./case-snapshot";
 import { Comment } from "./comment";
+import { ImpactJob } from "./impact-job";
 import { Review } from "./review";
 import { CaughtMail } from "./caught-mail";
 import { MailMessage } from "./mail-message";
@@ -36,6 +37,7 @@ export function defineModels(sequelize: Sequelize) {
   CaseSnapshot.initModel(sequelize);
   Review.initModel(sequelize);
   Comment.initModel(sequelize);
+  ImpactJob.initModel(sequelize);
 
   Team.hasMany(Membership, { foreignKey: "teamId", as: "memberships" });
   Membership.belongsTo(Team, { foreignKey: "teamId", as: "team" });
@@ -59,7 +61,7 @@ export function defineModels(sequelize: Sequelize) {
   Case.hasMany(Comment, { foreignKey: "caseId", as: "comments" });
   Comment.belongsTo(User, { foreignKey: "authorId", as: "author" });
 
-  return { User, Team, Membership, Invitation, AuditEvent, Species, CpModel, Dataset, ModelVersion, ModelVersionContributor, MailMessage, CaughtMail, RateLimit, Case, CaseSnapshot, Review, Comment };
+  return { User, Team, Membership, Invitation, AuditEvent, Species, CpModel, Dataset, ModelVersion, ModelVersionContributor, MailMessage, CaughtMail, RateLimit, Case, CaseSnapshot, Review, Comment, ImpactJob };
 }
 
 export type Models = ReturnType<typeof defineModels>;

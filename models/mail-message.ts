@@ -1,6 +1,6 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from "sequelize";
 
-export const MAIL_KINDS = ["invitation", "review-requested", "review-decided", "model-proposed", "model-decided", "comment-posted"] as const;
+export const MAIL_KINDS = ["invitation", "review-requested", "review-decided", "model-proposed", "model-decided", "comment-posted", "model-impact"] as const;
 export type MailKind = (typeof MAIL_KINDS)[number];
 export type MailStatus = "queued" | "sending" | "sent" | "failed";
 

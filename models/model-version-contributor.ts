@@ -1,12 +1,13 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from "sequelize";
 
 /** How someone took part in a version: each of these rules them out of deciding on it. */
-export const CONTRIBUTOR_ROLES = ["author", "editor", "proposer", "source"] as const;
+export const CONTRIBUTOR_ROLES = ["author", "editor", "proposer", "source", "uploader"] as const;
 export type ContributorRole = (typeof CONTRIBUTOR_ROLES)[number];
 
 /**
- * One person's part in one model version (author, editor, proposer, or a
- * contributor of the unapproved version it was started from). Written by the
+ * One person's part in one model version (author, editor, proposer, a
+ * contributor of the unapproved version it was started from, or the uploader
+ * of the dataset it was fitted to). Written by the
  * library service in the same transaction as the change; never updated.
  */
 export class ModelVersionContributor extends Model<InferAttributes<ModelVersionContributor>, InferCreationAttributes<ModelVersionContributor>> {

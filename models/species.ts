@@ -1,5 +1,7 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from "sequelize";
 
+export type SpeciesCritical = { tcK: number; pcBar: number; omega: number; citation: string };
+
 export class Species extends Model<InferAttributes<Species>, InferCreationAttributes<Species>> {
   declare id: CreationOptional<number>;
   /** null: the global reference library. */
@@ -9,6 +11,8 @@ export class Species extends Model<InferAttributes<Species>, InferCreationAttrib
   declare elements: Record<string, number>;
   declare molarMassGPerMol: number;
   declare identifiers: Record<string, string> | null;
+  /** Critical constants for the real-gas equation of state, with their citation (migration GH01); null when unknown. */
+  declare critical: CreationOptional<SpeciesCritical | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
@@ -22,6 +26,7 @@ export class Species extends Model<InferAttributes<Species>, InferCreationAttrib
         elements: { type: DataTypes.JSON, allowNull: false },
         molarMassGPerMol: { type: DataTypes.DOUBLE, allowNull: false, field: "molar_mass_g_per_mol" },
         identifiers: { type: DataTypes.JSON, allowNull: true },
+        critical: { type: DataTypes.JSON, allowNull: true },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

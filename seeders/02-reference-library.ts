@@ -1,6 +1,7 @@
 import { parseFormula } from "@/lib/thermo/formula";
 import type { SeedContext } from "./index";
 import { REFERENCE_SPECIES, referenceModels } from "./reference-sets";
+import { CRITICAL_CITATION, CRITICAL_CONSTANTS } from "./critical-constants";
 
 /**
  * The global reference library (teamId null): every published set of
@@ -20,6 +21,9 @@ export async function seed({ models, sequelize }: SeedContext): Promise<void> {
         transaction,
       });
       speciesIds.set(formula, s.id);
+      // Critical constants (added later): filled in where missing, never overwritten.
+      const critical = CRITICAL_CONSTANTS[formula];
+      if (critical && !s.critical) await s.update({ critical: { ...critical, citation: CRITICAL_CITATION } }, { transaction });
     }
     for (const ref of referenceModels()) {
       const speciesId = speciesIds.get(ref.formula);

@@ -12,7 +12,8 @@ import type { SeedContext } from "./index";
  * INVENTED demo cases for Larkspur Hydrogen Works, authored by Erin (engineer): the reformer
  * (approved), the shift converter (awaiting Rory's review), the ammonia loop (returned with
  * a reason), the cold box (a draft whose models are extrapolated far below their ranges) and a
- * reformer start-up sweep in °C (a draft). The reactions are real; the plant, titles, notes
+ * reformer start-up sweep in °C (a draft), and two drafts with a Peng–Robinson gas and an
+ * adiabatic inlet (the shift bed and the ammonia bed temperature rise). The reactions are real; the plant, titles, notes
  * and decisions are made up. Pins the published NASA-7 (2015) reference versions loaded by
  * 02-reference-library. Safe to repeat: a case whose title exists is left alone.
  */
@@ -117,6 +118,54 @@ export const DEMO_CASES: Plan[] = [
     temperatures: { fromK: "400 degC", toK: "900 degC", stepK: "10 degC" },
     toleranceKJ: 2,
     flow: "draft",
+  },
+  {
+    title: "Shift converter bed temperature rise",
+    notes: "High-temperature shift bed, inlet 600 K at 30 bar (invented). How hot does the bed run if it reaches equilibrium, and how far off is the constant-ΔrH estimate?",
+    terms: [
+      { formula: "CO", phase: "g", coefficient: -1 },
+      { formula: "H2O", phase: "g", coefficient: -1 },
+      { formula: "CO2", phase: "g", coefficient: 1 },
+      { formula: "H2", phase: "g", coefficient: 1 },
+    ],
+    temperatures: { fromK: 600, toK: 760, stepK: 5 },
+    toleranceKJ: 1,
+    flow: "draft",
+    // The methane that rides along carries heat, so it is pinned too (invented feed, as the converter case).
+    equilibrium: {
+      feed: { "CO(g)": 13, "H2O(g)": 38, "CO2(g)": 6, "H2(g)": 40, "CH4(g)": 3 },
+      feedUnit: "kmol/h",
+      pressure: "30 bar",
+      key: "CO(g)",
+      reactions: [],
+      extra: [{ formula: "CH4", phase: "g" }],
+      inert: [],
+      gas: "peng-robinson",
+      adiabaticInletK: 600,
+    },
+  },
+  {
+    title: "Ammonia bed temperature rise at 150 bar",
+    notes: "First bed of the synthesis converter, inlet 653 K at 150 bar (invented). Peng–Robinson fugacities; outlet temperature if the bed reached equilibrium.",
+    terms: [
+      { formula: "N2", phase: "g", coefficient: -1 },
+      { formula: "H2", phase: "g", coefficient: -3 },
+      { formula: "NH3", phase: "g", coefficient: 2 },
+    ],
+    temperatures: { fromK: 640, toK: 840, stepK: 5 },
+    toleranceKJ: 1,
+    flow: "draft",
+    equilibrium: {
+      feed: { "N2(g)": 1, "H2(g)": 3, "NH3(g)": 0.04 },
+      feedUnit: "kmol/s",
+      pressure: "150 bar",
+      key: "N2(g)",
+      reactions: [],
+      extra: [],
+      inert: [],
+      gas: "peng-robinson",
+      adiabaticInletK: 653,
+    },
   },
 ];
 

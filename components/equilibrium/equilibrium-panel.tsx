@@ -122,6 +122,8 @@ export function EquilibriumPanel({
   const [extraPins, setExtraPins] = useState<Record<string, number>>(() =>
     Object.fromEntries((initial?.extraTerms ?? []).map((t) => [t.phase ? `${t.formula}(${t.phase})` : t.formula, t.versionId])),
   );
+  const [gasModel, setGasModel] = useState<"ideal" | "peng-robinson">(initial?.gas ?? "ideal");
+  const [inletK, setInletK] = useState(initial?.adiabaticInletK === null || initial?.adiabaticInletK === undefined ? "" : String(initial.adiabaticInletK));
   const [newKey, setNewKey] = useState("");
   const [trial, setTrial] = useState<EvaluateResult | null>(null);
   const [busy, setBusy] = useState<string | null>(null);
@@ -132,7 +134,10 @@ export function EquilibriumPanel({
   const reactions = reactionsText.split("\n").map((l) => l.trim()).filter(Boolean);
   const reactionErrors = reactions.flatMap((_, i) => (errors[`reactions.${i}`] ? [`Line ${i + 1}: ${errors[`reactions.${i}`]}`] : []));
   // Species come only from lines that read as reactions; a malformed line is flagged, not mined for names.
-  const extraKeys = [...new Set(reactions.filter((r) => checkReactionLine(r) === null).flatMap(keysOfReaction))].filter((k) => !caseKeys.includes(k));
+  const reactionKeys = [...new Set(reactions.filter((r) => checkReactionLine(r) === null).flatMap(keysOfReaction))].filter((k) => !caseKeys.includes(k));
+  // Inert species carry heat in the adiabatic balance, so they need a pinned model version too.
+  const inertKeys = rows.map((r) => r.key).filter((k) => !caseKeys.includes(k) && !reactionKeys.includes(k));
+  const extraKeys = [...reactionKeys, ...(inletK.trim() ? inertKeys : [])];
   const feedKeys = [...new Set([...rows.map((r) => r.key), ...extraKeys])];
 
   const equilibrium = (): CaseEquilibrium => {
@@ -141,13 +146,17 @@ export function EquilibriumPanel({
     for (const k of feedKeys) feed[k] = Number.isFinite(amounts.get(k)) ? amounts.get(k)! : 0;
     const extraTerms: ExtraTerm[] = extraKeys.map((k) => ({ ...markerless(k), versionId: extraPins[k] ?? 0 }));
     const p = pressure.trim();
+    const isNumber = (v: string) => /^[-+]?\d*\.?\d+(e[-+]?\d+)?$/i.test(v);
+    const t = inletK.trim();
     return {
       feed,
       feedUnit: unit.trim() || "mol",
-      pressure: /^[-+]?\d*\.?\d+(e[-+]?\d+)?$/i.test(p) ? Number(p) : p,
+      pressure: isNumber(p) ? Number(p) : p,
       key: key || null,
       reactions,
       extraTerms,
+      ...(gasModel === "peng-robinson" ? { gas: gasModel } : {}),
+      ...(t ? { adiabaticInletK: isNumber(t) ? Number(t) : t } : {}),
       // Feed rows that are in no reaction were added as inert species: say so, or the server refuses them.
       inert: feedKeys.filter((k) => !caseKeys.includes(k) && !extraKeys.includes(k)),
     };
@@ -177,7 +186,7 @@ export function EquilibriumPanel({
       } else if (data) {
         const shown = trial ?? data.result;
         const eqReq = trial
-          ? { feed: equilibrium().feed, feedUnit: unit, pressureBar: equilibrium().pressure, key: key || undefined, ...(reactions.length ? { reactions } : {}) }
+          ? { feed: equilibrium().feed, feedUnit: unit, pressureBar: equilibrium().pressure, key: key || undefined, ...(reactions.length ? { reactions } : {}), ...(gasModel === "peng-robinson" ? { gas: gasModel } : {}) }
           : data.request.equilibrium;
         const keys = [...new Set([...Object.keys(data.request.species), ...(trial ? extraKeys : [])])];
         setSources(
@@ -205,8 +214,8 @@ export function EquilibriumPanel({
     <Card title="How far it goes: equilibrium outlet" className="break-inside-avoid">
       <div className="space-y-4" data-testid="equilibrium-panel">
         <p className="text-sm text-ink-muted">
-          Outlet composition from a feed at each temperature of the case, with ideal-gas activities at the given pressure and pure condensed phases at unit
-          activity, once with the corrected K and once with the naive K.
+          Outlet composition from a feed at each temperature of the case, with ideal-gas activities (or Peng–Robinson fugacity coefficients) at the given
+          pressure and pure condensed phases at unit activity, once with the corrected K and once with the naive K; optionally the adiabatic outlet temperature.
         </p>
         {editable ? (
           <form
@@ -308,8 +317,20 @@ export function EquilibriumPanel({
                   <TextInput name="pressure" value={pressure} error={errors.pressure} onChange={(e) => { setPressure(e.target.value); setErrors(({ pressure: _gone, ...rest }) => rest); }} />
                 </Field>
               </div>
+              <div className="grid grid-cols-2 gap-3">
+                <Field label="Gas model" name="gasModel" hint="Peng–Robinson applies fugacity coefficients; it needs critical constants (the library has them for its reference species).">
+                  <Select name="gasModel" value={gasModel} onChange={(e) => setGasModel(e.target.value === "peng-robinson" ? "peng-robinson" : "ideal")}>
+                    <option value="ideal">Ideal gas (φ = 1)</option>
+                    <option value="peng-robinson">Peng–Robinson</option>
+                  </Select>
+                </Field>
+                <Field label="Adiabatic inlet temperature (optional)" name="adiabaticInletK" hint="K, or with a unit: 327 degC. Inert species then need a model version.">
+                  <TextInput name="adiabaticInletK" value={inletK} onChange={(e) => setInletK(e.target.value)} placeholder="e.g. 600" />
+                </Field>
+              </div>
               <Field label="Key species (conversion and slip)" name="key" error={errors.key}>
                 <Select name="key" value={key} error={errors.key} onChange={(e) => { setKey(e.target.value); setErrors(({ key: _gone, ...rest }) => rest); }}>
+
                   {feedKeys.map((k) => (
                     <option key={k} value={k}>
                       {k}
@@ -339,7 +360,7 @@ export function EquilibriumPanel({
                 />
               </Field>
               {extraKeys.map((k) => (
-                <ExtraPin key={k} speciesKey={k} value={extraPins[k]} onChange={(v) => setExtraPins((p) => ({ ...p, [k]: v }))} />
+                <ExtraPin key={k} speciesKey={k} inert={!reactionKeys.includes(k)} value={extraPins[k]} onChange={(v) => setExtraPins((p) => ({ ...p, [k]: v }))} />
               ))}
               <div className="flex flex-wrap gap-2">
                 <Button type="submit" focusableWhenDisabled disabled={busy !== null}>
@@ -396,13 +417,21 @@ export function EquilibriumPanel({
 function WarningCodes({ result }: { result: EvaluateResult }) {
   const high = result.warnings.find((w) => w.code === "high-pressure");
   const nc = result.warnings.find((w) => w.code === "equilibrium-not-converged");
-  if (!high && !nc) return null;
+  const liquid = result.warnings.find((w) => w.code === "real-gas-liquid-root");
+  // With a real gas the fugacity coefficients are applied, so the high-pressure caution no longer applies as written.
+  const showHigh = high && result.equilibriumInfo?.gas !== "peng-robinson";
+  if (!showHigh && !nc && !liquid) return null;
   return (
     <ul className="space-y-1 text-xs text-flag-700" data-testid="equilibrium-warnings">
-      {high && (
+      {showHigh && (
         <li>
           <code>high-pressure</code> {high.message}
           <span className="block text-ink-muted">{warningMeaning("high-pressure")}</span>
+        </li>
+      )}
+      {liquid && (
+        <li>
+          <code>real-gas-liquid-root</code> {liquid.message}
         </li>
       )}
       {nc && (
@@ -415,13 +444,13 @@ function WarningCodes({ result }: { result: EvaluateResult }) {
   );
 }
 
-function ExtraPin({ speciesKey, value, onChange }: { speciesKey: string; value?: number; onChange: (versionId: number) => void }) {
+function ExtraPin({ speciesKey, inert, value, onChange }: { speciesKey: string; inert: boolean; value?: number; onChange: (versionId: number) => void }) {
   const { formula } = markerless(speciesKey);
   const { data } = useSWR<{ versions: PinOptionDto[] }>(`/api/v1/pins?formula=${encodeURIComponent(formula)}`, fetchJson, { revalidateOnFocus: false });
   const options = data?.versions ?? [];
   const name = `pin-${speciesKey.replace(/[^A-Za-z0-9]/g, "_")}`;
   return (
-    <Field label={`Model version for ${speciesKey} (only in the extra reactions)`} name={name}>
+    <Field label={`Model version for ${speciesKey} (${inert ? "inert; carries heat in the adiabatic balance" : "only in the extra reactions"})`} name={name}>
       <Select name={name} value={value ?? ""} onChange={(e) => onChange(Number(e.target.value))}>
         <option value="">Pick a version…</option>
         {options.map((o) => (

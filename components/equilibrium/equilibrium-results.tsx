@@ -51,6 +51,7 @@ export function EquilibriumResults({ result, compact = false }: { result: Evalua
         <Badge tone="neutral">key {key}</Badge>
         <Badge tone="neutral">feed in {info.feedUnit}</Badge>
         {info.reactions.length > 1 && <Badge tone="frost">{info.reactions.length} simultaneous reactions</Badge>}
+        <Badge tone={info.gas === "peng-robinson" ? "ember" : "neutral"}>{info.gas === "peng-robinson" ? "Peng–Robinson gas" : "ideal gas"}</Badge>
         {notConverged > 0 ? <Badge tone="flag">{notConverged} points not converged</Badge> : <Badge tone="moss">converged at every T</Badge>}
       </div>
       <p className="text-sm text-ink-soft" data-testid="equilibrium-headline">
@@ -136,6 +137,95 @@ export function EquilibriumResults({ result, compact = false }: { result: Evalua
           Mole fractions of the gas phase; condensed species are pure phases at unit activity. {over !== undefined ? "* the naive error exceeds the 1σ of the corrected fraction." : ""}
         </p>
       </div>
+      {info.gas === "peng-robinson" && <FugacityTable result={result} rows={rows} compact={compact} />}
+      {result.adiabatic && <AdiabaticSummary result={result} />}
+    </div>
+  );
+}
+
+/** Fugacity coefficients of the corrected solution, and the ideal-gas key conversion beside the real-gas one. */
+function FugacityTable({ result, rows, compact }: { result: EvaluateResult; rows: NonNullable<EvaluateResult["equilibrium"]>; compact: boolean }) {
+  const key = result.equilibriumInfo!.key;
+  const gas = gasSpecies(result);
+  const th = "border-b border-ink-line px-2 py-1 text-right font-medium whitespace-nowrap";
+  const td = "px-2 py-0.5 text-right tabular whitespace-nowrap";
+  return (
+    <div className="overflow-x-auto">
+      <h3 className="mb-1 text-xs font-semibold text-ink-soft">Fugacity coefficients φ (Peng–Robinson, corrected K) and the ideal-gas answer beside</h3>
+      <table className="min-w-full text-xs" data-testid="fugacity-table">
+        <thead>
+          <tr>
+            <th className={th}>T (K)</th>
+            <th className={th}>Z</th>
+            {gas.map((k) => (
+              <th key={k} className={th}>
+                φ {k}
+              </th>
+            ))}
+            <th className={th}>{key} conversion real gas</th>
+            <th className={th}>ideal gas</th>
+            {!compact && <th className={th}>{key} fraction ideal gas</th>}
+          </tr>
+        </thead>
+        <tbody>
+          {rows.map((p) => (
+            <tr key={p.tK}>
+              <td className={td}>{num(p.tK, 6)}</td>
+              <td className={td}>{num(p.diagnostics.realGas?.z, 4)}</td>
+              {gas.map((k) => (
+                <td key={k} className={td}>
+                  {num(p.fugacityCoefficients?.[k], 4)}
+                </td>
+              ))}
+              <td className={td}>{pct(p.keyConversion, 4)}</td>
+              <td className={td}>{pct(p.ideal?.keyConversion, 4)}</td>
+              {!compact && <td className={td}>{pct(p.ideal?.moleFractions[key])}</td>}
+            </tr>
+          ))}
+        </tbody>
+      </table>
+      <p className="mt-1 text-xs text-ink-muted">van der Waals one-fluid mixing with k_ij = 0 unless given; φ solved self-consistently with the outlet composition.</p>
+    </div>
+  );
+}
+
+/** Adiabatic outlet temperature, corrected against naive (constant ΔrH). */
+function AdiabaticSummary({ result }: { result: EvaluateResult }) {
+  const a = result.adiabatic!;
+  const key = result.equilibriumInfo!.key;
+  return (
+    <div className="rounded-md border border-ink-line bg-paper-deep px-3 py-2 text-sm" data-testid="adiabatic-summary">
+      <h3 className="mb-1 text-xs font-semibold text-ink-soft">Adiabatic outlet (equilibrium at the outlet, no heat exchanged)</h3>
+      <dl className="grid grid-cols-2 gap-x-4 gap-y-1 sm:grid-cols-4">
+        <div>
+          <dt className="text-xs text-ink-muted">Inlet</dt>
+          <dd className="tabular">{num(a.inletK, 6)} K</dd>
+        </div>
+        <div>
+          <dt className="text-xs text-ink-muted">Outlet, corrected</dt>
+          <dd className="tabular font-semibold" data-testid="adiabatic-outlet">
+            {num(a.outletK, 6)} K ({a.riseK >= 0 ? "+" : ""}
+            {num(a.riseK, 4)} K)
+          </dd>
+        </div>
+        <div>
+          <dt className="text-xs text-ink-muted">Outlet, naive (constant ΔrH)</dt>
+          <dd className="tabular" data-testid="adiabatic-naive-outlet">
+            {num(a.naiveOutletK, 6)} K ({a.naiveRiseK >= 0 ? "+" : ""}
+            {num(a.naiveRiseK, 4)} K)
+          </dd>
+        </div>
+        <div>
+          <dt className="text-xs text-ink-muted">{key} conversion at the outlet</dt>
+          <dd className="tabular">
+            {pct(a.outlet.keyConversion, 4)} · naive {pct(a.naiveOutlet.keyConversion, 4)}
+          </dd>
+        </div>
+      </dl>
+      <p className="mt-1 text-xs text-ink-muted">
+        Naive − corrected: {num(a.diffK, 4)} K. Root bracketed in [{num(a.bracketK[0], 6)}, {num(a.bracketK[1], 6)}] K, {a.iterations} iterations; ideal-gas enthalpies
+        (the residual enthalpy of a real gas is not included).
+      </p>
     </div>
   );
 }

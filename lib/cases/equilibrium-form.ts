@@ -5,13 +5,13 @@
  */
 import { elementBalance } from "./balance";
 import { parseFormula } from "@/lib/thermo/formula";
+import { FEED_UNITS } from "@/lib/thermo/schema";
 
 const MARKER = /\((cr(?:-[A-Za-z0-9_.]+)?|l|g)\)$/;
 const NUMBER = /^(?:\d+(?:\.\d*)?|\.\d+)(?:e[-+]?\d+)?(?:\/(?:\d+(?:\.\d*)?|\.\d+))?$/i;
 
-/** Units of amount a feed may be given in: an amount, optionally per unit of time. */
-export const FEED_UNIT_PATTERN = /^(mmol|mol|kmol|lbmol)(\/(s|min|h|d))?$/;
-export const FEED_UNIT_HINT = "mol, kmol, mmol or lbmol, optionally per s, min, h or d (kmol/h)";
+/** Units of amount a feed may be given in: the engine's own closed set. */
+export const FEED_UNIT_HINT = FEED_UNITS.join(", ");
 /** Pressure units the panel takes (absolute pressures; gauge units are refused). */
 export const PRESSURE_PATTERN = /^\s*([-+]?(?:\d+(?:\.\d*)?|\.\d+)(?:e[-+]?\d+)?)\s*(bar|mbar|Pa|kPa|MPa|atm|psi)?\s*$/;
 
@@ -55,7 +55,7 @@ export function checkReactionLine(text: string): string | null {
 }
 
 export function checkFeedUnit(unit: string): string | null {
-  return FEED_UNIT_PATTERN.test(unit.trim()) ? null : `“${unit.trim()}” is not a unit of amount: use ${FEED_UNIT_HINT}.`;
+  return (FEED_UNITS as readonly string[]).includes(unit.trim()) ? null : `“${unit.trim()}” is not a unit of amount: use ${FEED_UNIT_HINT}.`;
 }
 
 export function checkPressure(p: string | number): string | null {

@@ -32,6 +32,8 @@ export function equilibriumRequestOf(eq: CaseEquilibrium | null | undefined): Ev
     pressureBar: eq.pressure,
     ...(eq.key ? { key: eq.key } : {}),
     ...(eq.reactions.length ? { reactions: eq.reactions } : {}),
+    // Stored cases from before the real-gas work have no `gas`; ideal stays implicit.
+    ...(eq.gas === "peng-robinson" ? { gas: eq.gas } : {}),
   };
 }
 
@@ -70,6 +72,12 @@ export function equilibriumCsvColumns(result: EvaluateResult): { header: string;
     cols.push({ header: `equilibrium.moleFractions.${k}`, values: eq.map((p) => p.moleFractions[k] ?? null) });
     cols.push({ header: `equilibrium.naive.moleFractions.${k}`, values: eq.map((p) => p.naive.moleFractions[k] ?? null) });
     if (eq[0].sigma) cols.push({ header: `equilibrium.sigma.moleFractions.${k}`, values: eq.map((p) => p.sigma?.moleFractions[k] ?? null) });
+  }
+  if (result.equilibriumInfo?.gas === "peng-robinson") {
+    for (const k of Object.keys(eq[0].fugacityCoefficients ?? {})) {
+      cols.push({ header: `equilibrium.fugacityCoefficients.${k}`, values: eq.map((p) => p.fugacityCoefficients?.[k] ?? null) });
+    }
+    cols.push({ header: "equilibrium.ideal.keyConversion", values: eq.map((p) => p.ideal?.keyConversion ?? null) });
   }
   cols.push({ header: "equilibrium.converged", values: eq.map((p) => p.converged && p.naive.converged) });
   return cols;

@@ -1,21 +1,22 @@
 import "server-only";
 import { z } from "zod";
+import { strictObject } from "@/lib/validation/strict";
 import { requirePermission, type Actor } from "@/lib/auth/guards";
 import { parseWith } from "@/lib/http";
 import { evaluate, type EvaluateResult } from "@/lib/thermo";
 import { caseEquilibriumSchema } from "@/lib/validation/equilibrium";
 import { caseInputSchema } from "@/lib/validation/cases";
-import { buildRequest, getCase, updateCase, type CaseDto } from "./cases";
+import { getCase, requestFor, updateCase, type CaseDto } from "./cases";
 import { pinTerms } from "@/lib/cases/equilibrium";
 import { loadPins } from "./pins";
 
 /** A case's equilibrium: trial runs and saving (the request parts live in ./equilibrium, which cases.ts uses). */
 
-const previewSchema = z.object({
+const previewSchema = strictObject({
   caseId: z.number({ error: "Send the case id." }).int().positive(),
   equilibrium: caseEquilibriumSchema,
 });
-const saveSchema = z.object({
+const saveSchema = strictObject({
   lockVersion: z.number({ error: "Send the lockVersion you loaded." }).int().min(0),
   equilibrium: caseEquilibriumSchema.nullable(),
 });
@@ -32,7 +33,7 @@ export async function previewCaseEquilibrium(actor: Actor | null, readBody: () =
   const { equilibrium } = parseWith(caseInputSchema, { title: c.title, notes: c.notes, ...c.inputs, equilibrium: body.equilibrium });
   const inputs = { ...c.inputs, equilibrium };
   const pins = await loadPins(me.teamId, pinTerms(inputs), { allowAny: true });
-  return evaluate(buildRequest(inputs, pins));
+  return evaluate(await requestFor(me.teamId, inputs, pins));
 }
 
 /** Save (or clear, with null) a draft case's equilibrium: an ordinary case edit, audited, lock-checked. */

@@ -19,7 +19,7 @@ import type { CaseSnapshot, PinnedVersion } from "@/models/case-snapshot";
 import { recordAudit } from "./audit";
 import { enqueueMail, enqueueMailToRoles } from "./mail";
 import { equilibriumCsvColumns, equilibriumRequestOf, pinTerms, speciesOfPin } from "@/lib/cases/equilibrium";
-import { loadPins, newerApprovedVersions, type NewerVersionDto } from "./pins";
+import { inertCriticalConstants, loadPins, newerApprovedVersions, type NewerVersionDto } from "./pins";
 
 // ---------------------------------------------------------------- DTOs
 
@@ -119,9 +119,11 @@ function checkLock(row: Case, lockVersion: number): void {
 }
 
 /** The engine request for a case: species keys are the formula plus phase marker, or the bare formula for the stable phase. */
-export function buildRequest(inputs: CaseInputs, pins: readonly PinnedVersion[]): EvaluateRequest {
+export function buildRequest(inputs: CaseInputs, pins: readonly PinnedVersion[], inertCritical: Record<string, { tcK: number; pcBar: number; omega: number }> = {}): EvaluateRequest {
   const species: EvaluateRequest["species"] = {};
-  for (const p of pins) species[p.key] = speciesOfPin(p);
+  // Critical constants ride along only when the equilibrium asks for a real gas, so other requests stay as they were.
+  const realGas = inputs.equilibrium?.gas === "peng-robinson";
+  for (const p of pins) species[p.key] = realGas && p.critical ? { ...speciesOfPin(p), critical: p.critical } : speciesOfPin(p);
   const request: EvaluateRequest = {
     reaction: caseReaction(inputs, "->"),
     species,
@@ -131,8 +133,22 @@ export function buildRequest(inputs: CaseInputs, pins: readonly PinnedVersion[])
   };
   if (inputs.toleranceKFactor !== null) request.toleranceKFactor = inputs.toleranceKFactor;
   const equilibrium = equilibriumRequestOf(inputs.equilibrium);
-  if (equilibrium) request.equilibrium = equilibrium;
+  if (equilibrium) {
+    const inert = Object.fromEntries(Object.entries(inertCritical).filter(([k]) => !(k in species)));
+    if (realGas && Object.keys(inert).length) equilibrium.critical = inert;
+    request.equilibrium = equilibrium;
+  }
+  const inletK = inputs.equilibrium?.adiabaticInletK;
+  if (equilibrium && inletK !== undefined && inletK !== null) request.adiabatic = { inletK };
   return request;
+}
+
+/** The request with the critical constants of unpinned (inert) feed species looked up, for a real-gas equilibrium. */
+export async function requestFor(teamId: number, inputs: CaseInputs, pins: readonly PinnedVersion[], transaction?: Transaction): Promise<EvaluateRequest> {
+  const eq = inputs.equilibrium;
+  if (eq?.gas !== "peng-robinson") return buildRequest(inputs, pins);
+  const pinned = new Set(pins.map((p) => p.key));
+  return buildRequest(inputs, pins, await inertCriticalConstants(teamId, Object.keys(eq.feed).filter((k) => !pinned.has(k)), transaction));
 }
 
 const caseInputsOf = (input: CaseInput): CaseInputs => ({
@@ -314,7 +330,7 @@ export async function getResults(actor: Actor | null, caseId: number, revision?:
   }
   requirePermission(me, "evaluate.run");
   const pins = await loadPins(row.teamId, pinTerms(row.inputs), { allowAny: true });
-  const request = buildRequest(row.inputs, pins);
+  const request = await requestFor(row.teamId, row.inputs, pins);
   const result = evaluate(request);
   return {
     source: "live",
@@ -592,7 +608,7 @@ async function requestReview(transaction: Transaction, me: Actor, row: Case, sna
 /** Evaluate outside the write transaction (it may take a moment on a big grid), then check nothing moved. */
 async function prepareRun(teamId: number, inputs: CaseInputs) {
   const pins = await loadPins(teamId, pinTerms(inputs), { allowAny: true });
-  const request = buildRequest(inputs, pins);
+  const request = await requestFor(teamId, inputs, pins);
   const result = evaluate(request);
   return { pins, request, result };
 }

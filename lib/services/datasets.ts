@@ -11,7 +11,7 @@ import type { Dataset } from "@/models";
 import type { DatasetPoint } from "@/models/dataset";
 import type { VersionStatus } from "@/models/model-version";
 import { recordAudit } from "./audit";
-import { createTeamModel, describeData, findOrCreateSpecies, getVersion, insertDraft, loadModel, type VersionDto } from "./library";
+import { addContributor, createTeamModel, describeData, findOrCreateSpecies, getVersion, insertDraft, loadModel, type VersionDto } from "./library";
 
 export type DatasetSummaryDto = {
   id: number;
@@ -202,6 +202,8 @@ export async function saveFitAsDraft(actor: Actor | null, id: number, raw: SaveF
       "model-version.fitted",
       { datasetId: dataset.id, form: fit.form, rmsJ: fit.rmsJ, maxAbsJ: fit.maxAbsJ, points: fit.points },
     );
+    // Four-eyes: whoever uploaded the measurements shaped the content, so they may not decide on the fit.
+    if (dataset.uploadedById != null && dataset.uploadedById !== me.userId) await addContributor(transaction, version.id, dataset.uploadedById, "uploader");
     return version.id;
   });
   return getVersion(me, versionId);

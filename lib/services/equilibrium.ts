@@ -34,6 +34,7 @@ export async function approvedFamilies(actor: Actor | null, keys: string[]): Pro
       })
     : [];
   const formulaOf = new Map(species.map((s) => [s.id, s.formula]));
+  const criticalOf = new Map(species.map((s) => [s.id, s.critical]));
   const byFamily = new Map<string, Map<string, { v: (typeof versions)[number]; modelName: string }>>();
   for (const v of versions) {
     const m = cpModels.find((c) => c.id === v.modelId)!;
@@ -59,7 +60,14 @@ export async function approvedFamilies(actor: Actor | null, keys: string[]): Pro
         return { key: k, versionId: v.id, modelName, versionNumber: v.versionNumber, citation: v.citation };
       }),
     });
-    speciesByFamily.set(family, new Map(keys.map((k) => [k, speciesOfPin(fam.get(k)!.v)])));
+    // Critical constants ride along so a Peng–Robinson request compares families too (ignored by an ideal gas).
+    const withCritical = (k: string): SpeciesInput => {
+      const { v } = fam.get(k)!;
+      const c = criticalOf.get(cpModels.find((m) => m.id === v.modelId)!.speciesId);
+      const entry = speciesOfPin(v);
+      return c ? { ...entry, critical: { tcK: c.tcK, pcBar: c.pcBar, omega: c.omega } } : entry;
+    };
+    speciesByFamily.set(family, new Map(keys.map((k) => [k, withCritical(k)])));
   }
   return { families, species: speciesByFamily };
 }

@@ -24,6 +24,7 @@ import type { CpModel, ModelVersion, Species } from "@/models";
 import type { VersionStatus, VersionUncertainty } from "@/models/model-version";
 import { CONTRIBUTOR_ROLES, type ContributorRole } from "@/models/model-version-contributor";
 import { recordAudit } from "./audit";
+import { queueImpactJob } from "./impact";
 import { notifyDecided, notifyProposed } from "./library-mail";
 
 // ------------------------------------------------------------------ DTOs
@@ -140,7 +141,7 @@ function versionSummary(v: ModelVersion, names: Map<number, string>): VersionSum
 // ------------------------------------------------------------------ contributors (four-eyes)
 
 /** Record one person's part in a version, once; the caller holds the transaction. */
-async function addContributor(transaction: Transaction, versionId: number, userId: number, role: ContributorRole): Promise<void> {
+export async function addContributor(transaction: Transaction, versionId: number, userId: number, role: ContributorRole): Promise<void> {
   await models().ModelVersionContributor.findOrCreate({ where: { versionId, userId, role }, defaults: { versionId, userId, role }, transaction });
 }
 
@@ -519,6 +520,8 @@ export async function proposeVersion(actor: Actor | null, id: number): Promise<V
     await addContributor(transaction, id, me.userId, "proposer");
     const dto = await versionDto(version, transaction);
     await notifyProposed(transaction, me, dto);
+    // What this version would do to the team's pinned cases, for the version page (background).
+    await queueImpactJob(transaction, { teamId: me.teamId, versionId: id, trigger: "proposed", notify: false, requestedById: me.userId });
     return dto;
   });
 }
@@ -556,6 +559,8 @@ export async function approveVersion(actor: Actor | null, id: number, note?: str
     await recordAudit(transaction, { action: "model-version.approved", entityType: "model-version", entityId: id, teamId: me.teamId, actorId: me.userId, before: { status: "proposed" }, after: { status: "approved", supersededIds: previous.map((p) => p.id), note: version.decisionReason } });
     const dto = await versionDto(version, transaction);
     await notifyDecided(transaction, me, dto);
+    // Re-run the impact on the approved version; when done, the authors of affected cases get one mail each.
+    await queueImpactJob(transaction, { teamId: me.teamId, versionId: id, trigger: "approved", notify: true, requestedById: me.userId });
     return dto;
   });
 }

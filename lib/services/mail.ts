@@ -52,11 +52,12 @@ export async function enqueueMailToRoles(
   teamId: number,
   roles: Role[],
   message: Omit<MailInput, "to" | "teamId">,
-  options: { exceptUserId?: number } = {},
+  options: { exceptUserId?: number; exceptUserIds?: readonly number[] } = {},
 ): Promise<number> {
   const { Membership, User } = models();
   const members = await Membership.findAll({ where: { teamId, role: roles }, include: [{ model: User, as: "user" }], transaction });
-  const to = members.filter((m) => m.userId !== options.exceptUserId).map((m) => m.user!.email);
+  const except = new Set([...(options.exceptUserIds ?? []), ...(options.exceptUserId !== undefined ? [options.exceptUserId] : [])]);
+  const to = members.filter((m) => !except.has(m.userId)).map((m) => m.user!.email);
   if (to.length) await enqueueMail(transaction, { ...message, to, teamId });
   return to.length;
 }

@@ -139,8 +139,29 @@ export async function loadPins(teamId: number, terms: readonly CaseTerm[], optio
       citation: v.citation,
       data: v.data,
       uncertainty: v.uncertainty ?? null,
+      ...(s.critical ? { critical: { tcK: s.critical.tcK, pcBar: s.critical.pcBar, omega: s.critical.omega } } : {}),
     };
   });
+}
+
+/**
+ * Critical constants for feed species that have no pin (inert ones), by formula from the
+ * team's species or the reference library (the team's own first). Keys without constants
+ * are left out; the engine then refuses a real-gas request naming them.
+ */
+export async function inertCriticalConstants(teamId: number, keys: readonly string[], transaction?: Transaction): Promise<Record<string, { tcK: number; pcBar: number; omega: number }>> {
+  if (keys.length === 0) return {};
+  const formulaOf = (k: string) => k.replace(/\((cr(-[A-Za-z0-9_.]+)?|l|g)\)$/, "");
+  const rows = await models().Species.findAll({
+    where: { formula: { [Op.in]: [...new Set(keys.map(formulaOf))] }, [Op.or]: [{ teamId: null }, { teamId }] },
+    transaction,
+  });
+  const out: Record<string, { tcK: number; pcBar: number; omega: number }> = {};
+  for (const k of keys) {
+    const match = rows.filter((r) => r.formula === formulaOf(k) && r.critical).sort((a, b) => (a.teamId === null ? 1 : 0) - (b.teamId === null ? 1 : 0))[0];
+    if (match?.critical) out[k] = { tcK: match.critical.tcK, pcBar: match.critical.pcBar, omega: match.critical.omega };
+  }
+  return out;
 }
 
 /** For each pin, the newest approved version of the same model when it is newer than the pinned one. */

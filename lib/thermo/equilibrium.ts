@@ -12,6 +12,8 @@ import { FEED_UNITS, type FeedUnit, type ParsedSpecies } from "./schema";
 import { checkFiniteGrid, fmt, termAt, termOnGrid, termWarnings, type EngineWarning, type SpeciesModel, type TermGrid } from "./species";
 import { parseUncertainty, sigmaG, sigmaGNaive, type SpeciesUncertainty } from "./uncertainty";
 import { parsePressureBar } from "./units";
+import { realGasSetup, solveRealGas, type GasModel, type RealGasDiagnostics, type RealGasSetup } from "./real-gas";
+import type { CriticalConstants } from "./eos";
 
 const LN10 = Math.LN10;
 
@@ -43,8 +45,12 @@ export interface Composition {
   /** log10 K of each reaction of the set at this T. */
   log10K: number[];
   converged: boolean;
-  diagnostics: { iterations: number; residual: number; atBound: boolean[] };
+  diagnostics: { iterations: number; residual: number; atBound: boolean[]; realGas?: RealGasDiagnostics };
   sigma?: CompositionSigma;
+  /** φ of every gas-phase species (1 with ideal-gas activities). */
+  fugacityCoefficients: Record<string, number>;
+  /** With a real-gas equation: the ideal-gas solution beside it. */
+  ideal?: { moleFractions: Record<string, number>; keyConversion: number };
 }
 
 export interface EquilibriumPoint extends Composition {
@@ -60,6 +66,8 @@ export interface EquilibriumInfo {
   reactions: string[];
   key: string;
   pressureBar: number;
+  /** Gas-phase model the compositions were solved with. */
+  gas: GasModel;
   /** The unit the request gave (default mol). */
   feedUnit: string;
   /** The unit of `feed` and of every `moles` in the result: mass units are converted to amounts (g → mol, kg → kmol, kg/h and t/h → kmol/h). */
@@ -92,6 +100,9 @@ export interface EquilibriumInput {
     pressureBar?: number | string;
     key?: string;
     reactions?: string[];
+    gas?: GasModel;
+    critical?: Record<string, CriticalConstants>;
+    kij?: { species: [string, string]; value: number }[];
   };
   reaction: string;
   species: Record<string, ParsedSpecies>;
@@ -113,6 +124,7 @@ export function equilibriumOnGrid(input: EquilibriumInput): {
   points: EquilibriumPoint[];
   info: EquilibriumInfo;
   warnings: EngineWarning[];
+  context: EquilibriumContext;
 } {
   const eq = input.equilibrium;
   const set = eq.reactions !== undefined;
@@ -234,14 +246,14 @@ export function equilibriumOnGrid(input: EquilibriumInput): {
   }
   const anyUncertainty = list.some((s) => s.u !== null);
   const lnP = Math.log(pressureBar);
+  const gasModel: GasModel = eq.gas ?? "ideal";
+  // A species marked condensed never enters the gas; every other one may.
+  const mayBeGas = (i: number) => list[i].phase === undefined || list[i].phase === "g";
+  const real: RealGasSetup | null =
+    gasModel === "peng-robinson" ? realGasSetup(list, mayBeGas, input.species, eq, pressureBar) : null;
 
-  const points: EquilibriumPoint[] = new Array(n);
-  const exceeds: number[] = [];
-  const notConverged: number[] = [];
-  const notConvergedCorrected: number[] = [];
-  const notConvergedNaive: number[] = [];
-  for (let t = 0; t < n; t++) {
-    const tK = T[t];
+  /** Corrected and naive solutions at tK, from each reacting species' H, S and phase there. */
+  const solveAt = (tK: number, props: (sp: SetSpecies) => { h: number; s: number; gas: boolean }) => {
     const RT = R * tK;
     const gas = new Array<boolean>(S);
     const gasNaive = new Array<boolean>(S);
@@ -254,10 +266,8 @@ export function equilibriumOnGrid(input: EquilibriumInput): {
         gas[i] = gasNaive[i] = sp.phase === undefined || sp.phase === "g";
         return;
       }
-      const gr = sp.grid!;
-      const h = gr.h[t];
-      const s = gr.s[t];
-      gas[i] = gr.phases[gr.phaseIndex[t]] === "g";
+      const { h, s, gas: isGas } = props(sp);
+      gas[i] = isGas;
       gasNaive[i] = sp.ref!.phase === "g";
       g[i] = (h - tK * s) / RT;
       gNaive[i] = (sp.ref!.hJ - tK * sp.ref!.sJ) / RT;
@@ -266,8 +276,22 @@ export function equilibriumOnGrid(input: EquilibriumInput): {
         sigNaive[i] = sigmaGNaive(sp.u, tK) / RT;
       }
     });
-    const corrected = compose({ n0, nu, gas, g, lnP, sensitivity: anyUncertainty }, list, k, anyUncertainty ? sig : null);
-    const naive = compose({ n0, nu, gas: gasNaive, g: gNaive, lnP, sensitivity: anyUncertainty }, list, k, anyUncertainty ? sigNaive : null);
+    const corrected = compose({ n0, nu, gas, g, lnP, sensitivity: anyUncertainty }, list, k, anyUncertainty ? sig : null, real, tK);
+    const naive = compose({ n0, nu, gas: gasNaive, g: gNaive, lnP, sensitivity: anyUncertainty }, list, k, anyUncertainty ? sigNaive : null, real, tK);
+    return { corrected, naive };
+  };
+
+  const points: EquilibriumPoint[] = new Array(n);
+  const exceeds: number[] = [];
+  const notConverged: number[] = [];
+  const notConvergedCorrected: number[] = [];
+  const notConvergedNaive: number[] = [];
+  for (let t = 0; t < n; t++) {
+    const tK = T[t];
+    const { corrected, naive } = solveAt(tK, (sp) => {
+      const gr = sp.grid!;
+      return { h: gr.h[t], s: gr.s[t], gas: gr.phases[gr.phaseIndex[t]] === "g" };
+    });
     const diff = naive.keyFraction !== null && corrected.keyFraction !== null ? naive.keyFraction - corrected.keyFraction : 0;
     const point: EquilibriumPoint = { tK, ...corrected, naive, keyFractionDiff: diff };
     if (anyUncertainty && corrected.sigma) {
@@ -293,6 +317,7 @@ export function equilibriumOnGrid(input: EquilibriumInput): {
     reactions: texts,
     key,
     pressureBar,
+    gas: gasModel,
     feedUnit: conv.feedUnit,
     amountUnit: conv.amountUnit,
     feed: Object.fromEntries(list.map((s, i) => [s.key, n0[i]])),
@@ -300,7 +325,35 @@ export function equilibriumOnGrid(input: EquilibriumInput): {
     species: list.map((s) => ({ key: s.key, role: s.reacting ? "reacting" : "inert" })),
   };
   if (anyUncertainty) info.naiveExceedsUncertaintyK = exceeds;
-  return { points, info, warnings };
+  const liquidLike = points.filter((p) => p.diagnostics.realGas?.liquidLike || p.naive.diagnostics.realGas?.liquidLike).map((p) => p.tK);
+  if (liquidLike.length > 0) {
+    warnings.push({
+      code: "real-gas-liquid-root", tK: liquidLike[0], temperaturesK: liquidLike,
+      message: `the Peng–Robinson gas took a liquid-like root at ${liquidLike.length} temperature${liquidLike.length > 1 ? "s" : ""} (first ${fmt(liquidLike[0])} K): the mixture may condense, which a gas-only model does not describe`,
+    });
+  }
+  const context: EquilibriumContext = {
+    list: list.map((s) => ({ key: s.key, reacting: s.reacting, phase: s.phase })),
+    n0,
+    nu,
+    key,
+    /** Solve at any T from the species models (termAt), for the adiabatic outlet. */
+    solveAt: (tK: number) =>
+      solveAt(tK, (sp) => {
+        const v = termAt(sp.model!, sp.phase, tK);
+        return { h: v.hJ, s: v.sJ, gas: v.phase === "g" };
+      }),
+  };
+  return { points, info, warnings, context };
+}
+
+/** What the adiabatic outlet needs from the equilibrium: the species, feed and a solve at any T. */
+export interface EquilibriumContext {
+  list: { key: string; reacting: boolean; phase?: string }[];
+  n0: Float64Array;
+  nu: number[][];
+  key: string;
+  solveAt: (tK: number) => { corrected: Composition; naive: Composition };
 }
 
 interface FeedUnitInfo {
@@ -385,17 +438,26 @@ export function feedAmounts(
 }
 
 /** Solve one problem and shape it; `sigma` (μ°/RT units per species) adds the linear bands. */
-function compose(p: EquilibriumProblem, list: SetSpecies[], k: number, sigma: Float64Array | null): Composition {
-  const sol: EquilibriumSolution = solveEquilibrium(p);
+function compose(p: EquilibriumProblem, list: SetSpecies[], k: number, sigma: Float64Array | null, real: RealGasSetup | null, tK: number): Composition {
+  const rg = real ? solveRealGas(p, real, tK, solveEquilibrium) : null;
+  const sol: EquilibriumSolution = rg ? rg.solution : solveEquilibrium(p);
   const S = list.length;
   const m = sol.moles;
-  let ng = 0;
-  for (let i = 0; i < S; i++) if (p.gas[i]) ng += m[i];
+  const fractions = (amounts: Float64Array) => {
+    let ng = 0;
+    for (let i = 0; i < S; i++) if (p.gas[i]) ng += amounts[i];
+    const out: Record<string, number> = {};
+    list.forEach((sp, i) => {
+      if (p.gas[i]) out[sp.key] = ng > 0 ? amounts[i] / ng : 0;
+    });
+    return { ng, out };
+  };
+  const { ng, out: moleFractions } = fractions(m);
   const moles: Record<string, number> = {};
-  const moleFractions: Record<string, number> = {};
+  const fugacityCoefficients: Record<string, number> = {};
   list.forEach((sp, i) => {
     moles[sp.key] = m[i];
-    if (p.gas[i]) moleFractions[sp.key] = ng > 0 ? m[i] / ng : 0;
+    if (p.gas[i]) fugacityCoefficients[sp.key] = rg ? rg.phi[i] : 1;
   });
   const log10K = p.nu.map((row) => -row.reduce((a, v, i) => a + v * p.g[i], 0) / LN10);
   const out: Composition = {
@@ -406,8 +468,13 @@ function compose(p: EquilibriumProblem, list: SetSpecies[], k: number, sigma: Fl
     keyFraction: p.gas[k] ? moleFractions[list[k].key] : null,
     log10K,
     converged: sol.converged,
-    diagnostics: { iterations: sol.iterations, residual: sol.residual, atBound: sol.atBound },
+    diagnostics: { iterations: sol.iterations, residual: sol.residual, atBound: sol.atBound, ...(rg ? { realGas: rg.diagnostics } : {}) },
+    fugacityCoefficients,
   };
+  if (rg) {
+    const im = rg.ideal.moles;
+    out.ideal = { moleFractions: fractions(im).out, keyConversion: (p.n0[k] - im[k]) / p.n0[k] };
+  }
   if (p.nu.length === 1) out.extent = sol.extents[0];
   if (sigma) {
     // dn_i/dg_q = Σ_j ν_ji · dξ_j/dg_q

@@ -23,6 +23,7 @@ import {
 } from "./species";
 import { parseMolarEnergyKJ, parsePressureBar, parseTemperatureK } from "./units";
 import { equilibriumOnGrid, type EquilibriumInfo, type EquilibriumPoint } from "./equilibrium";
+import { adiabaticOutlet, type AdiabaticResult } from "./adiabatic";
 import { combine, parseUncertainty, sigmaG, sigmaGNaive, type SpeciesUncertainty } from "./uncertainty";
 
 export interface EvaluatePoint {
@@ -65,6 +66,7 @@ export interface EvaluateResult {
   uncertainty?: UncertaintySummary;
   equilibrium?: EquilibriumPoint[];
   equilibriumInfo?: EquilibriumInfo;
+  adiabatic?: AdiabaticResult;
   warnings: EngineWarning[];
   engine: { version: string };
 }
@@ -299,7 +301,8 @@ function evaluateWithin(request: unknown): EvaluateResult {
       : req.equilibrium?.pressureBar !== undefined
         ? parsePressureBar(req.equilibrium.pressureBar, "equilibrium.pressureBar")
         : undefined;
-  if (pressureBar !== undefined && pressureBar > HIGH_PRESSURE_BAR) {
+  // With a real-gas equilibrium the fugacity coefficients are applied; the warning would say otherwise.
+  if (pressureBar !== undefined && pressureBar > HIGH_PRESSURE_BAR && req.equilibrium?.gas !== "peng-robinson") {
     warnings.push({
       code: "high-pressure", pressureBar,
       message: `K is the ideal-gas constant for a 1 bar standard state; at ${fmt(pressureBar)} bar non-ideal (fugacity) corrections may matter`,
@@ -328,6 +331,17 @@ function evaluateWithin(request: unknown): EvaluateResult {
     result.equilibrium = eq.points;
     result.equilibriumInfo = eq.info;
     warnings.push(...eq.warnings);
+    if (req.adiabatic) {
+      const ad = adiabaticOutlet({
+        adiabatic: req.adiabatic, context: eq.context, models, referenceK,
+        hasEntry: (key) => Object.prototype.hasOwnProperty.call(req.species, key),
+        buildModel: (key) => buildSpeciesModel(key, req.species[key], referenceK),
+      });
+      result.adiabatic = ad.result;
+      warnings.push(...ad.warnings);
+    }
+  } else if (req.adiabatic) {
+    refuse("adiabatic-needs-equilibrium", "adiabatic: an adiabatic outlet needs an equilibrium feed; add equilibrium { feed, pressureBar }");
   }
   if (req.include?.includes("species")) {
     const species: Record<string, SpeciesRow[]> = {};

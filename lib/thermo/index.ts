@@ -11,6 +11,9 @@ export {
   type UncertaintySummary,
 } from "./evaluate";
 export { type EquilibriumPoint, type EquilibriumInfo, type Composition, type CompositionSigma } from "./equilibrium";
+export { prMixture, prZPure, prPureParameters, type CriticalConstants, type PRMixtureResult } from "./eos";
+export { type AdiabaticResult, type AdiabaticOutlet } from "./adiabatic";
+export { type GasModel, type RealGasDiagnostics } from "./real-gas";
 export { compareSources, type SourceVariant, type SourceComparison } from "./sources";
 export { speciesProperties, type SpeciesRow, type EngineWarning } from "./species";
 export { parseFormula, parseReaction, parseSpeciesKey, checkBalance, ATOMIC_WEIGHTS } from "./formula";
@@ -28,6 +31,8 @@ export {
   evaluateRequestSchema,
   speciesSchema,
   segmentSchema,
+  criticalSchema,
+  GAS_MODELS,
   fitRequestSchema,
   CP_FORMS,
   type EvaluateRequest,

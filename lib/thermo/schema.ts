@@ -145,6 +145,16 @@ export const speciesUncertaintySchema = strict({
   cpRelative: z.number({ error: "expected a finite number" }).nonnegative({ error: "an uncertainty must not be negative" }).optional(),
 });
 
+/** Critical constants for the real-gas equation of state: Tc (K), Pc (bar), acentric factor ω. */
+export const criticalSchema = strict({
+  tcK: z.number({ error: "expected a finite number" }).positive({ error: "a critical temperature must be above 0 K" }),
+  pcBar: z.number({ error: "expected a finite number" }).positive({ error: "a critical pressure must be above 0 bar" }),
+  omega: z.number({ error: "expected a finite number" }).min(-1, { error: "an acentric factor runs from -1 to 2" }).max(2, { error: "an acentric factor runs from -1 to 2" }),
+});
+
+/** Gas-phase models of the equilibrium: ideal-gas activities, or Peng–Robinson fugacity coefficients. */
+export const GAS_MODELS = ["ideal", "peng-robinson"] as const;
+
 export const speciesSchema = strict({
   segments: z.array(segmentSchema).min(1, { error: "expected at least one segment" }),
   transitions: z.array(transitionSchema).optional(),
@@ -152,6 +162,7 @@ export const speciesSchema = strict({
   /** Standard pressure of the source (Pa when a bare number; "1 atm" is read). */
   standardPressurePa: quantitySchema.optional(),
   uncertainty: speciesUncertaintySchema.optional(),
+  critical: criticalSchema.optional(),
 });
 
 export const temperaturesSchema = z.union(
@@ -211,8 +222,24 @@ export const evaluateRequestSchema = strict({
       key: z.string().trim().min(1).optional(),
       /** A simultaneous set; without it the request's `reaction`. */
       reactions: z.array(z.string().trim().min(1, { error: "expected a reaction" })).min(1, { error: "expected at least one reaction" }).max(12, { error: "at most 12 reactions" }).optional(),
+      /** Gas-phase model (default "ideal"). */
+      gas: z.enum(GAS_MODELS, { error: 'expected "ideal" or "peng-robinson"' }).optional(),
+      /** Critical constants of inert feed species that have no entry in species. */
+      critical: z.record(z.string(), criticalSchema).optional(),
+      /** Binary interaction parameters of the van der Waals mixing rule (0 for a pair not listed). */
+      kij: z
+        .array(
+          strict({
+            species: z.tuple([z.string().trim().min(1), z.string().trim().min(1)]),
+            value: z.number({ error: "expected a finite number" }).min(-1, { error: "k_ij runs from -1 to 1" }).max(1, { error: "k_ij runs from -1 to 1" }),
+          }),
+        )
+        .max(300, { error: "at most 300 pairs" })
+        .optional(),
     })
     .optional(),
+  /** Adiabatic outlet temperature of the equilibrium feed entering at inletK. */
+  adiabatic: strict({ inletK: quantitySchema }).optional(),
 });
 
 export type EvaluateRequest = z.input<typeof evaluateRequestSchema>;

@@ -1,5 +1,6 @@
 /** The audit trail's filters, shared by the /audit screen and GET /api/v1/audit. zod only. */
 import { z } from "zod";
+import { strictObject } from "./strict";
 
 const token = (what: string) =>
   z
@@ -8,8 +9,7 @@ const token = (what: string) =>
     .max(60, `Use at most 60 characters for the ${what}.`)
     .regex(/^[a-z0-9.-]*$/i, { error: `Use letters, digits, dots and dashes for the ${what}.` });
 
-export const auditQuerySchema = z
-  .object({
+export const auditQuerySchema = strictObject({
     /** A record type (case, model-version, membership, …). */
     entityType: token("record type").optional(),
     /** One record's id; with entityType. */
@@ -18,8 +18,7 @@ export const auditQuerySchema = z
     action: token("action").optional(),
     beforeId: z.coerce.number().int().positive().optional(),
     limit: z.coerce.number().int().min(1).max(200, "At most 200 events a page.").optional(),
-  })
-  .strict();
+  });
 export type AuditQuery = z.infer<typeof auditQuerySchema>;
 
 /** The filter the service takes: empty strings mean "any". */

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { strictObject } from "@/lib/validation/strict";
 import { PASSWORD_MIN_LENGTH } from "@/lib/auth/password";
 
 export const emailSchema = z
@@ -9,7 +10,7 @@ export const emailSchema = z
   .max(254, "That e-mail address is too long.")
   .pipe(z.email({ error: "Enter a valid e-mail address." }));
 
-export const signInSchema = z.object({
+export const signInSchema = strictObject({
   email: emailSchema,
   password: z.string({ error: "Enter your password." }).min(1, "Enter your password.").max(200, "That password is too long."),
 });

@@ -1,5 +1,6 @@
 /** Case, review and comment shapes, shared by the builder form, the route handlers and the services. zod only. */
 import { z } from "zod";
+import { strictObject } from "@/lib/validation/strict";
 import { elementBalance, termKey } from "@/lib/cases/balance";
 import { splitQuantity, toKelvin, toKelvinDifference, type Quantity } from "@/lib/cases/temperature";
 import { caseEquilibriumSchema, feedKeyIssues } from "./equilibrium";
@@ -17,7 +18,7 @@ const quantity = z.union([z.number({ error: "Enter a number." }), z.string().tri
   error: "Enter a temperature.",
 }).refine((q) => splitQuantity(q as Quantity) !== null, { error: "Use a number with K, degC or degF." });
 
-export const termSchema = z.object({
+export const termSchema = strictObject({
   formula: z.string({ error: "Pick a species." }).trim().min(1, "Pick a species.").max(60, "Use at most 60 characters."),
   phase: z
     .string()
@@ -45,7 +46,7 @@ const difference = quantity.superRefine((q, ctx) => {
   if (!(toKelvinDifference(q as Quantity) > 0)) ctx.addIssue({ code: "custom", message: "The step must be positive." });
 });
 
-const spanSchema = z.object({ fromK: absolute, toK: absolute, stepK: difference }).superRefine((v, ctx) => {
+const spanSchema = strictObject({ fromK: absolute, toK: absolute, stepK: difference }).superRefine((v, ctx) => {
   const from = toKelvin(v.fromK as Quantity);
   const to = toKelvin(v.toK as Quantity);
   const step = toKelvinDifference(v.stepK as Quantity);
@@ -54,7 +55,7 @@ const spanSchema = z.object({ fromK: absolute, toK: absolute, stepK: difference 
     ctx.addIssue({ code: "custom", path: ["stepK"], message: `That gives more than ${MAX_CASE_POINTS} points; use a larger step.` });
   }
 });
-const listSchema = z.object({ listK: z.array(absolute).min(1, "Enter at least one temperature.").max(MAX_CASE_POINTS, `Use at most ${MAX_CASE_POINTS} temperatures.`) });
+const listSchema = strictObject({ listK: z.array(absolute).min(1, "Enter at least one temperature.").max(MAX_CASE_POINTS, `Use at most ${MAX_CASE_POINTS} temperatures.`) });
 export const caseTemperaturesSchema = z.union([spanSchema, listSchema], { error: "Give a span (from, to, step) or a list of temperatures." });
 export type CaseTemperatures = z.infer<typeof caseTemperaturesSchema>;
 
@@ -71,8 +72,7 @@ const caseFields = {
   equilibrium: caseEquilibriumSchema.nullable(),
 };
 
-export const caseInputSchema = z
-  .object({
+export const caseInputSchema = strictObject({
     ...caseFields,
     notes: caseFields.notes.default(""),
     referenceK: caseFields.referenceK.default(298.15),
@@ -100,15 +100,14 @@ export type CaseInput = z.infer<typeof caseInputSchema>;
 /** What a case stores as its inputs (title and notes live on the case row). */
 export type CaseInputs = Omit<CaseInput, "title" | "notes">;
 
-export const lockSchema = z.object({ lockVersion: z.number({ error: "Send the lockVersion you loaded." }).int().min(0) });
+export const lockSchema = strictObject({ lockVersion: z.number({ error: "Send the lockVersion you loaded." }).int().min(0) });
 
 /**
  * A PATCH names only what changes: every field is optional and a field the body leaves out
  * keeps its stored value (the saved equilibrium feed too); `equilibrium: null` clears it.
  * The service checks the merged case against caseInputSchema.
  */
-export const caseUpdateSchema = z
-  .object({
+export const caseUpdateSchema = strictObject({
     title: caseFields.title.optional(),
     notes: caseFields.notes.optional(),
     terms: caseFields.terms.optional(),
@@ -122,13 +121,12 @@ export const caseUpdateSchema = z
   .strict();
 export type CaseUpdate = z.infer<typeof caseUpdateSchema>;
 
-export const caseListQuerySchema = z.object({
+export const caseListQuerySchema = strictObject({
   status: z.enum(CASE_STATUSES, { error: "Use a status of draft, submitted, approved or returned." }).optional(),
   mine: z.enum(["1", "0"]).optional(),
 });
 
-export const decisionSchema = z
-  .object({
+export const decisionSchema = strictObject({
     decision: z.enum(DECISIONS, { error: "Decide approved or returned." }),
     reason: z.string().trim().max(2000, "Use at most 2000 characters.").default(""),
     /** The revision the reviewer looked at; a newer submission makes the decision stale. */
@@ -141,7 +139,7 @@ export const decisionSchema = z
   });
 export type DecisionInput = z.infer<typeof decisionSchema>;
 
-export const commentSchema = z.object({
+export const commentSchema = strictObject({
   body: z.string({ error: "Write a comment." }).trim().min(1, "Write a comment.").max(4000, "Use at most 4000 characters."),
   revision: z.number().int().positive().optional(),
 });
@@ -149,14 +147,12 @@ export type CommentInput = z.infer<typeof commentSchema>;
 
 export const revisionParamSchema = z.coerce.number({ error: "Expected a revision number." }).int().positive("Expected a revision number.");
 /** Without from/to: the last two revisions. */
-export const diffQuerySchema = z.object({ from: revisionParamSchema.optional(), to: revisionParamSchema.optional() });
-export const exportQuerySchema = z
-  .object({
-    revision: revisionParamSchema.optional(),
-    /** Temperature column of the CSV: K (tK, the default), degC (tDegC) or degF (tDegF). */
-    unit: z.enum(["K", "degC", "degF"], { error: "Use a unit of K, degC or degF." }).optional(),
-  })
-  .strict();
+export const diffQuerySchema = strictObject({ from: revisionParamSchema.optional(), to: revisionParamSchema.optional() });
+export const exportQuerySchema = strictObject({
+  revision: revisionParamSchema.optional(),
+  /** Temperature column of the CSV: K (tK, the default), degC (tDegC) or degF (tDegF). */
+  unit: z.enum(["K", "degC", "degF"], { error: "Use a unit of K, degC or degF." }).optional(),
+});
 /** GET …/results: `format=columns` gives `result.columns` instead of `result.points` (lib/thermo/columns.ts). */
-export const resultsQuerySchema = z.object({ revision: revisionParamSchema.optional(), format: z.enum(["rows", "columns"]).optional() }).strict();
-export const pinQuerySchema = z.object({ formula: searchText(60).pipe(z.string().min(1)).optional() });
+export const resultsQuerySchema = strictObject({ revision: revisionParamSchema.optional(), format: z.enum(["rows", "columns"]).optional() });
+export const pinQuerySchema = strictObject({ formula: searchText(60).pipe(z.string().min(1)).optional() });

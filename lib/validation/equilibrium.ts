@@ -1,10 +1,11 @@
 /** The equilibrium part of a case (feed, pressure, key species, optional simultaneous set), shared by the panel form and the services. zod only. */
 import { z } from "zod";
 import { checkFeedUnit, checkPressure, checkReactionLine, checkSpeciesKey } from "@/lib/cases/equilibrium-form";
+import { strictObject } from "@/lib/validation/strict";
 
 const speciesKey = z.string().trim().min(1, "Name a species.").max(80, "Use at most 80 characters.");
 
-export const extraTermSchema = z.object({
+export const extraTermSchema = strictObject({
   formula: z.string({ error: "Pick a species." }).trim().min(1, "Pick a species.").max(60, "Use at most 60 characters."),
   phase: z
     .string()
@@ -14,8 +15,7 @@ export const extraTermSchema = z.object({
 });
 export type ExtraTerm = z.infer<typeof extraTermSchema>;
 
-export const caseEquilibriumSchema = z
-  .object({
+export const caseEquilibriumSchema = strictObject({
     /** Feed amounts per species key (formula with phase marker, as in the reaction). */
     feed: z.record(speciesKey, z.number({ error: "Enter an amount." }).min(0, "An amount cannot be negative.").max(1e12, "Use at most 1e12.")),
     feedUnit: z.string().trim().min(1, "Name the unit of amount.").max(24, "Use at most 24 characters.").default("mol"),
@@ -24,8 +24,12 @@ export const caseEquilibriumSchema = z
     key: speciesKey.nullable().default(null),
     /** A simultaneous set; empty means the case's own reaction. */
     reactions: z.array(z.string().trim().min(1, "Write the reaction.").max(400, "Use at most 400 characters.")).max(12, "Use at most 12 reactions.").default([]),
-    /** Pinned versions for species that appear only in the extra reactions. */
+    /** Pinned versions for species that appear only in the extra reactions (or inert species that carry heat in the adiabatic balance). */
     extraTerms: z.array(extraTermSchema).max(20, "Use at most 20 extra species.").default([]),
+    /** Gas-phase model: ideal-gas activities (absent or "ideal"), or Peng–Robinson fugacity coefficients. */
+    gas: z.enum(["ideal", "peng-robinson"], { error: "Pick ideal gas or Peng–Robinson." }).optional(),
+    /** Adiabatic outlet: the feed's inlet temperature (K, or with a unit); null for none. */
+    adiabaticInletK: z.union([z.number({ error: "Enter a temperature." }).positive("Use a temperature above 0 K."), z.string().trim().min(1, "Enter a temperature.").max(40)]).nullable().optional(),
     /** Feed species that take no part in any reaction and only ride along (N2(g) in a reformer). */
     inert: z.array(speciesKey).max(20, "Use at most 20 inert species.").default([]),
   })

@@ -3,6 +3,7 @@
  * Imports only zod and the engine's zod-only schema module, so client components may use it.
  */
 import { z } from "zod";
+import { strictObject } from "@/lib/validation/strict";
 import { CP_FORMS, FIT_FORMS, phaseSchema, speciesSchema } from "@/lib/thermo/schema";
 import { hasControl, ONE_LINE, oneLine, searchText } from "./text";
 
@@ -26,7 +27,7 @@ const text = (max: number, what: string) =>
 /** A name or title: one line. */
 const line = (max: number, what: string) => oneLine(text(max, what));
 
-export const listModelsQuerySchema = z.object({
+export const listModelsQuerySchema = strictObject({
   q: searchText(80).optional().default(""),
   phase: z.union([z.literal(""), phaseSchema]).optional().default(""),
   form: z.union([z.literal(""), z.enum(CP_FORMS, { error: `Choose a form: ${CP_FORMS.join(", ")}.` })]).optional().default(""),
@@ -37,7 +38,7 @@ export const listModelsQuerySchema = z.object({
 });
 export type ListModelsQuery = z.infer<typeof listModelsQuerySchema>;
 
-export const listSpeciesQuerySchema = z.object({
+export const listSpeciesQuerySchema = strictObject({
   q: searchText(80).optional().default(""),
   page: z.coerce.number().int().min(1, "Pages start at 1.").optional().default(1),
   pageSize: z.coerce.number().int().min(1).max(100, "At most 100 per page.").optional().default(50),
@@ -50,14 +51,13 @@ export const formulaSchema = z
   .max(60, "Use at most 60 characters.")
   .regex(/^[A-Za-z0-9().[\]]+$/, "Use element symbols, counts and brackets only, like NiAl2O4.");
 
-export const createSpeciesSchema = z.object({
+export const createSpeciesSchema = strictObject({
   formula: formulaSchema,
   displayName: line(120, "a display name"),
 });
 export type CreateSpeciesInput = z.infer<typeof createSpeciesSchema>;
 
-export const uncertaintySchema = z
-  .object({
+export const uncertaintySchema = strictObject({
     dfHkJ: z.number().nonnegative("An uncertainty cannot be negative.").optional(),
     sJ: z.number().nonnegative("An uncertainty cannot be negative.").optional(),
     cpRelative: z.number().nonnegative("An uncertainty cannot be negative.").max(1, "Give a fraction, e.g. 0.005 for 0.5 %.").optional(),
@@ -66,7 +66,7 @@ export const uncertaintySchema = z
   .optional();
 
 /** What a steward types into the editor: the engine's species entry plus the record around it. */
-export const versionInputSchema = z.object({
+export const versionInputSchema = strictObject({
   data: speciesSchema,
   citation: text(2000, "a citation (where the numbers come from)"),
   uncertainty: uncertaintySchema,
@@ -79,8 +79,7 @@ export const editVersionSchema = versionInputSchema.partial().extend({
 });
 export type EditVersionInput = z.input<typeof editVersionSchema>;
 
-export const createModelSchema = z
-  .object({
+export const createModelSchema = strictObject({
     speciesId: z.number().int().positive().optional(),
     species: createSpeciesSchema.optional(),
     name: line(160, "a model name"),
@@ -92,17 +91,17 @@ export const createModelSchema = z
 export type CreateModelInput = z.input<typeof createModelSchema>;
 
 export const newVersionSchema = z.union([
-  z.object({ fromVersionId: z.number().int().positive() }),
+  strictObject({ fromVersionId: z.number().int().positive() }),
   versionInputSchema,
 ]);
 
-export const rejectSchema = z.object({
+export const rejectSchema = strictObject({
   reason: z.string({ error: "Give a reason for the author." }).trim().min(3, "Give a reason for the author.").max(2000, "Use at most 2000 characters."),
 });
-export const approveSchema = z.object({ note: z.string().trim().max(2000).optional() });
+export const approveSchema = strictObject({ note: z.string().trim().max(2000).optional() });
 
 export const PREVIEW_MAX_POINTS = 400;
-export const previewSchema = z.object({
+export const previewSchema = strictObject({
   /** Validated by the engine, which names the field that is wrong. */
   data: z.unknown(),
   fromK: z.number().positive("Temperatures must be above 0 K.").optional(),
@@ -125,7 +124,7 @@ export const CP_UNIT_LABELS: Record<(typeof CP_UNITS)[number], string> = {
   "cal/(mol*K)": "cal/(mol·K) (thermochemical)",
 };
 
-export const datasetUploadSchema = z.object({
+export const datasetUploadSchema = strictObject({
   name: line(160, "a name for the dataset"),
   filename: z.string().trim().max(255).nullable().optional(),
   text: z.string({ error: "Choose a file or paste the data." }).min(1, "Choose a file or paste the data."),
@@ -142,20 +141,19 @@ export type DatasetUploadInput = z.input<typeof datasetUploadSchema>;
 
 const positiveK = z.number({ error: "Enter a temperature in K." }).positive("Temperatures must be above 0 K.");
 
-export const fitParamsSchema = z
-  .object({
+export const fitParamsSchema = strictObject({
     form: z.enum(FIT_FORMS, { error: `Choose a form to fit: ${FIT_FORMS.join(", ")}.` }),
     tminK: positiveK.optional(),
     tmaxK: positiveK.optional(),
     exponents: z.array(z.int().min(-3).max(4)).optional(),
     /** Without it: the dataset's phase, else the species' one phase; never a silent "cr". */
     phase: phaseSchema.optional(),
-    reference: z.object({ tK: positiveK.optional(), hkJ: z.number({ error: "Enter H in kJ/mol." }), sJ: z.number({ error: "Enter S in J/(mol·K)." }) }).optional(),
+    reference: strictObject({ tK: positiveK.optional(), hkJ: z.number({ error: "Enter H in kJ/mol." }), sJ: z.number({ error: "Enter S in J/(mol·K)." }) }).optional(),
   })
   .refine((v) => v.tminK === undefined || v.tmaxK === undefined || v.tminK < v.tmaxK, { message: "The lower limit must be below the upper one.", path: ["tmaxK"] });
 export type FitParams = z.input<typeof fitParamsSchema>;
 
-export const saveFitSchema = z.object({
+export const saveFitSchema = strictObject({
   fit: fitParamsSchema,
   modelId: z.number().int().positive().optional(),
   modelName: oneLine(z.string().trim().max(160)).optional(),
@@ -169,7 +167,7 @@ export type SaveFitInput = z.input<typeof saveFitSchema>;
 export const EXPORT_FORMAT = "heatpath.cp-library";
 export const EXPORT_FORMAT_VERSION = 1;
 
-export const exportedVersionSchema = z.object({
+export const exportedVersionSchema = strictObject({
   versionNumber: z.number().int().positive(),
   status: z.string(),
   data: speciesSchema,
@@ -178,15 +176,15 @@ export const exportedVersionSchema = z.object({
   changeNote: z.string().nullable().optional(),
 });
 
-export const exportedModelSchema = z.object({
-  species: z.object({ formula: formulaSchema, displayName: z.string().min(1).refine((s) => !hasControl(s), ONE_LINE) }),
+export const exportedModelSchema = strictObject({
+  species: strictObject({ formula: formulaSchema, displayName: z.string().min(1).refine((s) => !hasControl(s), ONE_LINE) }),
   name: z.string().min(1).refine((s) => !hasControl(s), ONE_LINE),
   family: z.string().min(1).max(40),
   variant: z.string().max(40).nullable().optional(),
   versions: z.array(exportedVersionSchema).min(1, "A model needs at least one version."),
 });
 
-export const exportFileSchema = z.object({
+export const exportFileSchema = strictObject({
   format: z.literal(EXPORT_FORMAT, { error: `Not a Heatpath library file: "format" must be "${EXPORT_FORMAT}".` }),
   formatVersion: z.literal(EXPORT_FORMAT_VERSION, { error: `Unsupported formatVersion: this Heatpath reads version ${EXPORT_FORMAT_VERSION}.` }),
   exportedAt: z.string().optional(),
@@ -194,7 +192,7 @@ export const exportFileSchema = z.object({
 });
 export type ExportFile = z.infer<typeof exportFileSchema>;
 
-export const exportQuerySchema = z.object({
+export const exportQuerySchema = strictObject({
   /** Comma-separated model ids; empty = every model visible with an approved version. */
   models: z
     .string()

@@ -1,18 +1,24 @@
 "use server";
 
 import { revalidatePath } from "next/cache";
+import { z } from "zod";
 import { actionFailure, formObject, type ActionState } from "@/lib/actions";
 import { ROLE_LABELS } from "@/lib/auth/permissions";
 import { getActor } from "@/lib/auth/session";
 import { parseWith } from "@/lib/http";
 import * as team from "@/lib/services/team";
+import { strictObject } from "@/lib/validation/strict";
 import { changeRoleSchema, idParamSchema, inviteSchema } from "@/lib/validation/team";
+
+// The forms' own fields; the framework's $ACTION_* keys are dropped by formObject, anything else is refused.
+const membershipForm = strictObject({ membershipId: z.string({ error: "Expected a numeric id." }) });
+const invitationForm = strictObject({ invitationId: z.string({ error: "Expected a numeric id." }) });
+const changeRoleForm = changeRoleSchema.extend(membershipForm.shape);
 
 export async function changeRoleAction(_prev: ActionState, formData: FormData): Promise<ActionState> {
   try {
-    const input = formObject(formData);
-    const id = parseWith(idParamSchema, input.membershipId);
-    const { role } = parseWith(changeRoleSchema, input);
+    const { membershipId, role } = parseWith(changeRoleForm, formObject(formData));
+    const id = parseWith(idParamSchema, membershipId);
     await team.changeRole(await getActor(), id, role);
     revalidatePath("/team");
     return { ok: true, message: `Role saved: ${ROLE_LABELS[role]}.` };
@@ -23,7 +29,8 @@ export async function changeRoleAction(_prev: ActionState, formData: FormData): 
 
 export async function removeMemberAction(_prev: ActionState, formData: FormData): Promise<ActionState> {
   try {
-    const id = parseWith(idParamSchema, formData.get("membershipId"));
+    const { membershipId } = parseWith(membershipForm, formObject(formData));
+    const id = parseWith(idParamSchema, membershipId);
     await team.removeMember(await getActor(), id);
     revalidatePath("/team");
     return { ok: true, message: "Member removed." };
@@ -46,7 +53,8 @@ export async function inviteAction(_prev: ActionState<{ email: string }>, formDa
 
 export async function revokeInvitationAction(_prev: ActionState, formData: FormData): Promise<ActionState> {
   try {
-    const id = parseWith(idParamSchema, formData.get("invitationId"));
+    const { invitationId } = parseWith(invitationForm, formObject(formData));
+    const id = parseWith(idParamSchema, invitationId);
     await team.revokeInvitation(await getActor(), id);
     revalidatePath("/team");
     return { ok: true, message: "Invitation revoked." };

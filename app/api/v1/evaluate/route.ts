@@ -1,10 +1,11 @@
 import { z } from "zod";
+import { strictObject } from "@/lib/validation/strict";
 import { getActor } from "@/lib/auth/session";
 import { json, parseWith, queryObject, readJson, route } from "@/lib/http";
 import { runEvaluation } from "@/lib/services/evaluate";
 import { inFormat, resultFormatSchema } from "@/lib/thermo/columns";
 
-const querySchema = z.object({ format: resultFormatSchema.optional() }).strict();
+const querySchema = strictObject({ format: resultFormatSchema.optional() });
 
 export const POST = route(async (request) => {
   const { format } = parseWith(querySchema, queryObject(request));

@@ -1,10 +1,11 @@
 import { z } from "zod";
+import { strictObject } from "@/lib/validation/strict";
 import { json, parseWith, queryObject, route } from "@/lib/http";
 import { deepHealth } from "@/lib/services/health";
 
 export const dynamic = "force-dynamic";
 
-const querySchema = z.object({ deep: z.enum(["0", "1"], { error: "Use deep=1 (or leave it out)." }).optional() }).strict();
+const querySchema = strictObject({ deep: z.enum(["0", "1"], { error: "Use deep=1 (or leave it out)." }).optional() });
 
 /** `GET /api/v1/health`: the process answers. `?deep=1`: it also reaches the database, and the mail queue moves. */
 export const GET = route(async (request) => {

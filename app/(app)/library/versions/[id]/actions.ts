@@ -5,7 +5,11 @@ import { actionFailure, formObject, type ActionState } from "@/lib/actions";
 import { getActor } from "@/lib/auth/session";
 import { parseWith } from "@/lib/http";
 import { approveVersion, rejectVersion } from "@/lib/services/library";
+import { z } from "zod";
 import { approveSchema, idParamSchema, rejectSchema } from "@/lib/validation/library";
+
+/** The forms' fields: the version id beside the decision's own; anything else is refused. */
+const versionField = { versionId: z.string({ error: "Expected a numeric id." }) };
 
 /**
  * The version page's decision buttons. The service applies the four-eyes rule
@@ -14,9 +18,8 @@ import { approveSchema, idParamSchema, rejectSchema } from "@/lib/validation/lib
 export async function approveVersionAction(_prev: ActionState, formData: FormData): Promise<ActionState> {
   const raw = formObject(formData);
   try {
-    const { versionId, ...rest } = raw;
+    const { versionId, note } = parseWith(approveSchema.extend(versionField), raw);
     const id = parseWith(idParamSchema, versionId);
-    const { note } = parseWith(approveSchema.strict(), rest);
     await approveVersion(await getActor(), id, note);
     revalidatePath(`/library/versions/${id}`);
     return { ok: true, message: "Approved." };
@@ -28,9 +31,8 @@ export async function approveVersionAction(_prev: ActionState, formData: FormDat
 export async function rejectVersionAction(_prev: ActionState, formData: FormData): Promise<ActionState> {
   const raw = formObject(formData);
   try {
-    const { versionId, ...rest } = raw;
+    const { versionId, reason } = parseWith(rejectSchema.extend(versionField), raw);
     const id = parseWith(idParamSchema, versionId);
-    const { reason } = parseWith(rejectSchema.strict(), rest);
     await rejectVersion(await getActor(), id, reason);
     revalidatePath(`/library/versions/${id}`);
     return { ok: true, message: "Rejected." };

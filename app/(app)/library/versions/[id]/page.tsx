@@ -4,6 +4,7 @@ import { PropertyCharts } from "@/components/library/property-charts";
 import { phaseLabel } from "@/components/library/curve-rows";
 import { ScopeBadge, StatusBadge } from "@/components/library/status-badge";
 import { VersionActions } from "@/components/library/version-actions";
+import { ImpactPanel } from "@/components/library/impact-panel";
 import { Caution } from "@/components/results/caution";
 import { Card, PageHeader } from "@/components/ui/card";
 import { can } from "@/lib/auth/permissions";
@@ -14,7 +15,7 @@ import { FAMILY_LABELS } from "@/lib/validation/library";
 
 type Props = { params: Promise<{ id: string }> };
 
-const ROLE_WORDS: Record<string, string> = { author: "author", editor: "edited", proposer: "proposed", source: "worked on the draft it started from" };
+const ROLE_WORDS: Record<string, string> = { author: "author", editor: "edited", proposer: "proposed", source: "worked on the draft it started from", uploader: "uploaded the measured data it was fitted to" };
 
 const ACTION_WORDS: Record<string, string> = {
   "model-version.created": "created the draft",
@@ -83,6 +84,11 @@ export default async function VersionPage({ params }: Props) {
             {curve instanceof Error ? <p role="alert" className="text-sm text-flag-700">{curve.message}</p> : <PropertyCharts a={curve} labelA={`v${v.versionNumber}`} />}
             <Caution className="mt-4" />
           </Card>
+          {team && v.status !== "rejected" && (
+            <Card title="Impact on pinned cases">
+              <ImpactPanel versionId={v.id} versionStatus={v.status} canStart={can(actor.role, "models.draft")} />
+            </Card>
+          )}
           <Card title="Segments">
             <div className="overflow-x-auto">
               <table className="w-full min-w-[36rem] text-left text-sm" data-testid="segments-table">

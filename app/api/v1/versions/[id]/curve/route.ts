@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { strictObject } from "@/lib/validation/strict";
 import { getActor } from "@/lib/auth/session";
 import { json, parseWith, queryObject, route } from "@/lib/http";
 import { versionCurve } from "@/lib/services/library";
@@ -6,7 +7,7 @@ import { idParamSchema } from "@/lib/validation/library";
 
 type Context = { params: Promise<{ id: string }> };
 
-const query = z.object({
+const query = strictObject({
   fromK: z.coerce.number().positive("Temperatures must be above 0 K.").optional(),
   toK: z.coerce.number().positive("Temperatures must be above 0 K.").optional(),
   points: z.coerce.number().int().min(2).max(400).optional(),

@@ -1,0 +1,136 @@
+"use client";
+
+import Link from "next/link";
+import { useState } from "react";
+import useSWR from "swr";
+import { Badge } from "@/components/ui/badge";
+import { Button } from "@/components/ui/button";
+import type { ImpactDto } from "@/lib/services/impact";
+
+type ApiError = { code: string; message: string };
+
+async function fetchJson<T>(url: string): Promise<T> {
+  const res = await fetch(url, { headers: { accept: "application/json" } });
+  const body = await res.json().catch(() => null);
+  if (!res.ok) throw (body?.error as ApiError) ?? { code: "http", message: `Request failed (${res.status}).` };
+  return body as T;
+}
+
+const num = (x: number | null, digits = 3) => (x === null ? "—" : String(Number(x.toPrecision(digits))));
+const temps = (ks: number[]) => (ks.length === 0 ? "none" : ks.map((k) => `${Math.round(k)} K`).join(", "));
+const SIGN: Record<string, string> = {
+  "favourable-always": "K > 1 at all T",
+  "favourable-above": "K > 1 above crossover",
+  "favourable-below": "K > 1 below crossover",
+  "favourable-never": "K > 1 at no T",
+};
+
+/**
+ * The version page's impact panel: every case of the team pinned to an older version of this
+ * model, re-evaluated on this one by a background job; progress while it runs, then the
+ * largest changes, crossovers and sign cases before and after, flagged beyond a case's tolerance.
+ */
+export function ImpactPanel({ versionId, versionStatus, canStart }: { versionId: number; versionStatus: string; canStart: boolean }) {
+  const url = `/api/v1/versions/${versionId}/impact`;
+  // Keyed by the version's status too: approving queues a new run, which a refreshed page must fetch.
+  const { data, error, mutate } = useSWR<ImpactDto, ApiError, [string, string]>([url, versionStatus], ([u]) => fetchJson<ImpactDto>(u), {
+    revalidateOnFocus: false,
+    refreshInterval: (latest) => (latest?.job && (latest.job.status === "queued" || latest.job.status === "running") ? 1000 : 0),
+  });
+  const [busy, setBusy] = useState(false);
+  const [startError, setStartError] = useState<string | null>(null);
+  const job = data?.job ?? null;
+  const active = job?.status === "queued" || job?.status === "running";
+
+  const start = async () => {
+    setBusy(true);
+    setStartError(null);
+    const res = await fetch(url, { method: "POST", headers: { accept: "application/json" } });
+    const body = await res.json().catch(() => null);
+    setBusy(false);
+    if (!res.ok) return setStartError(body?.error?.message ?? "That did not work.");
+    await mutate(body as ImpactDto, { revalidate: false });
+  };
+
+  const th = "border-b border-ink-line px-2 py-1 text-left font-medium whitespace-nowrap";
+  const td = "px-2 py-1 align-top tabular";
+  const flagged = data?.cases.filter((c) => c.exceedsTolerance).length ?? 0;
+  return (
+    <div className="space-y-3 text-sm" data-testid="impact-panel">
+      <p className="text-ink-muted">Every case of your team pinned to an older version of this model, re-evaluated on this version in the background.</p>
+      {error && <p role="alert" className="text-flag-700">{error.message}</p>}
+      {startError && <p role="alert" className="text-flag-700">{startError}</p>}
+      <div className="flex flex-wrap items-center gap-2">
+        {job === null && data && <span data-testid="impact-none">Not run yet.</span>}
+        {job && (
+          <Badge tone={job.status === "done" ? "moss" : job.status === "failed" ? "flag" : "frost"}>
+            <span data-testid="impact-status">{job.status}</span>
+          </Badge>
+        )}
+        {job && job.status === "done" && (
+          <span className="text-xs text-ink-muted">
+            {job.total} case{job.total === 1 ? "" : "s"} · {flagged} beyond tolerance · finished {job.finishedAt?.slice(0, 16).replace("T", " ")} UTC ({job.trigger === "manual" ? "run by hand" : `after ${job.trigger === "proposed" ? "proposal" : "approval"}`})
+          </span>
+        )}
+        {canStart && !active && (
+          <Button type="button" variant="secondary" disabled={busy} onClick={() => void start()} data-testid="impact-run">
+            {busy ? "Queuing…" : job ? "Run again" : "Run the impact"}
+          </Button>
+        )}
+      </div>
+      {active && job && (
+        <div data-testid="impact-progress">
+          <progress className="h-2 w-full" max={Math.max(job.total, 1)} value={job.done} aria-label="Impact progress" />
+          <p className="text-xs text-ink-muted">{job.status === "queued" ? "Waiting for the background runner…" : `Re-evaluating: ${job.done} of ${job.total} cases`}</p>
+        </div>
+      )}
+      {job?.status === "failed" && <p className="text-flag-700">The run failed: {job.error}</p>}
+      {data && data.cases.length > 0 && (
+        <div className="overflow-x-auto">
+          <table className="min-w-full text-xs" data-testid="impact-table">
+            <thead>
+              <tr>
+                <th className={th}>Case</th>
+                <th className={th}>Pins</th>
+                <th className={th}>max |ΔΔrG| (kJ/mol)</th>
+                <th className={th}>max |Δlog10 K|</th>
+                <th className={th}>max |Δ key fraction|</th>
+                <th className={th}>Crossovers before → after</th>
+                <th className={th}>Sign case before → after</th>
+              </tr>
+            </thead>
+            <tbody className="divide-y divide-ink-line">
+              {data.cases.map((c) => (
+                <tr key={c.caseId} className={c.exceedsTolerance ? "bg-flag-50" : ""} data-testid="impact-row">
+                  <td className={td}>
+                    <Link href={`/cases/${c.caseId}`} className="text-frost-700 hover:underline">
+                      {c.title}
+                    </Link>{" "}
+                    <span className="text-ink-muted">({c.status})</span>
+                    {c.exceedsTolerance && (
+                      <span className="ml-1 font-semibold text-flag-700" data-testid="impact-flag">
+                        beyond tolerance
+                      </span>
+                    )}
+                    {c.error && <span className="block text-flag-700">{c.error}</span>}
+                  </td>
+                  <td className={td}>v{c.pinnedVersionNumbers.join(", v")}</td>
+                  <td className={td}>{num(c.maxDiffKJ)}</td>
+                  <td className={td}>{num(c.maxDiffLog10K)}</td>
+                  <td className={td}>{c.maxDiffKeyFraction === null ? "—" : `${num(100 * c.maxDiffKeyFraction)} %`}</td>
+                  <td className={`${td} ${c.crossoversBefore.length !== c.crossoversAfter.length ? "font-semibold text-flag-700" : ""}`}>
+                    {temps(c.crossoversBefore)} → {temps(c.crossoversAfter)}
+                  </td>
+                  <td className={`${td} ${c.signCaseBefore !== c.signCaseAfter ? "font-semibold text-flag-700" : ""}`}>
+                    {c.signCaseBefore ? SIGN[c.signCaseBefore] : "—"} → {c.signCaseAfter ? SIGN[c.signCaseAfter] : "—"}
+                  </td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      )}
+      {job?.status === "done" && data?.cases.length === 0 && <p data-testid="impact-empty">No case of your team pins an older version of this model.</p>}
+    </div>
+  );
+}
