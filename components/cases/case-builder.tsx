@@ -7,6 +7,7 @@ import { Field, inputClass, Select, TextInput } from "@/components/ui/field";
 import { elementBalance, reactionText, termKey } from "@/lib/cases/balance";
 import { sendJson } from "@/lib/cases/client";
 import { convertTyped, convertTypedList, joinQuantity, splitQuantity, TEMPERATURE_UNITS, UNIT_LABELS, type Quantity, type TemperatureUnit } from "@/lib/cases/temperature";
+import { phaseForSpecies } from "@/lib/cases/phase-choice";
 import { fieldErrorsOf } from "@/lib/cases/zod-errors";
 import { caseInputSchema, type CaseInputs } from "@/lib/validation/cases";
 
@@ -38,8 +39,8 @@ function firstApproved(options: BuilderOption[], formula: string, phase: string)
 function rowsOf(inputs: CaseInputs | undefined): Row[] {
   if (!inputs) {
     return [
-      { side: "reactant", amount: "1", formula: "", phase: "g", versionId: "" },
-      { side: "product", amount: "1", formula: "", phase: "g", versionId: "" },
+      { side: "reactant", amount: "1", formula: "", phase: "", versionId: "" },
+      { side: "product", amount: "1", formula: "", phase: "", versionId: "" },
     ];
   }
   return inputs.terms.map((t) => ({
@@ -98,6 +99,7 @@ export function CaseBuilder({ options, initial }: { options: BuilderOption[]; in
       rs.map((r, j) => {
         if (j !== i) return r;
         const next = { ...r, ...patch };
+        if (patch.formula !== undefined && patch.phase === undefined) next.phase = phaseForSpecies(options, next.formula, next.phase);
         if (patch.formula !== undefined || patch.phase !== undefined) {
           const current = options.find((o) => String(o.versionId) === next.versionId);
           const fits = current && current.formula === next.formula && (!next.phase || current.phases.includes(next.phase));
@@ -231,7 +233,7 @@ export function CaseBuilder({ options, initial }: { options: BuilderOption[]; in
                 </div>
                 <Select name={`terms.${i}.phase`} aria-label={`Term ${n} phase`} value={r.phase} onChange={(e) => update(i, { phase: e.target.value })}>
                   <option value="">stable phase</option>
-                  {(phases.length ? phases : ["g"]).map((p) => (
+                  {phases.map((p) => (
                     <option key={p} value={p}>
                       {PHASE_LABEL[p] ?? p}
                     </option>
@@ -266,7 +268,7 @@ export function CaseBuilder({ options, initial }: { options: BuilderOption[]; in
           })}
         </div>
         <div className="mt-3 flex flex-wrap items-center justify-between gap-3">
-          <Button type="button" variant="secondary" onClick={() => setRows((rs) => [...rs, { side: "product", amount: "1", formula: "", phase: "g", versionId: "" }])}>
+          <Button type="button" variant="secondary" onClick={() => setRows((rs) => [...rs, { side: "product", amount: "1", formula: "", phase: "", versionId: "" }])}>
             Add species
           </Button>
           <div className="text-sm" aria-live="polite" data-testid="balance">

@@ -4,6 +4,7 @@ import { headers } from "next/headers";
 import { redirect } from "next/navigation";
 import { actionFailure, formObject, unknownFieldMessage, type ActionState } from "@/lib/actions";
 import { clientAddress } from "@/lib/auth/client";
+import { safeNext } from "@/lib/auth/safe-next";
 import { startSession } from "@/lib/auth/session";
 import { fieldErrors } from "@/lib/http";
 import { authenticate } from "@/lib/services/auth";
@@ -12,11 +13,6 @@ import { signInSchema } from "@/lib/validation/auth";
 
 /** The form: the sign-in fields plus where to go next; anything else is refused. */
 const signInForm = signInSchema.extend({ next: z.string().max(2000).optional() });
-
-/** A local path to return to after sign-in; anything else goes home. */
-function safeNext(value: string | undefined): string {
-  return value && value.startsWith("/") && !value.startsWith("//") ? value : "/";
-}
 
 export async function signInAction(_prev: ActionState, formData: FormData): Promise<ActionState> {
   const input = formObject(formData);
