@@ -18,6 +18,8 @@ export type PinnedVersion = {
   data: unknown;
   /** The version's standard uncertainties, where it has them (added with the equilibrium work). */
   uncertainty?: { dfHkJ?: number; sJ?: number; cpRelative?: number } | null;
+  /** The species' normal boiling and triple points (K) with their source, where the library has them (added with the condensation screen). */
+  phasePoints?: { boilingPointK: number | null; triplePointK: number | null; citation: string | null } | null;
   /** The species' critical constants, where the library has them (added with the real-gas work). */
   critical?: { tcK: number; pcBar: number; omega: number };
 };

@@ -1,7 +1,7 @@
 import { Op, type Transaction } from "sequelize";
 import { canonicalSha256 } from "@/lib/cases/hash";
 import { evaluate, type EvaluateRequest } from "@/lib/thermo";
-import { equilibriumRequestOf, speciesOfPin } from "@/lib/cases/equilibrium";
+import { equilibriumRequestOf, phasePointsOf, speciesOfPin } from "@/lib/cases/equilibrium";
 import type { CaseInput } from "@/lib/validation/cases";
 import type { CaseEquilibrium } from "@/lib/validation/equilibrium";
 import type { PinnedVersion } from "@/models/case-snapshot";
@@ -11,16 +11,18 @@ import type { SeedContext } from "./index";
 /**
  * INVENTED demo cases for Larkspur Hydrogen Works, authored by Erin (engineer): the reformer
  * (approved), the shift converter (awaiting Rory's review), the ammonia loop (returned with
- * a reason), the cold box (a draft whose models are extrapolated far below their ranges) and a
- * reformer start-up sweep in °C (a draft), and two drafts with a Peng–Robinson gas and an
- * adiabatic inlet (the shift bed and the ammonia bed temperature rise). The reactions are real; the plant, titles, notes
+ * a reason), the cold box (a draft whose models are extrapolated far below their ranges, with
+ * methane below its boiling point), a reformer start-up sweep in °C (a draft), methanol
+ * synthesis (awaiting review), two carbon-deposition drafts for the reformer tubes, and two
+ * drafts with a Peng–Robinson gas and an adiabatic inlet (the shift bed and the ammonia bed
+ * temperature rise). The reactions are real; the plant, titles, notes
  * and decisions are made up. Pins the published NASA-7 (2015) reference versions loaded by
  * 02-reference-library. Safe to repeat: a case whose title exists is left alone.
  */
 type Term = { formula: string; phase: string | null; coefficient: number };
 /** An invented feed for the equilibrium panel; `extra` names species only the extra reactions use. */
 type DemoEquilibrium = Omit<CaseEquilibrium, "extraTerms" | "inert"> & { extra: { formula: string; phase: string | null }[]; inert?: string[] };
-type Plan = {
+export type Plan = {
   title: string;
   notes: string;
   terms: Term[];
@@ -29,6 +31,10 @@ type Plan = {
   flow: "draft" | "submitted" | "returned" | "approved";
   reason?: string;
   equilibrium?: DemoEquilibrium;
+  /** Erin's comment on a submitted case. */
+  comment?: string;
+  /** Reference family to pin (default nasa7-2015; the 2015 database has no methanol set). */
+  family?: string;
 };
 
 export const DEMO_CASES: Plan[] = [
@@ -67,6 +73,7 @@ export const DEMO_CASES: Plan[] = [
     temperatures: { fromK: 480, toK: 700, stepK: 2 },
     toleranceKJ: 1,
     flow: "submitted",
+    comment: "Steam-to-carbon ratio of the beds is in the notes of the reformer case.",
     // Converter inlet after the reformer and waste-heat boiler, 30 bar (invented); methane rides along.
     equilibrium: {
       feed: { "CO(g)": 13, "H2O(g)": 38, "CO2(g)": 6, "H2(g)": 40, "CH4(g)": 3 },
@@ -105,6 +112,8 @@ export const DEMO_CASES: Plan[] = [
     temperatures: { fromK: 80, toK: 120, stepK: 1 },
     toleranceKJ: 1,
     flow: "draft",
+    // Cold box feed at 30 bar: hydrogen with methane and a CO trace (invented).
+    equilibrium: { feed: { "CO(g)": 0.2, "H2(g)": 90, "CH4(g)": 9.8, "H2O(cr)": 0 }, feedUnit: "kmol/h", pressure: "30 bar", key: "CO(g)", reactions: [], extra: [] },
   },
   {
     title: "Reformer start-up sweep (°C)",
@@ -118,6 +127,49 @@ export const DEMO_CASES: Plan[] = [
     temperatures: { fromK: "400 degC", toK: "900 degC", stepK: "10 degC" },
     toleranceKJ: 2,
     flow: "draft",
+  },
+  {
+    title: "Methanol synthesis loop 450–600 K",
+    notes: "Methanol converter on a CO-rich side stream around 500 K and 80 bar (invented). GRI-Mech 3.0 sets throughout: the 2015 database's methanol record is left out of the library.",
+    terms: [
+      { formula: "CO", phase: "g", coefficient: -1 },
+      { formula: "H2", phase: "g", coefficient: -2 },
+      { formula: "CH3OH", phase: "g", coefficient: 1 },
+    ],
+    temperatures: { fromK: 450, toK: 600, stepK: 2 },
+    toleranceKJ: 1,
+    flow: "submitted",
+    family: "nasa7-gri30",
+    // H2/CO 2.5 at 80 bar (invented).
+    equilibrium: { feed: { "CO(g)": 10, "H2(g)": 25, "CH3OH(g)": 0 }, feedUnit: "kmol/h", pressure: "80 bar", key: "CO(g)", reactions: [], extra: [] },
+  },
+  {
+    title: "Reformer tubes: carbon from CO (Boudouard)",
+    notes: "Could carbon deposit from CO on the cooler tube sections (invented)? Graphite is the condensed product; where K > 1 CO disproportionates.",
+    terms: [
+      { formula: "CO", phase: "g", coefficient: -2 },
+      { formula: "C", phase: "cr", coefficient: 1 },
+      { formula: "CO2", phase: "g", coefficient: 1 },
+    ],
+    temperatures: { fromK: 600, toK: 1300, stepK: 5 },
+    toleranceKJ: 1,
+    flow: "draft",
+    // A CO-rich pocket at 25 bar (invented).
+    equilibrium: { feed: { "CO(g)": 1, "C(cr)": 0, "CO2(g)": 0.2 }, feedUnit: "kmol/h", pressure: "25 bar", key: "CO(g)", reactions: [], extra: [] },
+  },
+  {
+    title: "Reformer tubes: carbon from methane cracking",
+    notes: "Could methane crack to carbon on the hot tube wall (invented)? The corrected crossover sits about 100 K below the naive one.",
+    terms: [
+      { formula: "CH4", phase: "g", coefficient: -1 },
+      { formula: "C", phase: "cr", coefficient: 1 },
+      { formula: "H2", phase: "g", coefficient: 2 },
+    ],
+    temperatures: { fromK: 600, toK: 1300, stepK: 5 },
+    toleranceKJ: 1,
+    flow: "draft",
+    // Equal CH4 and H2 at 25 bar (invented).
+    equilibrium: { feed: { "CH4(g)": 1, "C(cr)": 0, "H2(g)": 1 }, feedUnit: "kmol/h", pressure: "25 bar", key: "CH4(g)", reactions: [], extra: [] },
   },
   {
     title: "Shift converter bed temperature rise",
@@ -171,11 +223,11 @@ export const DEMO_CASES: Plan[] = [
 
 const FAMILY = "nasa7-2015";
 
-async function pinFor(ctx: SeedContext, formula: string, phase: string | null, transaction: Transaction): Promise<PinnedVersion | null> {
+async function pinFor(ctx: SeedContext, formula: string, phase: string | null, transaction: Transaction, family = FAMILY): Promise<PinnedVersion | null> {
   const { Species, CpModel, ModelVersion } = ctx.models;
   const species = await Species.findOne({ where: { teamId: null, formula }, transaction });
   if (!species) return null;
-  const cpModels = await CpModel.findAll({ where: { teamId: null, speciesId: species.id, family: FAMILY }, order: [["id", "ASC"]], transaction });
+  const cpModels = await CpModel.findAll({ where: { teamId: null, speciesId: species.id, family }, order: [["id", "ASC"]], transaction });
   for (const m of cpModels) {
     const v = await ModelVersion.findOne({ where: { modelId: m.id, status: "approved" }, order: [["versionNumber", "DESC"]], transaction });
     const phases = ((v?.data as { segments?: { phase: string }[] })?.segments ?? []).map((s) => s.phase);
@@ -194,6 +246,7 @@ async function pinFor(ctx: SeedContext, formula: string, phase: string | null, t
         citation: v.citation,
         data: v.data,
         uncertainty: v.uncertainty ?? null,
+        phasePoints: phasePointsOf(species),
       };
     }
   }
@@ -205,7 +258,9 @@ function reactionOf(terms: Term[]): string {
   return `${side(terms.filter((t) => t.coefficient < 0))} -> ${side(terms.filter((t) => t.coefficient > 0))}`;
 }
 
-export async function seed(ctx: SeedContext): Promise<void> {
+/** `plans` exist for the upgrade test, which seeds the cases as they were and then seeds again. */
+export async function seed(ctx: SeedContext, options: { plans?: Plan[] } = {}): Promise<void> {
+  const plans = options.plans ?? DEMO_CASES;
   const { models, sequelize } = ctx;
   const { Team, User, Case, CaseSnapshot, Review, Comment, AuditEvent } = models;
   await sequelize.transaction(async (transaction) => {
@@ -214,17 +269,17 @@ export async function seed(ctx: SeedContext): Promise<void> {
     const erin = await User.findOne({ where: { email: "erin.engineer@example.test" }, transaction });
     const rory = await User.findOne({ where: { email: "rory.reviewer@example.test" }, transaction });
     if (!erin || !rory) throw new Error("04-demo-cases needs the demo accounts");
-    const existing = new Set((await Case.findAll({ where: { teamId: team.id, title: { [Op.in]: DEMO_CASES.map((c) => c.title) } }, transaction })).map((c) => c.title));
+    const existing = new Set((await Case.findAll({ where: { teamId: team.id, title: { [Op.in]: plans.map((c) => c.title) } }, transaction })).map((c) => c.title));
     const audit = (action: string, entityId: number, actorId: number, after: unknown) =>
       AuditEvent.create({ teamId: team.id, actorId, action, entityType: "case", entityId: String(entityId), before: null, after }, { transaction });
 
-    for (const plan of DEMO_CASES) {
+    for (const plan of plans) {
       if (existing.has(plan.title)) continue;
       const pins: PinnedVersion[] = [];
       for (const t of [...plan.terms, ...(plan.equilibrium?.extra ?? [])]) {
-        const p = await pinFor(ctx, t.formula, t.phase, transaction);
+        const p = await pinFor(ctx, t.formula, t.phase, transaction, plan.family);
         if (!p) {
-          console.log(`04-demo-cases: skipped: no approved ${FAMILY} reference version of ${t.formula}${t.phase ? `(${t.phase})` : ""}; run 02-reference-library first`);
+          console.log(`04-demo-cases: skipped: no approved ${plan.family ?? FAMILY} reference version of ${t.formula}${t.phase ? `(${t.phase})` : ""}; run 02-reference-library first`);
           return;
         }
         pins.push(p);
@@ -251,7 +306,7 @@ export async function seed(ctx: SeedContext): Promise<void> {
       const species: EvaluateRequest["species"] = {};
       // As the case services build it (lib/services/cases.ts buildRequest).
       for (const p of pins) species[p.key] = speciesOfPin(p);
-      const request: EvaluateRequest = { reaction: reactionOf(plan.terms), species, temperatures: plan.temperatures, referenceK: 298.15, toleranceKJ: plan.toleranceKJ };
+      const request: EvaluateRequest = { reaction: reactionOf(plan.terms), species, temperatures: plan.temperatures, referenceK: 298.15, toleranceKJ: plan.toleranceKJ, include: ["contributions"] };
       const equilibrium = equilibriumRequestOf(inputs.equilibrium);
       if (equilibrium) request.equilibrium = equilibrium;
       const result = evaluate(request);
@@ -259,7 +314,7 @@ export async function seed(ctx: SeedContext): Promise<void> {
       const snap = await CaseSnapshot.create({ caseId: row.id, teamId: team.id, revision: 1, ...content, hash: canonicalSha256(content), createdById: erin.id }, { transaction });
       await audit("case.submitted", row.id, erin.id, { status: "submitted", revision: 1, hash: snap.hash });
       if (plan.flow === "submitted") {
-        await Comment.create({ caseId: row.id, snapshotId: snap.id, authorId: erin.id, body: "Steam-to-carbon ratio of the beds is in the notes of the reformer case." }, { transaction });
+        if (plan.comment) await Comment.create({ caseId: row.id, snapshotId: snap.id, authorId: erin.id, body: plan.comment }, { transaction });
         continue;
       }
       await Review.create({ caseId: row.id, snapshotId: snap.id, reviewerId: rory.id, decision: plan.flow, reason: plan.reason ?? null }, { transaction });

@@ -1,10 +1,12 @@
 /**
- * The published coefficient sets in seeders/data/reference-sets.json (a copy of
- * ../shared/reference/cp-coefficients.json, each record with its citation), grouped into
+ * The published coefficient sets in seeders/data/reference-sets.json and reference-sets-more.json
+ * (copies of ../shared/reference/cp-coefficients.json and cp-coefficients-more.json, each record
+ * with its citation), grouped into
  * the reference library's models: one per species and family, or variant within a family.
  */
 import type { SegmentInput, SpeciesInput } from "@/lib/thermo/schema";
 import sets from "./data/reference-sets.json";
+import moreSets from "./data/reference-sets-more.json";
 
 export type ReferenceRecord = {
   species: string;
@@ -33,21 +35,58 @@ export type ReferenceModel = {
   changeNote: string;
   uncertainty: { cpRelative: number } | null;
   records: ReferenceRecord[];
+  /** Which copied file the sets come from (for the audit trail). */
+  dataFile: string;
 };
 
-/** Display names and CAS registry numbers (from memory) of the seeded species. */
-export const REFERENCE_SPECIES: Record<string, { displayName: string; cas: string }> = {
-  H2: { displayName: "Hydrogen", cas: "1333-74-0" },
-  O2: { displayName: "Oxygen", cas: "7782-44-7" },
-  N2: { displayName: "Nitrogen", cas: "7727-37-9" },
-  H2O: { displayName: "Water", cas: "7732-18-5" },
-  CO: { displayName: "Carbon monoxide", cas: "630-08-0" },
-  CO2: { displayName: "Carbon dioxide", cas: "124-38-9" },
-  CH4: { displayName: "Methane", cas: "74-82-8" },
-  NH3: { displayName: "Ammonia", cas: "7664-41-7" },
+/** Normal boiling point (K, 1 atm) and triple point (K) of a reference species, with their source. */
+export type PhasePoints = { boilingPointK: number | null; triplePointK: number | null; citation: string };
+
+const CRC = "CRC Handbook of Chemistry and Physics, normal boiling point and triple point (from memory)";
+const pp = (boilingPointK: number | null, triplePointK: number | null, note = ""): PhasePoints => ({
+  boilingPointK, triplePointK, citation: note ? `${CRC}; ${note}` : CRC,
+});
+
+/**
+ * Display names, CAS registry numbers and phase points of the seeded species. CAS numbers of
+ * the species added from cp-coefficients-more.json are the ones its third-millennium records
+ * state; the first eight and CH3OH's are from memory. Phase points are recalled values (from
+ * memory), null where the species has none (graphite, radicals and atoms; CO2 and C2H2 sublime
+ * at 1 atm; helium has no solid–liquid–gas triple point).
+ */
+export const REFERENCE_SPECIES: Record<string, { displayName: string; cas: string; phasePoints: PhasePoints | null }> = {
+  H2: { displayName: "Hydrogen", cas: "1333-74-0", phasePoints: pp(20.28, 13.8) },
+  O2: { displayName: "Oxygen", cas: "7782-44-7", phasePoints: pp(90.19, 54.36) },
+  N2: { displayName: "Nitrogen", cas: "7727-37-9", phasePoints: pp(77.36, 63.15) },
+  H2O: { displayName: "Water", cas: "7732-18-5", phasePoints: pp(373.12, 273.16) },
+  CO: { displayName: "Carbon monoxide", cas: "630-08-0", phasePoints: pp(81.65, 68.13) },
+  CO2: { displayName: "Carbon dioxide", cas: "124-38-9", phasePoints: pp(null, 216.58, "no normal boiling point: it sublimes at 194.7 K at 1 atm") },
+  CH4: { displayName: "Methane", cas: "74-82-8", phasePoints: pp(111.66, 90.69) },
+  NH3: { displayName: "Ammonia", cas: "7664-41-7", phasePoints: pp(239.82, 195.4) },
+  C: { displayName: "Carbon (graphite)", cas: "7782-42-5", phasePoints: null },
+  CH3OH: { displayName: "Methanol", cas: "67-56-1", phasePoints: pp(337.8, 175.6) },
+  C2H6: { displayName: "Ethane", cas: "74-84-0", phasePoints: pp(184.6, 90.4) },
+  C2H4: { displayName: "Ethylene", cas: "74-85-1", phasePoints: pp(169.4, 104.0) },
+  C2H2: { displayName: "Acetylene", cas: "74-86-2", phasePoints: pp(null, 192.4, "no normal boiling point: it sublimes at about 189 K at 1 atm") },
+  C3H8: { displayName: "Propane", cas: "74-98-6", phasePoints: pp(231.1, 85.5) },
+  Ar: { displayName: "Argon", cas: "7440-37-1", phasePoints: pp(87.3, 83.81) },
+  He: { displayName: "Helium", cas: "7440-59-7", phasePoints: pp(4.22, null, "no triple point of solid, liquid and gas") },
+  NO: { displayName: "Nitric oxide", cas: "10102-43-9", phasePoints: pp(121.4, 109.5) },
+  NO2: { displayName: "Nitrogen dioxide", cas: "10102-44-0", phasePoints: pp(294.3, 261.9, "the condensed phase is mostly the dimer N2O4") },
+  N2O: { displayName: "Nitrous oxide", cas: "10024-97-2", phasePoints: pp(184.7, 182.3) },
+  SO2: { displayName: "Sulfur dioxide", cas: "7446-09-5", phasePoints: pp(263.1, 197.7) },
+  H2S: { displayName: "Hydrogen sulfide", cas: "7783-06-4", phasePoints: pp(212.8, 187.7) },
+  HCl: { displayName: "Hydrogen chloride", cas: "7647-01-0", phasePoints: pp(188.1, 159.0) },
+  Cl2: { displayName: "Chlorine", cas: "7782-50-5", phasePoints: pp(239.1, 171.6) },
+  O: { displayName: "Oxygen atom", cas: "17778-80-2", phasePoints: null },
+  H: { displayName: "Hydrogen atom", cas: "12385-13-6", phasePoints: null },
+  OH: { displayName: "Hydroxyl radical", cas: "3352-57-6", phasePoints: null },
+  HCN: { displayName: "Hydrogen cyanide", cas: "74-90-8", phasePoints: pp(298.8, 259.9) },
+  CH2O: { displayName: "Formaldehyde", cas: "50-00-0", phasePoints: pp(254.0, 181.0) },
 };
 
-export const referenceRecords = (): ReferenceRecord[] => sets as unknown as ReferenceRecord[];
+/** The 39 sets of cp-coefficients.json, then the 36 of cp-coefficients-more.json. */
+export const referenceRecords = (): ReferenceRecord[] => [...(sets as unknown as ReferenceRecord[]), ...(moreSets as unknown as ReferenceRecord[])];
 
 export function familyOf(r: ReferenceRecord): ReferenceFamily {
   if (r.form === "shomate") return "shomate-janaf";
@@ -61,6 +100,8 @@ const FAMILY_WORDS: Record<ReferenceFamily, { form: string; source: string }> = 
 };
 
 const PHASE_WORDS: Record<string, string> = { cr: "ice", l: "liquid", g: "gas" };
+/** A single-phase crystalline model says which solid it is. */
+const SOLID_WORDS: Record<string, string> = { C: "graphite" };
 
 /** Segments of one record: a two-range NASA-7 record gives two, a single-range one and a Shomate one give one. */
 export function segmentsOf(r: ReferenceRecord): SegmentInput[] {
@@ -97,6 +138,7 @@ function modelName(formula: string, family: ReferenceFamily, variant: string | n
   else if (variant === "rrho") label += " RRHO";
   else if (variant === "liquid") label += " liquid";
   else if (phases.length > 1) label += ` ${phases.map((p) => PHASE_WORDS[p] ?? p).join(", ").replace(/, ([^,]*)$/, " and $1")}`;
+  else if (phases[0] === "cr" && SOLID_WORDS[formula]) label += ` ${SOLID_WORDS[formula]}`;
   return `${formula} · ${label} (${w.source})`;
 }
 
@@ -105,9 +147,9 @@ function modelName(formula: string, family: ReferenceFamily, variant: string | n
  * chains each carry their own constants, so the phase of lowest G changes near 273.15 K
  * and 373.15 K; GRI-Mech and the Shomate gas set are gas-only models.
  */
-export function referenceModels(): ReferenceModel[] {
+export function referenceModels(records: readonly ReferenceRecord[] = referenceRecords()): ReferenceModel[] {
   const groups = new Map<string, { formula: string; family: ReferenceFamily; variant: string | null; records: ReferenceRecord[] }>();
-  for (const r of referenceRecords()) {
+  for (const r of records) {
     const family = familyOf(r);
     const variant = variantOf(r, family);
     const key = `${family}|${r.species}|${variant ?? ""}`;
@@ -134,6 +176,7 @@ export function referenceModels(): ReferenceModel[] {
       changeNote: ["Published set, loaded unchanged.", ...notes].join(" "),
       uncertainty: err === null ? null : { cpRelative: err },
       records,
+      dataFile: (moreSets as unknown as ReferenceRecord[]).includes(records[0]) ? "seeders/data/reference-sets-more.json" : "seeders/data/reference-sets.json",
     };
   });
 }

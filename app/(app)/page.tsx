@@ -15,7 +15,7 @@ export default async function HomePage() {
     <>
       <PageHeader
         title={`Good to see you, ${actor.name.split(" ")[0]}`}
-        lead="Heatpath integrates each species' heat capacity from its anchor to your temperature, so ΔG, K and crossover temperatures hold far from 298.15 K."
+        lead="Heatpath integrates each species' heat capacity from its anchor to your temperature, so ΔG, K and crossover temperatures are corrected for temperature (screening estimate), not taken from 298.15 K values."
       />
       <div className="grid gap-4 md:grid-cols-3">
         <Card title="You">

@@ -41,12 +41,12 @@ export function CaseActions({
     <div className="flex flex-col items-end gap-1">
       <div className="flex flex-wrap gap-2">
         {canRerun && (
-          <Button variant="secondary" disabled={busy} onClick={() => go("rerun")} data-testid="rerun">
+          <Button variant="secondary" focusableWhenDisabled disabled={busy} onClick={() => go("rerun")} data-testid="rerun">
             {status === "approved" ? "Re-run on newer versions" : "Re-pin newer versions"}
           </Button>
         )}
         {canSubmit && (
-          <Button disabled={busy} onClick={() => setConfirming(true)}>
+          <Button focusableWhenDisabled disabled={busy} onClick={() => setConfirming(true)}>
             {submitLabel}
           </Button>
         )}

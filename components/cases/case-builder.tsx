@@ -112,6 +112,8 @@ export function CaseBuilder({ options, initial }: { options: BuilderOption[]; in
 
   const signed = rows.map((r) => ({ ...r, coefficient: (r.side === "reactant" ? -1 : 1) * Number(r.amount) }));
   const complete = signed.filter((r) => r.formula && Number.isFinite(r.coefficient) && r.coefficient !== 0);
+  // A coefficient that is not a number is named, never silently left out of the balance.
+  const unreadable = rows.flatMap((r, i) => (r.formula && !(r.amount.trim() !== "" && Number.isFinite(Number(r.amount)) && Number(r.amount) !== 0) ? [`term ${i + 1} (${r.formula}): “${r.amount.trim()}” is not a coefficient`] : []));
   const balance = complete.length >= 2 ? elementBalance(complete) : null;
   const preview = complete.length >= 2 ? reactionText(complete.map((r) => ({ key: termKey({ formula: r.formula, phase: r.phase || null }), coefficient: r.coefficient }))) : "";
 
@@ -258,7 +260,7 @@ export function CaseBuilder({ options, initial }: { options: BuilderOption[]; in
                     </p>
                   )}
                 </div>
-                <Button type="button" variant="ghost" aria-label={`Remove term ${n}`} onClick={() => { touch("terms"); setRows((rs) => rs.filter((_, j) => j !== i)); }} disabled={rows.length <= 2}>
+                <Button type="button" variant="ghost" aria-label={`Remove term ${n}`} onClick={() => { touch("terms"); setRows((rs) => rs.filter((_, j) => j !== i)); }} focusableWhenDisabled disabled={rows.length <= 2}>
                   Remove
                 </Button>
               </div>
@@ -271,7 +273,11 @@ export function CaseBuilder({ options, initial }: { options: BuilderOption[]; in
           </Button>
           <div className="text-sm" aria-live="polite" data-testid="balance">
             {preview && <span className="mr-3 font-medium">{preview}</span>}
-            {balance === null ? (
+            {unreadable.length > 0 ? (
+              <span className="font-medium text-flag-700" data-testid="balance-unreadable">
+                Balance not checked: {unreadable.join("; ")}.
+              </span>
+            ) : balance === null ? (
               <span className="text-ink-muted">Pick at least two species.</span>
             ) : balance.ok ? (
               <span className="font-medium text-moss-700">Balanced: {Object.keys(balance.elements).join(", ")}</span>

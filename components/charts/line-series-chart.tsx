@@ -1,18 +1,7 @@
 "use client";
 
-import {
-  Area,
-  CartesianGrid,
-  ComposedChart,
-  Legend,
-  Line,
-  ReferenceArea,
-  ReferenceLine,
-  ResponsiveContainer,
-  Tooltip,
-  XAxis,
-  YAxis,
-} from "recharts";
+import { useEffect, useRef, useState } from "react";
+import { Area, CartesianGrid, ComposedChart, Line, ReferenceArea, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
 
 /** Colours of the palette (tailwind.config.ts): ember = corrected, frost = naive, flag = beyond tolerance. */
 import { CHART_COLORS } from "./colors";
@@ -20,10 +9,13 @@ import { CHART_COLORS } from "./colors";
 export { CHART_COLORS };
 
 export type SeriesSpec = { key: string; name: string; color: string; dashed?: boolean; width?: number };
-export type BandSpec = { key: string; name: string; color: string };
+/** A [lo, hi] column drawn as a filled band; `opacity` of the fill (0.18 by default). */
+export type BandSpec = { key: string; name: string; color: string; opacity?: number };
 export type MarkX = { x: number; label: string; color: string; dashed?: boolean };
 export type MarkY = { y: number; label?: string; color: string; dashed?: boolean };
-export type Stretch = { x1: number; x2: number };
+export type Stretch = { x1: number; x2: number; color?: string };
+/** A legend entry for something drawn that is not a series (a shaded stretch, a band). */
+export type LegendExtra = { name: string; color: string; opacity?: number; line?: "solid" | "dashed" };
 
 export type LineSeriesChartProps = {
   /** Rows already prepared (and thinned) for drawing; the chart computes nothing. */
@@ -33,10 +25,16 @@ export type LineSeriesChartProps = {
   yLabel: string;
   series: SeriesSpec[];
   band?: BandSpec;
+  bands?: BandSpec[];
   marksX?: MarkX[];
   marksY?: MarkY[];
   stretches?: Stretch[];
+  /** Legend words for the shaded stretches (the stretches carry no label of their own). */
   stretchLabel?: string;
+  legendExtra?: LegendExtra[];
+  /** Tick values of the x axis (round numbers in the display unit); the axis spans them and the data. */
+  xTicks?: number[];
+  xDomain?: [number, number];
   /** `power10`: the values are log10 of the quantity and the ticks read 10ⁿ. */
   yTicks?: "number" | "power10";
   height?: number;
@@ -48,6 +46,79 @@ const SUPERSCRIPT: Record<string, string> = { "-": "⁻", "0": "⁰", "1": "¹",
 const power10 = (v: number) => (Number.isInteger(v) ? `10${String(v).replace(/./g, (c) => SUPERSCRIPT[c] ?? c)}` : "");
 const plain = (v: number) => (Math.abs(v) >= 1e5 || (Math.abs(v) < 1e-3 && v !== 0) ? v.toExponential(1) : String(Number(v.toPrecision(4))));
 
+const MARGIN = { top: 8, right: 16, bottom: 24, left: 8 };
+const Y_AXIS_WIDTH = 64;
+const LABEL_FONT = 10;
+// A 10 px label with its white halo is about 18 px tall.
+const LABEL_ROW = 18;
+/** Width of a label in px at 10 px Inter (about 0.56 em a character), with a little air. */
+const labelWidth = (s: string) => s.length * LABEL_FONT * 0.6 + 8;
+
+type Placed = { row: number; anchor: "start" | "end" };
+
+/**
+ * Rows and sides for the vertical marks' labels, so none overprints another: a label sits to the
+ * right of its line unless it would run off the plot, and drops a row when the row is taken.
+ * Labels sit inside the plot, under its top edge, never in the legend (which is HTML above the chart).
+ */
+export function placeMarkLabels(marks: readonly { x: number; label: string }[], domain: [number, number], plotWidth: number): Placed[] {
+  const [lo, hi] = domain;
+  const span = hi - lo || 1;
+  const order = marks.map((_, i) => i).sort((a, b) => marks[a].x - marks[b].x);
+  const rows: [number, number][][] = [];
+  const out: Placed[] = new Array(marks.length);
+  for (const i of order) {
+    const px = ((marks[i].x - lo) / span) * plotWidth;
+    const w = labelWidth(marks[i].label);
+    const anchor = px + 3 + w > plotWidth ? "end" : "start";
+    const ext: [number, number] = anchor === "start" ? [px + 3, px + 3 + w] : [px - 3 - w, px - 3];
+    let row = rows.findIndex((r) => r.every(([a, b]) => ext[1] < a || ext[0] > b));
+    if (row < 0) row = rows.push([]) - 1;
+    rows[row].push(ext);
+    out[i] = { row, anchor };
+  }
+  return out;
+}
+
+function MarkLabel({ viewBox, text, color, row, anchor }: { viewBox?: { x?: number; y?: number }; text: string; color: string; row: number; anchor: "start" | "end" }) {
+  const x = (viewBox?.x ?? 0) + (anchor === "start" ? 3 : -3);
+  const y = (viewBox?.y ?? 0) + LABEL_ROW + row * LABEL_ROW;
+  return (
+    <text x={x} y={y} textAnchor={anchor} fontSize={LABEL_FONT} fill={color} stroke="#fff" strokeWidth={3} paintOrder="stroke" data-mark-label="">
+      {text}
+    </text>
+  );
+}
+
+export function ChartLegend({ series, bands, extra }: { series: SeriesSpec[]; bands: BandSpec[]; extra: LegendExtra[] }) {
+  return (
+    <ul className="mb-1 flex flex-wrap gap-x-3 gap-y-1 text-xs text-ink-soft" data-testid="chart-legend">
+      {series.map((s) => (
+        <li key={s.key} className="inline-flex items-center gap-1">
+          <svg width="18" height="8" className="shrink-0" aria-hidden="true">
+            <line x1="0" y1="4" x2="18" y2="4" stroke={s.color} strokeWidth="2" strokeDasharray={s.dashed ? "4 3" : undefined} />
+          </svg>
+          {s.name}
+        </li>
+      ))}
+      {[...bands.map((b) => ({ name: b.name, color: b.color, opacity: b.opacity ?? 0.18 })), ...extra].map((e) => (
+        <li key={e.name} className="inline-flex items-center gap-1">
+          {"line" in e && e.line ? (
+            <svg width="18" height="8" className="shrink-0" aria-hidden="true">
+              <line x1="0" y1="4" x2="18" y2="4" stroke={e.color} strokeWidth="1.5" strokeDasharray={e.line === "dashed" ? "4 3" : undefined} />
+            </svg>
+          ) : (
+            <svg width="12" height="10" className="shrink-0" aria-hidden="true">
+              <rect width="12" height="10" fill={e.color} fillOpacity={Math.max(0.25, e.opacity ?? 0.25)} stroke={e.color} strokeOpacity={0.5} />
+            </svg>
+          )}
+          {e.name}
+        </li>
+      ))}
+    </ul>
+  );
+}
+
 export function LineSeriesChart({
   data,
   xKey,
@@ -55,26 +126,55 @@ export function LineSeriesChart({
   yLabel,
   series,
   band,
+  bands = [],
   marksX = [],
   marksY = [],
   stretches = [],
   stretchLabel,
+  legendExtra = [],
+  xTicks,
+  xDomain,
   yTicks = "number",
   height = 260,
   testId,
   ariaLabel,
 }: LineSeriesChartProps) {
+  // The plot's own width, so the marks' labels are placed in pixels (a phone's plot is narrow).
+  const box = useRef<HTMLDivElement>(null);
+  const [width, setWidth] = useState(600);
+  useEffect(() => {
+    const el = box.current;
+    if (!el) return;
+    setWidth(el.getBoundingClientRect().width || 600);
+    const observer = new ResizeObserver(([entry]) => setWidth(entry.contentRect.width));
+    observer.observe(el);
+    return () => observer.disconnect();
+  }, []);
   const tick = yTicks === "power10" ? power10 : plain;
+  const allBands = band ? [band, ...bands] : bands;
+  const xs = data.map((r) => r[xKey]).filter((v): v is number => typeof v === "number");
+  const lo = Math.min(...xs, ...(xTicks ?? []).slice(0, 1));
+  const hi = Math.max(...xs, ...(xTicks ?? []).slice(-1));
+  const domain: [number, number] = xDomain ?? [lo, hi];
+  const plotWidth = Math.max(40, width - MARGIN.left - MARGIN.right - Y_AXIS_WIDTH);
+  const inside = marksX.filter((m) => m.x >= domain[0] && m.x <= domain[1]);
+  const placed = placeMarkLabels(inside, domain, plotWidth);
+  const extra = [...(stretchLabel && stretches.length ? [{ name: stretchLabel, color: CHART_COLORS.flag, opacity: 0.1 }] : []), ...legendExtra];
   return (
     <figure className="w-full break-inside-avoid" data-testid={testId} aria-label={ariaLabel} role="img">
-      <div style={{ height }} className="w-full">
+      {/* An HTML legend above the plot wraps on a phone; the marks' labels stay inside the plot. */}
+      <ChartLegend series={series} bands={allBands} extra={extra} />
+      <div style={{ height }} className="w-full" ref={box}>
         <ResponsiveContainer width="100%" height="100%">
-          <ComposedChart data={data} margin={{ top: 8, right: 16, bottom: 24, left: 8 }}>
+          <ComposedChart data={data} margin={MARGIN}>
             <CartesianGrid stroke={CHART_COLORS.line} strokeDasharray="2 4" />
             <XAxis
               dataKey={xKey}
               type="number"
-              domain={["dataMin", "dataMax"]}
+              domain={domain}
+              ticks={xTicks}
+              interval={xTicks ? 0 : "preserveEnd"}
+              allowDataOverflow={false}
               tickFormatter={plain}
               tick={{ fontSize: 11, fill: CHART_COLORS.muted }}
               label={{ value: xLabel, position: "insideBottom", offset: -14, fontSize: 11, fill: CHART_COLORS.ink }}
@@ -82,7 +182,7 @@ export function LineSeriesChart({
             <YAxis
               tickFormatter={tick}
               allowDecimals={yTicks !== "power10"}
-              width={64}
+              width={Y_AXIS_WIDTH}
               tick={{ fontSize: 11, fill: CHART_COLORS.muted }}
               label={{ value: yLabel, angle: -90, position: "insideLeft", offset: 4, fontSize: 11, fill: CHART_COLORS.ink, style: { textAnchor: "middle" } }}
               domain={["auto", "auto"]}
@@ -92,20 +192,28 @@ export function LineSeriesChart({
                 key={`s${i}`}
                 x1={s.x1}
                 x2={s.x2}
-                fill={CHART_COLORS.flag}
+                fill={s.color ?? CHART_COLORS.flag}
                 fillOpacity={0.08}
-                stroke={CHART_COLORS.flag}
+                stroke={s.color ?? CHART_COLORS.flag}
                 strokeOpacity={0.35}
-                label={i === 0 && stretchLabel ? { value: stretchLabel, position: "insideTop", fontSize: 10, fill: CHART_COLORS.flag } : undefined}
-                ifOverflow="extendDomain"
+                ifOverflow="hidden"
               />
             ))}
-            {band && <Area dataKey={band.key} name={band.name} stroke="none" fill={band.color} fillOpacity={0.18} isAnimationActive={false} connectNulls legendType="square" />}
-            {marksY.map((m, i) => (
-              <ReferenceLine key={`y${i}`} y={m.y} stroke={m.color} strokeDasharray={m.dashed ? "4 4" : undefined} label={m.label ? { value: m.label, position: "insideTopRight", fontSize: 10, fill: m.color } : undefined} />
+            {allBands.map((b) => (
+              <Area key={b.key} dataKey={b.key} name={b.name} stroke="none" fill={b.color} fillOpacity={b.opacity ?? 0.18} isAnimationActive={false} connectNulls={false} legendType="none" />
             ))}
-            {marksX.map((m, i) => (
-              <ReferenceLine key={`x${i}`} x={m.x} stroke={m.color} strokeDasharray={m.dashed ? "5 4" : undefined} label={{ value: m.label, position: "top", fontSize: 10, fill: m.color }} ifOverflow="hidden" />
+            {marksY.map((m, i) => (
+              <ReferenceLine key={`y${i}`} y={m.y} stroke={m.color} strokeDasharray={m.dashed ? "4 4" : undefined} label={m.label ? { value: m.label, position: "insideBottomRight", fontSize: 10, fill: m.color } : undefined} />
+            ))}
+            {inside.map((m, i) => (
+              <ReferenceLine
+                key={`x${i}`}
+                x={m.x}
+                stroke={m.color}
+                strokeDasharray={m.dashed ? "5 4" : undefined}
+                label={<MarkLabel text={m.label} color={m.color} row={placed[i].row} anchor={placed[i].anchor} />}
+                ifOverflow="hidden"
+              />
             ))}
             {series.map((s) => (
               <Line
@@ -126,7 +234,6 @@ export function LineSeriesChart({
               labelFormatter={(v: unknown) => `${xLabel.split(" (")[0]} = ${plain(Number(v))}`}
               contentStyle={{ fontSize: 12 }}
             />
-            <Legend verticalAlign="top" height={24} wrapperStyle={{ fontSize: 12 }} />
           </ComposedChart>
         </ResponsiveContainer>
       </div>

@@ -9,11 +9,15 @@ import { Badge } from "@/components/ui/badge";
 import { Button } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
 import { Field, Select, TextInput, inputClass } from "@/components/ui/field";
+import { EQUILIBRIUM_CAUTION_TEXT } from "@/lib/cases/caution";
+import { checkEquilibriumForm, checkReactionLine, checkSpeciesKey, FEED_UNIT_HINT } from "@/lib/cases/equilibrium-form";
+import { warningMeaning } from "@/lib/cases/warnings";
 import type { ResultsDto } from "@/lib/services/cases";
 import type { PinOptionDto } from "@/lib/services/pins";
 import type { EvaluateResult } from "@/lib/thermo/evaluate";
 import type { CaseEquilibrium, ExtraTerm } from "@/lib/validation/equilibrium";
 import type { SourcesDto } from "./source-comparison";
+import { CondensationNote } from "./condensation-note";
 
 // Charts load only once there is something to draw, keeping recharts out of the page's first load.
 const EquilibriumResults = dynamic(() => import("./equilibrium-results").then((m) => m.EquilibriumResults), { ssr: false });
@@ -50,6 +54,35 @@ const markerless = (key: string) => {
 };
 
 type Row = { key: string; amount: string };
+
+/**
+ * The API's refusal → messages keyed by the panel's field names (`feed.<key>`, `feedUnit`,
+ * `pressure`, `key`, `reactions.<i>`), in plain words without field paths; what names no field
+ * comes back as `_`.
+ */
+export function panelErrors(error: ApiError): Record<string, string> {
+  const out: Record<string, string> = {};
+  const sentence = (m: string) => {
+    const t = m.trim();
+    return t ? `${t[0].toUpperCase()}${t.slice(1)}${/[.!?]$/.test(t) ? "" : "."}` : t;
+  };
+  const place = (path: string, message: string) => {
+    const p = path.replace(/^equilibrium\./, "").replace(/\[(\d+)\]/g, ".$1").replace(/^pressureBar/, "pressure");
+    const field = /^(feedUnit|pressure|key|feed(\..+)?|reactions\.\d+)$/.test(p) ? p : null;
+    if (field && !out[field]) out[field] = sentence(message);
+    return field !== null;
+  };
+  let placed = false;
+  for (const [f, m] of Object.entries(error.details?.fields ?? {})) placed = place(f, m) || placed;
+  if (!placed) {
+    const missing = /^species "(.+)" is used in equilibrium\.reactions\[(\d+)\]/.exec(error.message);
+    const pathed = /^(equilibrium\.[A-Za-z]+(?:\[\d+\])?): (.*)$/.exec(error.message);
+    if (missing) placed = place(`reactions.${missing[2]}`, `${missing[1]} has no model version: pick one below, or check the spelling`);
+    else if (pathed) placed = place(pathed[1], pathed[2].replace(/^reaction "[^"]*": /, ""));
+  }
+  if (!placed) out._ = sentence(error.message.replace(/^[A-Za-z.[\]0-9]+: /, ""));
+  return out;
+}
 
 /**
  * The equilibrium panel of a case: feed, pressure and key species (and optionally a
@@ -95,12 +128,14 @@ export function EquilibriumPanel({
   const [newKey, setNewKey] = useState("");
   const [trial, setTrial] = useState<EvaluateResult | null>(null);
   const [busy, setBusy] = useState<string | null>(null);
-  const [error, setError] = useState<ApiError | null>(null);
+  const [errors, setErrors] = useState<Record<string, string>>({});
   const [saved, setSaved] = useState<string | null>(null);
   const [sources, setSources] = useState<SourcesDto | null>(null);
 
   const reactions = reactionsText.split("\n").map((l) => l.trim()).filter(Boolean);
-  const reactionKeys = [...new Set(reactions.flatMap(keysOfReaction))].filter((k) => !caseKeys.includes(k));
+  const reactionErrors = reactions.flatMap((_, i) => (errors[`reactions.${i}`] ? [`Line ${i + 1}: ${errors[`reactions.${i}`]}`] : []));
+  // Species come only from lines that read as reactions; a malformed line is flagged, not mined for names.
+  const reactionKeys = [...new Set(reactions.filter((r) => checkReactionLine(r) === null).flatMap(keysOfReaction))].filter((k) => !caseKeys.includes(k));
   // Inert species carry heat in the adiabatic balance, so they need a pinned model version too.
   const inertKeys = rows.map((r) => r.key).filter((k) => !caseKeys.includes(k) && !reactionKeys.includes(k));
   const extraKeys = [...reactionKeys, ...(inletK.trim() ? inertKeys : [])];
@@ -129,9 +164,17 @@ export function EquilibriumPanel({
   };
 
   const run = async (what: "trial" | "save" | "clear" | "sources") => {
-    setBusy(what);
-    setError(null);
     setSaved(null);
+    if (what === "trial" || what === "save") {
+      // Every field is checked at once; nothing is sent while any is wrong.
+      const found = checkEquilibriumForm({ amounts: Object.fromEntries(feedKeys.map((k) => [k, rows.find((r) => r.key === k)?.amount ?? "0"])), feedUnit: unit, pressure, key, reactions });
+      // An inert still waiting in its field to be added keeps its message.
+      const inert = newKey.trim() ? checkSpeciesKey(newKey) : null;
+      if (inert) found.inert = inert;
+      setErrors(found);
+      if (Object.keys(found).length) return;
+    } else setErrors({});
+    setBusy(what);
     try {
       if (what === "trial") {
         setTrial(await send<EvaluateResult>("POST", "/api/v1/equilibrium/preview", { caseId, equilibrium: equilibrium() }));
@@ -158,7 +201,7 @@ export function EquilibriumPanel({
         );
       }
     } catch (e) {
-      setError(e as ApiError);
+      setErrors(panelErrors(e as ApiError));
     } finally {
       setBusy(null);
     }
@@ -189,22 +232,25 @@ export function EquilibriumPanel({
                 {feedKeys.map((k) => {
                   const row = rows.find((r) => r.key === k);
                   const id = `feed-${k.replace(/[^A-Za-z0-9]/g, "_")}`;
+                  const bad = errors[`feed.${k}`];
                   return (
-                    <div key={k} className="flex items-center gap-2">
+                    <div key={k}>
+                    <div className="flex items-center gap-2">
                       <label htmlFor={id} className="w-28 shrink-0 truncate text-sm font-medium" title={k}>
                         {k}
                       </label>
                       <input
                         id={id}
                         name={id}
-                        type="number"
-                        min={0}
-                        step="any"
+                        type="text"
                         inputMode="decimal"
                         className={inputClass}
+                        aria-invalid={bad ? true : undefined}
+                        aria-describedby={bad ? `${id}-error` : undefined}
                         value={row?.amount ?? "0"}
                         onChange={(e) => {
                           const v = e.target.value;
+                          setErrors(({ [`feed.${k}`]: _gone, feed: _none, ...rest }) => rest);
                           setRows((rs) => (rs.some((r) => r.key === k) ? rs.map((r) => (r.key === k ? { ...r, amount: v } : r)) : [...rs, { key: k, amount: v }]));
                         }}
                       />
@@ -215,21 +261,47 @@ export function EquilibriumPanel({
                         </button>
                       )}
                     </div>
+                    {bad && (
+                      <p id={`${id}-error`} role="alert" className="ml-[7.5rem] mt-0.5 text-xs font-medium text-flag-700">
+                        {bad}
+                      </p>
+                    )}
+                    </div>
                   );
                 })}
               </div>
-              <div className="flex items-end gap-2">
+              {errors.feed && (
+                <p role="alert" className="text-xs font-medium text-flag-700">
+                  {errors.feed}
+                </p>
+              )}
+              <div className="flex items-start gap-2">
                 <div className="grow">
-                  <Field label="Inert species (rides along, e.g. N2(g))" name="inert">
-                    <TextInput name="inert" value={newKey} onChange={(e) => setNewKey(e.target.value)} placeholder="N2(g)" />
+                  <Field label="Inert species (rides along, e.g. N2(g))" name="inert" error={errors.inert}>
+                    <TextInput
+                      name="inert"
+                      value={newKey}
+                      error={errors.inert}
+                      onChange={(e) => {
+                        setNewKey(e.target.value);
+                        setErrors(({ inert: _gone, ...rest }) => rest);
+                      }}
+                      placeholder="N2(g)"
+                    />
                   </Field>
                 </div>
                 <Button
                   type="button"
                   variant="secondary"
+                  className="mt-6"
                   onClick={() => {
                     const k = newKey.trim();
-                    if (k && !feedKeys.includes(k)) setRows((rs) => [...rs, { key: k, amount: "0" }]);
+                    const bad = checkSpeciesKey(k) ?? (feedKeys.includes(k) ? `${k} is already in the feed.` : null);
+                    if (bad) {
+                      setErrors((e) => ({ ...e, inert: bad }));
+                      return;
+                    }
+                    setRows((rs) => [...rs, { key: k, amount: "0" }]);
                     setNewKey("");
                   }}
                 >
@@ -239,11 +311,11 @@ export function EquilibriumPanel({
             </fieldset>
             <div className="space-y-3">
               <div className="grid grid-cols-2 gap-3">
-                <Field label="Unit of amount" name="feedUnit" hint="Moles come back in the same unit.">
-                  <TextInput name="feedUnit" value={unit} onChange={(e) => setUnit(e.target.value)} />
+                <Field label="Unit of amount" name="feedUnit" error={errors.feedUnit} hint={`${FEED_UNIT_HINT}; moles come back in the same unit.`}>
+                  <TextInput name="feedUnit" value={unit} error={errors.feedUnit} onChange={(e) => { setUnit(e.target.value); setErrors(({ feedUnit: _gone, ...rest }) => rest); }} />
                 </Field>
-                <Field label="Pressure" name="pressure" hint="bar, or with a unit: 2.5 MPa, 30 atm">
-                  <TextInput name="pressure" value={pressure} onChange={(e) => setPressure(e.target.value)} />
+                <Field label="Pressure" name="pressure" error={errors.pressure} hint="bar, or with a unit: 2.5 MPa, 30 atm">
+                  <TextInput name="pressure" value={pressure} error={errors.pressure} onChange={(e) => { setPressure(e.target.value); setErrors(({ pressure: _gone, ...rest }) => rest); }} />
                 </Field>
               </div>
               <div className="grid grid-cols-2 gap-3">
@@ -257,8 +329,9 @@ export function EquilibriumPanel({
                   <TextInput name="adiabaticInletK" value={inletK} onChange={(e) => setInletK(e.target.value)} placeholder="e.g. 600" />
                 </Field>
               </div>
-              <Field label="Key species (conversion and slip)" name="key">
-                <Select name="key" value={key} onChange={(e) => setKey(e.target.value)}>
+              <Field label="Key species (conversion and slip)" name="key" error={errors.key}>
+                <Select name="key" value={key} error={errors.key} onChange={(e) => { setKey(e.target.value); setErrors(({ key: _gone, ...rest }) => rest); }}>
+
                   {feedKeys.map((k) => (
                     <option key={k} value={k}>
                       {k}
@@ -266,14 +339,24 @@ export function EquilibriumPanel({
                   ))}
                 </Select>
               </Field>
-              <Field label="Simultaneous reactions (optional, one per line)" name="reactions" hint="Empty: the case's own reaction. Give independent reactions, e.g. reforming and shift.">
+              <Field
+                label="Simultaneous reactions (optional, one per line)"
+                name="reactions"
+                error={reactionErrors.length ? reactionErrors.join(" ") : undefined}
+                hint="Empty: the case's own reaction. Give independent reactions, e.g. reforming and shift."
+              >
                 <textarea
                   id="reactions"
                   name="reactions"
                   rows={3}
                   className={inputClass}
+                  aria-invalid={reactionErrors.length ? true : undefined}
+                  aria-describedby={reactionErrors.length ? "reactions-error" : undefined}
                   value={reactionsText}
-                  onChange={(e) => setReactionsText(e.target.value)}
+                  onChange={(e) => {
+                    setReactionsText(e.target.value);
+                    setErrors((er) => Object.fromEntries(Object.entries(er).filter(([f]) => !f.startsWith("reactions."))));
+                  }}
                   placeholder="e.g. CO(g) + H2O(g) -> CO2(g) + H2(g)"
                 />
               </Field>
@@ -281,14 +364,14 @@ export function EquilibriumPanel({
                 <ExtraPin key={k} speciesKey={k} inert={!reactionKeys.includes(k)} value={extraPins[k]} onChange={(v) => setExtraPins((p) => ({ ...p, [k]: v }))} />
               ))}
               <div className="flex flex-wrap gap-2">
-                <Button type="submit" disabled={busy !== null}>
+                <Button type="submit" focusableWhenDisabled disabled={busy !== null}>
                   {busy === "trial" ? "Solving…" : "Solve"}
                 </Button>
-                <Button type="button" variant="secondary" disabled={busy !== null} onClick={() => void run("save")}>
+                <Button type="button" variant="secondary" focusableWhenDisabled disabled={busy !== null} onClick={() => void run("save")}>
                   {busy === "save" ? "Saving…" : "Save to case"}
                 </Button>
                 {hasSaved && (
-                  <Button type="button" variant="ghost" disabled={busy !== null} onClick={() => void run("clear")}>
+                  <Button type="button" variant="ghost" focusableWhenDisabled disabled={busy !== null} onClick={() => void run("clear")}>
                     Remove from case
                   </Button>
                 )}
@@ -299,19 +382,9 @@ export function EquilibriumPanel({
           !hasSaved && <p className="text-sm text-ink-muted">This case has no equilibrium feed{canEdit ? "" : "; its author can add one while it is a draft"}.</p>
         )}
 
-        {error && (
+        {Object.keys(errors).length > 0 && (
           <div role="alert" className="rounded-md border border-flag-600/30 bg-flag-50 px-3 py-2 text-sm text-flag-700" data-testid="equilibrium-error">
-            <code className="mr-2 font-semibold">{error.code}</code>
-            {error.message}
-            {error.details?.fields && (
-              <ul className="mt-1 list-disc pl-5 text-xs">
-                {Object.entries(error.details.fields).map(([f, m]) => (
-                  <li key={f}>
-                    {f}: {m}
-                  </li>
-                ))}
-              </ul>
-            )}
+            {errors._ ?? "Nothing was solved: fix the marked fields."}
           </div>
         )}
         {saved && (
@@ -324,15 +397,19 @@ export function EquilibriumPanel({
           <>
             <div className="flex flex-wrap items-center justify-between gap-2">
               {trial ? <Badge tone="ember">Trial run, not saved</Badge> : <Badge tone={data?.source === "snapshot" ? "moss" : "frost"}>{data?.source === "snapshot" ? `Frozen snapshot · revision ${data.revision}` : "Saved feed · live evaluation"}</Badge>}
-              <Button type="button" variant="secondary" disabled={busy !== null} onClick={() => void run("sources")} data-testid="compare-sources">
+              <Button type="button" variant="secondary" focusableWhenDisabled disabled={busy !== null} onClick={() => void run("sources")} data-testid="compare-sources">
                 {busy === "sources" ? "Comparing…" : "Compare data families"}
               </Button>
             </div>
             <EquilibriumResults result={shown} />
+            <CondensationNote result={shown} />
             <WarningCodes result={shown} />
           </>
         )}
         {sources && <SourceComparisonView data={sources} />}
+        <p className="rounded-md border border-ember-100 bg-ember-50 px-3 py-2 text-xs leading-relaxed text-ember-700" data-testid="equilibrium-caution">
+          {EQUILIBRIUM_CAUTION_TEXT}
+        </p>
         <Caution />
       </div>
     </Card>
@@ -351,6 +428,7 @@ function WarningCodes({ result }: { result: EvaluateResult }) {
       {showHigh && (
         <li>
           <code>high-pressure</code> {high.message}
+          <span className="block text-ink-muted">{warningMeaning("high-pressure")}</span>
         </li>
       )}
       {liquid && (
@@ -361,6 +439,7 @@ function WarningCodes({ result }: { result: EvaluateResult }) {
       {nc && (
         <li>
           <code>equilibrium-not-converged</code> {nc.message}
+          <span className="block text-ink-muted">{warningMeaning("equilibrium-not-converged")}</span>
         </li>
       )}
     </ul>

@@ -39,6 +39,9 @@ export function EquilibriumResults({ result, compact = false }: { result: Evalua
   const worst = eq.reduce((a, p) => (Math.abs(p.keyFractionDiff) > Math.abs(a.keyFractionDiff) ? p : a), eq[0]);
   // The printed report keeps the key species' columns only; the other fractions are in the charts and the CSV.
   const others = compact ? [] : gas.filter((k) => k !== key);
+  // "±1σ" only where the result carries uncertainties.
+  const sigma = Boolean(eq[0].sigma || eq[0].naive.sigma);
+  const pm = sigma ? " ±1σ" : "";
   const th = "border-b border-ink-line px-2 py-1 text-right font-medium whitespace-nowrap";
   const td = "px-2 py-0.5 text-right tabular whitespace-nowrap";
   return (
@@ -77,7 +80,7 @@ export function EquilibriumResults({ result, compact = false }: { result: Evalua
       )}
       <div className={compact ? "grid grid-cols-2 gap-3" : "grid gap-4 lg:grid-cols-2"}>
         <div>
-          <h3 className="mb-1 text-xs font-semibold text-ink-soft">{key} outlet mole fraction (gas), ±1σ</h3>
+          <h3 className="mb-1 text-xs font-semibold text-ink-soft">{key} outlet mole fraction (gas){sigma ? ", ±1σ" : ""}</h3>
           <CompositionChart data={keyRows(result)} series={keySeries} yLabel="mole fraction" testId="equilibrium-key-chart" ariaLabel={`${key} outlet fraction against temperature, corrected and naive`} height={compact ? 200 : 260} />
         </div>
         <div>
@@ -92,8 +95,8 @@ export function EquilibriumResults({ result, compact = false }: { result: Evalua
               <th className={th}>T (K)</th>
               <th className={th}>{key} conversion corrected</th>
               <th className={th}>naive</th>
-              <th className={th}>{key} fraction corrected ±1σ</th>
-              <th className={th}>naive ±1σ</th>
+              <th className={th}>{key} fraction corrected{pm}</th>
+              <th className={th}>naive{pm}</th>
               <th className={th}>naive − corrected</th>
               {others.map((k) => (
                 <th key={k} className={th}>

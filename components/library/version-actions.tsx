@@ -63,17 +63,17 @@ export function VersionActions({ versionId, modelId, allowed, label, speciesHref
     <div className="space-y-3" data-testid="version-actions">
       <div className="flex flex-wrap gap-2">
         {allowed.edit && <Button variant="secondary" onClick={() => router.push(`/library/versions/${versionId}/edit`)}>Edit draft</Button>}
-        {allowed.propose && <Button disabled={!!busy} onClick={() => run("propose", `/api/v1/versions/${versionId}/propose`)}>{busy === "propose" ? "Proposing…" : "Propose for approval"}</Button>}
+        {allowed.propose && <Button focusableWhenDisabled disabled={!!busy} onClick={() => run("propose", `/api/v1/versions/${versionId}/propose`)}>{busy === "propose" ? "Proposing…" : "Propose for approval"}</Button>}
         {allowed.decide && (
           <>
-            <Button disabled={!!busy} onClick={() => decide("approve", approveVersionAction, {})}>{busy === "approve" ? "Approving…" : "Approve"}</Button>
-            <Button variant="danger" disabled={!!busy} onClick={() => setRejecting((r) => !r)}>Reject…</Button>
+            <Button focusableWhenDisabled disabled={!!busy} onClick={() => decide("approve", approveVersionAction, {})}>{busy === "approve" ? "Approving…" : "Approve"}</Button>
+            <Button variant="danger" focusableWhenDisabled disabled={!!busy} onClick={() => setRejecting((r) => !r)}>Reject…</Button>
           </>
         )}
-        {allowed.withdraw && <Button variant="secondary" disabled={!!busy} onClick={() => setConfirm("withdraw")}>Withdraw proposal</Button>}
-        {allowed.remove && <Button variant="danger" disabled={!!busy} onClick={() => setConfirm("delete")}>Delete…</Button>}
-        {allowed.newDraft && <Button variant="secondary" disabled={!!busy} onClick={() => run("draft", `/api/v1/models/${modelId}/versions`, { fromVersionId: versionId }, (id) => `/library/versions/${id}/edit`)}>New draft from this version</Button>}
-        {allowed.copy && <Button variant="secondary" disabled={!!busy} onClick={() => run("copy", `/api/v1/versions/${versionId}/copy`, undefined, (id) => `/library/versions/${id}/edit`)}>{busy === "copy" ? "Copying…" : "Copy into a team model"}</Button>}
+        {allowed.withdraw && <Button variant="secondary" focusableWhenDisabled disabled={!!busy} onClick={() => setConfirm("withdraw")}>Withdraw proposal</Button>}
+        {allowed.remove && <Button variant="danger" focusableWhenDisabled disabled={!!busy} onClick={() => setConfirm("delete")}>Delete…</Button>}
+        {allowed.newDraft && <Button variant="secondary" focusableWhenDisabled disabled={!!busy} onClick={() => run("draft", `/api/v1/models/${modelId}/versions`, { fromVersionId: versionId }, (id) => `/library/versions/${id}/edit`)}>New draft from this version</Button>}
+        {allowed.copy && <Button variant="secondary" focusableWhenDisabled disabled={!!busy} onClick={() => run("copy", `/api/v1/versions/${versionId}/copy`, undefined, (id) => `/library/versions/${id}/edit`)}>{busy === "copy" ? "Copying…" : "Copy into a team model"}</Button>}
       </div>
       {allowed.ownWork && <p className="text-sm text-ink-muted" data-testid="own-work-note">You wrote, changed or proposed this version, so another steward decides on it.</p>}
       {rejecting && (

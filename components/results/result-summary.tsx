@@ -1,9 +1,11 @@
-import { fixed, kelvin } from "@/lib/cases/format";
+import { formatTemperature, type DisplayUnit } from "@/lib/cases/display-unit";
+import { fixed } from "@/lib/cases/format";
+import { signCaseSentence } from "@/lib/cases/sign-case";
 import { warningMeaning } from "@/lib/cases/warnings";
 import type { EvaluateResult } from "@/lib/thermo/evaluate";
 
-/** Reference values, crossovers and the sign case in words. */
-export function ResultSummary({ result }: { result: EvaluateResult }) {
+/** Reference values, crossovers (to 0.1 of the display unit) and the sign case in words. */
+export function ResultSummary({ result, unit = "K" }: { result: EvaluateResult; unit?: DisplayUnit }) {
   const r = result.reference;
   const c = result.crossover;
   const first = result.points[0]?.tK;
@@ -11,7 +13,7 @@ export function ResultSummary({ result }: { result: EvaluateResult }) {
   return (
     <dl className="grid gap-x-6 gap-y-3 text-sm sm:grid-cols-2 lg:grid-cols-3" data-testid="result-summary">
       <div>
-        <dt className="text-xs text-ink-muted">At the reference temperature ({fixed(r.tK, 2)} K)</dt>
+        <dt className="text-xs text-ink-muted">At the reference temperature ({formatTemperature(r.tK, unit, 2)})</dt>
         <dd className="tabular">
           ΔrH° = <span data-testid="ref-dh">{fixed(r.dHkJ, 3)}</span> kJ/mol · ΔrS° = {fixed(r.dSJ, 3)} J/(mol·K) · ΔrG° = {fixed(r.dGkJ, 3)} kJ/mol
         </dd>
@@ -21,9 +23,7 @@ export function ResultSummary({ result }: { result: EvaluateResult }) {
         <dd data-testid="sign-case">
           <span className="font-medium">{result.signCase.text}</span> <code className="text-xs text-ink-muted">{result.signCase.code}</code>
           <span className="block text-xs" data-testid="sign-agrees">
-            {result.signCase.correctedAgrees
-              ? "The corrected curve agrees with this over the span."
-              : "The corrected curve does not agree with this over the span: the sign of ΔrG differs somewhere."}
+            {signCaseSentence(result, unit)}
           </span>
         </dd>
       </div>
@@ -32,10 +32,12 @@ export function ResultSummary({ result }: { result: EvaluateResult }) {
         <dd className="tabular" data-testid="crossovers">
           <span className="block">
             Naive T*:{" "}
-            {c.naiveK === null ? "none (ΔrH° and ΔrS° have opposite signs)" : `${kelvin(c.naiveK)}${c.naiveInSpan ? "" : ` (outside ${fixed(first, 0)}–${fixed(last, 0)} K)`}`}
+            {c.naiveK === null
+              ? "none (ΔrH° and ΔrS° have opposite signs)"
+              : `${formatTemperature(c.naiveK, unit)}${c.naiveInSpan ? "" : ` (outside ${formatTemperature(first, unit, 0)} to ${formatTemperature(last, unit, 0)})`}`}
           </span>
           <span className="block">
-            Corrected: {c.correctedK.length === 0 ? "none in the span" : c.correctedK.map((t) => kelvin(t)).join(", ")}
+            Corrected: {c.correctedK.length === 0 ? "none in the span" : c.correctedK.map((t) => formatTemperature(t, unit)).join(", ")}
           </span>
         </dd>
       </div>
@@ -44,7 +46,7 @@ export function ResultSummary({ result }: { result: EvaluateResult }) {
 }
 
 export function WarningList({ warnings }: { warnings: EvaluateResult["warnings"] }) {
-  if (warnings.length === 0) return <p className="text-sm text-moss-700" data-testid="no-warnings">No warnings: every model is used inside its range.</p>;
+  if (warnings.length === 0) return <p className="text-sm text-moss-700" data-testid="no-warnings">No warnings: every model is used inside its range, within the ideal-state assumptions (1 bar standard states, ideal-gas activities).</p>;
   return (
     <ul className="space-y-2" data-testid="warnings">
       {warnings.map((w, i) => (

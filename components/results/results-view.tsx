@@ -2,16 +2,21 @@
 
 import dynamic from "next/dynamic";
 import Link from "next/link";
+import { useState } from "react";
 import useSWR from "swr";
 import { Badge } from "@/components/ui/badge";
 import { buttonClass } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
+import type { DisplayUnit } from "@/lib/cases/display-unit";
 import type { ResultsDto } from "@/lib/services/cases";
 import { Caution } from "./caution";
 import { NumbersTable } from "./numbers-table";
 import { ResultSummary, WarningList } from "./result-summary";
+import { UnitSwitch } from "./unit-switch";
 
 type ApiError = { code: string; message: string };
+
+const ContributionsChart = dynamic(() => import("./contributions-chart").then((m) => m.ContributionsChart), { ssr: false });
 
 /** The chart library is most of this page's JavaScript: the numbers come first, the charts load after them. */
 const ResultCharts = dynamic(() => import("./result-charts").then((m) => m.ResultCharts), {
@@ -26,9 +31,15 @@ export async function fetchJson<T>(url: string): Promise<T> {
   return body as T;
 }
 
-/** The results of a case, fetched from the API: the stored snapshot once submitted, a live evaluation while a draft. */
-export function ResultsView({ caseId, revision, stamp }: { caseId: number; revision?: number; stamp: number }) {
+/**
+ * The results of a case, fetched from the API: the stored snapshot once submitted, a live
+ * evaluation while a draft. Temperatures read in `initialUnit` (the unit the case was entered
+ * in) until the reader switches.
+ */
+export function ResultsView({ caseId, revision, stamp, initialUnit = "K" }: { caseId: number; revision?: number; stamp: number; initialUnit?: DisplayUnit }) {
+  const [unit, setUnit] = useState<DisplayUnit>(initialUnit);
   const q = revision ? `?revision=${revision}` : "";
+  const withUnit = (base: string) => (unit === "K" ? base : `${base}${base.includes("?") ? "&" : "?"}unit=${unit}`);
   // The case's lockVersion is part of the key: an edit, a submission or a decision fetches afresh.
   const { data, error, isLoading } = useSWR<ResultsDto, ApiError, [string, number]>([`/api/v1/cases/${caseId}/results${q}`, stamp], ([url]) => fetchJson<ResultsDto>(url), {
     revalidateOnFocus: false,
@@ -67,25 +78,27 @@ export function ResultsView({ caseId, revision, stamp }: { caseId: number; revis
           )}
           <span className="text-xs text-ink-muted">engine {r.engine.version}</span>
         </div>
-        <div className="no-print flex gap-2">
-          <a className={buttonClass("secondary")} href={`/api/v1/cases/${caseId}/export${q}`} download data-testid="csv-export">
+        <div className="no-print flex flex-wrap items-center gap-2">
+          <UnitSwitch unit={unit} onChange={setUnit} />
+          <a className={buttonClass("secondary")} href={withUnit(`/api/v1/cases/${caseId}/export${q}`)} download data-testid="csv-export">
             Export CSV
           </a>
-          <Link className={buttonClass("secondary")} href={`/cases/${caseId}/report${q}`}>
+          <Link className={buttonClass("secondary")} href={withUnit(`/cases/${caseId}/report${q}`)} data-testid="report-link">
             Printable report
           </Link>
         </div>
       </div>
       <Caution />
       <Card title="What the numbers say">
-        <ResultSummary result={r} />
+        <ResultSummary result={r} unit={unit} />
       </Card>
-      <ResultCharts result={r} toleranceKJ={data.inputs.toleranceKJ} />
+      <ResultCharts result={r} toleranceKJ={data.inputs.toleranceKJ} toleranceKFactor={data.inputs.toleranceKFactor} unit={unit} />
+      <ContributionsChart result={r} />
       <Card title={`Warnings (${r.warnings.length})`}>
         <WarningList warnings={r.warnings} />
       </Card>
       <Card title="Numbers">
-        <NumbersTable points={r.points} />
+        <NumbersTable points={r.points} unit={unit} />
       </Card>
       <Caution />
     </div>

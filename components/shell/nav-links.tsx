@@ -5,10 +5,10 @@ import { usePathname } from "next/navigation";
 
 export type NavItem = { href: string; label: string };
 
-export function NavLinks({ items }: { items: NavItem[] }) {
+export function NavLinks({ items, vertical = false }: { items: NavItem[]; vertical?: boolean }) {
   const pathname = usePathname();
   return (
-    <nav aria-label="Main" className="-mx-1 flex gap-1 overflow-x-auto">
+    <nav aria-label="Main" className={vertical ? "flex flex-col gap-1" : "-mx-1 flex gap-1 overflow-x-auto"}>
       {items.map((item) => {
         const active = item.href === "/" ? pathname === "/" : pathname.startsWith(item.href);
         return (

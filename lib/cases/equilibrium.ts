@@ -15,12 +15,22 @@ export function pinTerms(inputs: { terms: CaseTerm[]; equilibrium?: CaseEquilibr
   return [...inputs.terms, ...extra.map((t) => ({ ...t, coefficient: 1 }))];
 }
 
-/** A pin's species entry, with the version's uncertainty where it has one. */
-export function speciesOfPin(p: Pick<PinnedVersion, "data"> & { uncertainty?: PinnedVersion["uncertainty"] }): SpeciesInput {
+/** A pin's species entry, with the version's uncertainty and the species' boiling and triple points where it has them. */
+export function speciesOfPin(p: Pick<PinnedVersion, "data"> & { uncertainty?: PinnedVersion["uncertainty"]; phasePoints?: PinnedVersion["phasePoints"] }): SpeciesInput {
   const data = p.data as SpeciesInput;
   const u = p.uncertainty;
-  if (!u || (u.dfHkJ === undefined && u.sJ === undefined && u.cpRelative === undefined)) return data;
-  return { ...data, uncertainty: u };
+  const pp = p.phasePoints;
+  const points: Pick<SpeciesInput, "boilingPointK" | "triplePointK"> = {};
+  if (pp?.boilingPointK != null) points.boilingPointK = pp.boilingPointK;
+  if (pp?.triplePointK != null) points.triplePointK = pp.triplePointK;
+  if (!u || (u.dfHkJ === undefined && u.sJ === undefined && u.cpRelative === undefined)) return { ...data, ...points };
+  return { ...data, uncertainty: u, ...points };
+}
+
+/** A species row's phase points as a pin carries them, or null when it has none. */
+export function phasePointsOf(s: { boilingPointK?: number | null; triplePointK?: number | null; phasePointsCitation?: string | null }): PinnedVersion["phasePoints"] {
+  if (s.boilingPointK == null && s.triplePointK == null) return null;
+  return { boilingPointK: s.boilingPointK ?? null, triplePointK: s.triplePointK ?? null, citation: s.phasePointsCitation ?? null };
 }
 
 /** The request's `equilibrium` part for a case, or undefined when the case has none. */

@@ -4,6 +4,8 @@ import { Op, type Transaction } from "sequelize";
 import { requirePermission, requireSameTeam, type Actor } from "@/lib/auth/guards";
 import { can } from "@/lib/auth/permissions";
 import { reactionText, termKey } from "@/lib/cases/balance";
+import { CAUTION_TEXT } from "@/lib/cases/caution";
+import { fromKelvin, TEMPERATURE_COLUMN, type DisplayUnit } from "@/lib/cases/display-unit";
 import { canonicalSha256 } from "@/lib/cases/hash";
 import { formatQuantity } from "@/lib/cases/temperature";
 import { db, models } from "@/lib/db";
@@ -129,6 +131,8 @@ export function buildRequest(inputs: CaseInputs, pins: readonly PinnedVersion[],
     temperatures: inputs.temperatures,
     referenceK: inputs.referenceK,
     toleranceKJ: inputs.toleranceKJ,
+    // Which species moves ΔrG: drawn on the case page and printed in the report.
+    include: ["contributions"],
   };
   if (inputs.toleranceKFactor !== null) request.toleranceKFactor = inputs.toleranceKFactor;
   const equilibrium = equilibriumRequestOf(inputs.equilibrium);
@@ -350,21 +354,25 @@ export async function getResults(actor: Actor | null, caseId: number, revision?:
 /** The points as CSV: the API's field names as headers and its numbers written in full (shortest round-trip form). */
 export const CSV_COLUMNS = ["tK", "dCpJ", "dHkJ", "dSJ", "dGkJ", "naiveDGkJ", "diffKJ", "lnK", "naiveLnK", "log10K", "naiveLog10K", "K", "exceedsTolerance"] as const;
 
-export function resultCsv(result: EvaluateResult): string {
+/**
+ * `unit` converts the temperature column only, renamed with its unit (`tDegC`, `tDegF`); every
+ * other column keeps the API's name and number. K (`tK`) is the default.
+ */
+export function resultCsv(result: EvaluateResult, unit: DisplayUnit = "K"): string {
   // Uncertainty and equilibrium columns follow the points' own, only when the result has them.
   const extra = equilibriumCsvColumns(result);
   const rows = result.points.map((p, i) => [
-    ...CSV_COLUMNS.map((c) => (p as unknown as Record<string, string | number | boolean | null>)[c]),
+    ...CSV_COLUMNS.map((c) => (c === "tK" ? Number(fromKelvin(p.tK, unit).toPrecision(15)) : (p as unknown as Record<string, string | number | boolean | null>)[c])),
     ...extra.map((col) => col.values[i] as string | number | boolean | null | undefined),
   ]);
-  return toCsv([...CSV_COLUMNS, ...extra.map((c) => c.header)], rows);
+  return toCsv([...CSV_COLUMNS.map((c) => (c === "tK" ? TEMPERATURE_COLUMN[unit] : c)), ...extra.map((c) => c.header)], rows);
 }
 
-export async function exportCsv(actor: Actor | null, caseId: number, revision?: number): Promise<{ filename: string; csv: string }> {
+export async function exportCsv(actor: Actor | null, caseId: number, revision?: number, unit: DisplayUnit = "K"): Promise<{ filename: string; csv: string }> {
   const results = await getResults(actor, caseId, revision);
   const slug = results.title.toLowerCase().replace(/[^a-z0-9]+/g, "-").replace(/^-|-$/g, "").slice(0, 60) || "case";
-  const suffix = results.revision ? `-r${results.revision}` : "-draft";
-  return { filename: `heatpath-case-${caseId}-${slug}${suffix}.csv`, csv: resultCsv(results.result) };
+  const suffix = (results.revision ? `-r${results.revision}` : "-draft") + (unit === "K" ? "" : `-${unit}`);
+  return { filename: `heatpath-case-${caseId}-${slug}${suffix}.csv`, csv: resultCsv(results.result, unit) };
 }
 
 // ---------------------------------------------------------------- diff
@@ -593,7 +601,7 @@ async function requestReview(transaction: Transaction, me: Actor, row: Case, sna
         ``,
         `Open the case: ${caseUrl(row.id)}`,
         ``,
-        `Screening estimates for ideal standard states; decisions that affect safety follow the organisation's process-safety review.`,
+        CAUTION_TEXT,
       ].join("\n"),
     },
     { exceptUserId: row.authorId },

@@ -1,4 +1,5 @@
 import "server-only";
+import { phasePointsOf } from "@/lib/cases/equilibrium";
 import { Op, type Transaction, type WhereOptions } from "sequelize";
 import { can } from "@/lib/auth/permissions";
 import { requireNotAuthor, requirePermission, requireSameTeam, type Actor } from "@/lib/auth/guards";
@@ -30,7 +31,16 @@ import { notifyDecided, notifyProposed } from "./library-mail";
 // ------------------------------------------------------------------ DTOs
 
 export type Scope = "reference" | "team";
-export type SpeciesDto = { id: number; formula: string; displayName: string; elements: Record<string, number>; molarMassGPerMol: number; scope: Scope };
+export type SpeciesDto = {
+  id: number;
+  formula: string;
+  displayName: string;
+  elements: Record<string, number>;
+  molarMassGPerMol: number;
+  scope: Scope;
+  /** Normal boiling point and triple point (K) with their source, where the library has them. */
+  phasePoints: { boilingPointK: number | null; triplePointK: number | null; citation: string | null } | null;
+};
 export type ModelSummaryDto = { id: number; name: string; family: string; variant: string | null; scope: Scope; copiedFromId: number | null };
 export type VersionSummaryDto = {
   id: number;
@@ -81,7 +91,7 @@ export type VersionAuditDto = { id: number; action: string; actorName: string | 
 const scopeOf = (teamId: number | null): Scope => (teamId === null ? "reference" : "team");
 
 function speciesDto(s: Species): SpeciesDto {
-  return { id: s.id, formula: s.formula, displayName: s.displayName, elements: s.elements, molarMassGPerMol: s.molarMassGPerMol, scope: scopeOf(s.teamId) };
+  return { id: s.id, formula: s.formula, displayName: s.displayName, elements: s.elements, molarMassGPerMol: s.molarMassGPerMol, scope: scopeOf(s.teamId), phasePoints: phasePointsOf(s) ?? null };
 }
 
 function modelSummary(m: CpModel): ModelSummaryDto {
@@ -608,7 +618,9 @@ export async function copyReferenceVersion(actor: Actor | null, id: number): Pro
 // ------------------------------------------------------------------ curves
 
 export type CurvePoint = { tK: number; cpJ: number; hkJ: number; sJ: number; gkJ: number; phase: string; extrapolated: boolean };
-export type Curve = { points: CurvePoint[]; chains: { phase: string; tminK: number; tmaxK: number }[]; warnings: EngineWarning[]; fromK: number; toK: number };
+/** Where the stable phase changes along the curve (lowest G, or the stated transition), from the engine's phase-change-in-span warnings. */
+export type PhaseChange = { tK: number; from: string; to: string };
+export type Curve = { points: CurvePoint[]; chains: { phase: string; tminK: number; tmaxK: number }[]; phaseChanges: PhaseChange[]; warnings: EngineWarning[]; fromK: number; toK: number };
 
 /** A plotting range around the model's own range: a little beyond it, so extrapolated stretches show. */
 export function defaultRange(data: SpeciesInput): [number, number] {
@@ -635,7 +647,12 @@ export function computeCurve(data: SpeciesInput, options: { fromK?: number; toK?
     const chain = chains.find((c) => c.phase === r.phase);
     return { tK: r.tK, cpJ: r.cpJ, hkJ: r.hkJ, sJ: r.sJ, gkJ: r.gkJ, phase: r.phase, extrapolated: !chain || r.tK < chain.tminK - 1e-9 || r.tK > chain.tmaxK + 1e-9 };
   });
-  return { points, chains, warnings, fromK, toK };
+  // The engine names each change of the stable phase it makes inside the span (lowest G, or the stated transition).
+  const phaseChanges: PhaseChange[] = warnings.flatMap((w) => {
+    const x = w as { code: string; tK?: number; from?: string; to?: string };
+    return x.code === "phase-change-in-span" && x.tK !== undefined && x.from && x.to ? [{ tK: x.tK, from: x.from, to: x.to }] : [];
+  });
+  return { points, chains, phaseChanges, warnings, fromK, toK };
 }
 
 /** The editor's live curve: any signed-in member may compute; nothing is stored. */

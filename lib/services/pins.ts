@@ -2,6 +2,7 @@ import "server-only";
 import { Op, type Transaction } from "sequelize";
 import { requirePermission, type Actor } from "@/lib/auth/guards";
 import { termKey } from "@/lib/cases/balance";
+import { phasePointsOf } from "@/lib/cases/equilibrium";
 import { models } from "@/lib/db";
 import { AppError } from "@/lib/errors";
 import type { CaseTerm } from "@/lib/validation/cases";
@@ -139,6 +140,7 @@ export async function loadPins(teamId: number, terms: readonly CaseTerm[], optio
       citation: v.citation,
       data: v.data,
       uncertainty: v.uncertainty ?? null,
+      phasePoints: phasePointsOf(s),
       ...(s.critical ? { critical: { tcK: s.critical.tcK, pcBar: s.critical.pcBar, omega: s.critical.omega } } : {}),
     };
   });

@@ -2,7 +2,7 @@
  * Reaction properties, corrected (Kirchhoff, numerically integrated) against naive
  * (ΔrH(Tref) − T·ΔrS(Tref)), crossovers and the sign case: the engine's main door.
  */
-import { ENGINE_VERSION, HIGH_PRESSURE_BAR, R, T298 } from "./constants";
+import { ENGINE_VERSION, HIGH_PRESSURE_BAR, R as GAS_CONSTANT, T298 } from "./constants";
 import { refuse } from "./errors";
 import { checkBalance, parseReaction } from "./formula";
 import { inSupportedRange, parseTemperatureGrid } from "./grid";
@@ -25,6 +25,8 @@ import { parseMolarEnergyKJ, parsePressureBar, parseTemperatureK } from "./units
 import { equilibriumOnGrid, type EquilibriumInfo, type EquilibriumPoint } from "./equilibrium";
 import { adiabaticOutlet, type AdiabaticResult } from "./adiabatic";
 import { combine, parseUncertainty, sigmaG, sigmaGNaive, type SpeciesUncertainty } from "./uncertainty";
+import { speciesContributions } from "./contributions";
+import { belowBoilingPointWarning, condensationWarnings } from "./condensation";
 
 export interface EvaluatePoint {
   tK: number;
@@ -63,6 +65,9 @@ export interface EvaluateResult {
   crossover: { naiveK: number | null; naiveInSpan: boolean; correctedK: number[] };
   signCase: { code: SignCaseCode; text: string; correctedAgrees: boolean };
   species?: Record<string, SpeciesRow[]>;
+  /** With include "contributions": per species key, kJ/mol per grid point (lib/thermo/contributions.ts). */
+  contributions?: Record<string, number[]>;
+  contributionsSigma?: Record<string, number[]>;
   uncertainty?: UncertaintySummary;
   equilibrium?: EquilibriumPoint[];
   equilibriumInfo?: EquilibriumInfo;
@@ -82,6 +87,8 @@ export const SIGN_CASES: Record<SignCaseCode, string> = {
 };
 
 const LN10 = Math.LN10;
+/** R read once: under a CommonJS transform an imported binding is an accessor, read on every use in the per-point loops. */
+const R = GAS_CONSTANT;
 
 interface Term {
   key: string;
@@ -115,6 +122,44 @@ function touchTolerance(terms: Term[], T: number): number {
     size += Math.abs(t.nu) * (Math.abs(v.hJ) + T * Math.abs(v.sJ));
   }
   return 1e-12 * size;
+}
+
+interface Sigmas {
+  dGkJ: Float64Array;
+  log10K: Float64Array;
+  naiveDGkJ: Float64Array;
+  exceeds: Uint8Array;
+}
+
+/** The point objects, built once from the typed arrays (one object shape per call). */
+function buildPoints(
+  n: number, T: Float64Array, dCp: Float64Array, dH: Float64Array, dS: Float64Array, dG: Float64Array, naive: Float64Array,
+  tolJ: number, tolLn: number, sigmas: Sigmas | null,
+): EvaluatePoint[] {
+  const points: EvaluatePoint[] = new Array(n);
+  for (let i = 0; i < n; i++) {
+    const g = dG[i];
+    const gn = naive[i];
+    const t = T[i];
+    const lnK = -g / (R * t);
+    const naiveLnK = -gn / (R * t);
+    const K = Math.exp(lnK);
+    const exceedsTolerance = Math.abs(gn - g) > tolJ || Math.abs(naiveLnK - lnK) > tolLn;
+    points[i] = sigmas === null
+      ? {
+          tK: t, dCpJ: dCp[i], dHkJ: dH[i] / 1000, dSJ: dS[i], dGkJ: g / 1000, lnK, log10K: lnK / LN10,
+          K: Number.isFinite(K) && K > 0 ? K : null, naiveDGkJ: gn / 1000, naiveLnK, naiveLog10K: naiveLnK / LN10,
+          diffKJ: (gn - g) / 1000, exceedsTolerance,
+        }
+      : {
+          tK: t, dCpJ: dCp[i], dHkJ: dH[i] / 1000, dSJ: dS[i], dGkJ: g / 1000, lnK, log10K: lnK / LN10,
+          K: Number.isFinite(K) && K > 0 ? K : null, naiveDGkJ: gn / 1000, naiveLnK, naiveLog10K: naiveLnK / LN10,
+          diffKJ: (gn - g) / 1000, exceedsTolerance,
+          sigmaDGkJ: sigmas.dGkJ[i], sigmaLog10K: sigmas.log10K[i], naiveSigmaDGkJ: sigmas.naiveDGkJ[i],
+          naiveExceedsUncertainty: sigmas.exceeds[i] === 1,
+        };
+  }
+  return points;
 }
 
 /** Refuses (`nonfinite-value`) a reaction value that overflowed although every species' values are finite. */
@@ -169,6 +214,8 @@ function evaluateWithin(request: unknown): EvaluateResult {
     key: t.key, nu: t.nu, phase: t.phase, model: buildSpeciesModel(t.key, req.species[t.key], referenceK),
   }));
 
+  // Per-temperature values stay in typed arrays through the pipeline; the point objects are
+  // built once, at the end.
   const dCp = new Float64Array(n);
   const dH = new Float64Array(n);
   const dS = new Float64Array(n);
@@ -176,14 +223,24 @@ function evaluateWithin(request: unknown): EvaluateResult {
   const warnings: EngineWarning[] = [];
   for (const term of terms) {
     const g = termOnGrid(term.model, term.phase, T, term.model.chains.size > 1);
-    checkFiniteGrid(term.key, g, T);
-    grids.push(g);
+    const { cp, h, s } = g;
+    const nu = term.nu;
+    // x * 0 is 0 for a finite x and NaN otherwise: z stays 0 exactly when every value is finite.
+    let z = 0;
     for (let i = 0; i < n; i++) {
-      dCp[i] += term.nu * g.cp[i];
-      dH[i] += term.nu * g.h[i];
-      dS[i] += term.nu * g.s[i];
+      const c = cp[i];
+      const hh = h[i];
+      const ss = s[i];
+      z += c * 0 + hh * 0 + ss * 0;
+      dCp[i] += nu * c;
+      dH[i] += nu * hh;
+      dS[i] += nu * ss;
     }
-    warnings.push(...termWarnings(term.model, term.phase, T, g, referenceK));
+    if (z !== 0) checkFiniteGrid(term.key, g, T);
+    grids.push(g);
+    for (const w of termWarnings(term.model, term.phase, T, g, referenceK)) warnings.push(w);
+    const cold = belowBoilingPointWarning(term.key, req.species[term.key], T, g);
+    if (cold) warnings.push(cold);
   }
 
   const ref = reactionAt(terms, referenceK);
@@ -196,57 +253,48 @@ function evaluateWithin(request: unknown): EvaluateResult {
   const tolLn = req.toleranceKFactor === undefined ? Infinity : Math.log(req.toleranceKFactor);
   const dG = new Float64Array(n);
   const naive = new Float64Array(n);
-  const points: EvaluatePoint[] = new Array(n);
+  let z = 0;
   for (let i = 0; i < n; i++) {
     const t = T[i];
     const g = dH[i] - t * dS[i];
     const gn = ref.dH - t * ref.dS;
-    dG[i] = g;
-    naive[i] = gn;
     const lnK = -g / (R * t);
     const naiveLnK = -gn / (R * t);
-    const K = Math.exp(lnK);
-    points[i] = {
-      tK: t,
-      dCpJ: dCp[i],
-      dHkJ: dH[i] / 1000,
-      dSJ: dS[i],
-      dGkJ: g / 1000,
-      lnK,
-      log10K: lnK / LN10,
-      K: Number.isFinite(K) && K > 0 ? K : null,
-      naiveDGkJ: gn / 1000,
-      naiveLnK,
-      naiveLog10K: naiveLnK / LN10,
-      diffKJ: (gn - g) / 1000,
-      exceedsTolerance: Math.abs(gn - g) > tolJ || Math.abs(naiveLnK - lnK) > tolLn,
-    };
+    dG[i] = g;
+    naive[i] = gn;
+    z += dCp[i] * 0 + dH[i] * 0 + dS[i] * 0 + g * 0 + lnK * 0 + naiveLnK * 0 + gn * 0 + (gn - g) * 0;
   }
-
-  checkFinitePoints(points, ref);
+  // Only a value that is not finite builds the points here, to name it.
+  if (z !== 0 || !(Number.isFinite(ref.dCp) && Number.isFinite(ref.dH) && Number.isFinite(ref.dS) && Number.isFinite(ref.dG))) {
+    checkFinitePoints(buildPoints(n, T, dCp, dH, dS, dG, naive, tolJ, tolLn, null), ref);
+  }
 
   const uncertain = terms.map((t) => parseUncertainty(t.key, req.species[t.key]));
   let uncertaintySummary: UncertaintySummary | undefined;
+  let sigmas: Sigmas | null = null;
   if (uncertain.some((u) => u !== null)) {
     const refs = terms.map((t) => termAt(t.model, t.phase, referenceK));
     const nus = terms.map((t) => t.nu);
     const naiveExceedsK: number[] = [];
-    const sig = new Float64Array(terms.length);
-    const sigN = new Float64Array(terms.length);
+    const m = terms.length;
+    const sig = new Float64Array(m);
+    const sigN = new Float64Array(m);
+    sigmas = { dGkJ: new Float64Array(n), log10K: new Float64Array(n), naiveDGkJ: new Float64Array(n), exceeds: new Uint8Array(n) };
     for (let i = 0; i < n; i++) {
       const t = T[i];
-      terms.forEach((term, k) => {
+      for (let k = 0; k < m; k++) {
         const u = uncertain[k];
         sig[k] = u ? sigmaG(u, t, grids[k].h[i], grids[k].s[i], refs[k].hJ, refs[k].sJ) : 0;
         sigN[k] = u ? sigmaGNaive(u, t) : 0;
-      });
-      const p = points[i];
+      }
       const sG = combine(nus, sig);
-      p.sigmaDGkJ = sG / 1000;
-      p.sigmaLog10K = sG / (R * t * LN10);
-      p.naiveSigmaDGkJ = combine(nus, sigN) / 1000;
-      p.naiveExceedsUncertainty = Math.abs(p.diffKJ) > p.sigmaDGkJ;
-      if (p.naiveExceedsUncertainty) naiveExceedsK.push(t);
+      const sigmaDGkJ = sG / 1000;
+      sigmas.dGkJ[i] = sigmaDGkJ;
+      sigmas.log10K[i] = sG / (R * t * LN10);
+      sigmas.naiveDGkJ[i] = combine(nus, sigN) / 1000;
+      const exceeds = Math.abs((naive[i] - dG[i]) / 1000) > sigmaDGkJ;
+      sigmas.exceeds[i] = exceeds ? 1 : 0;
+      if (exceeds) naiveExceedsK.push(t);
     }
     uncertaintySummary = {
       basis: UNCERTAINTY_BASIS,
@@ -255,37 +303,45 @@ function evaluateWithin(request: unknown): EvaluateResult {
     };
   }
 
-  // Corrected crossovers: bracket on the grid and at the extrema of ΔrG (ΔrS = 0).
+  // Corrected crossovers: bracket on the grid and at the extrema of ΔrG (ΔrS = 0). The nodes
+  // are the grid temperatures plus one per sign change of ΔrS between neighbours.
   const dGAt = (t: number) => reactionAt(terms, t).dG;
   const dSAt = (t: number) => reactionAt(terms, t).dS;
-  const nodes: { t: number; g: number }[] = [];
-  const extrema = new Set<number>();
-  const isExtremum = (t: number) => extrema.has(t);
+  let changes = 0;
+  for (let i = 0; i + 1 < n; i++) if (dS[i] * dS[i + 1] < 0) changes++;
+  const nodeT = new Float64Array(n + changes);
+  const nodeG = new Float64Array(n + changes);
+  const nodeExtremum = new Uint8Array(n + changes);
+  let nn = 0;
   for (let i = 0; i < n; i++) {
-    nodes.push({ t: T[i], g: dG[i] });
-    if (dS[i] === 0) extrema.add(T[i]);
+    nodeT[nn] = T[i];
+    nodeG[nn] = dG[i];
+    nodeExtremum[nn++] = dS[i] === 0 ? 1 : 0;
     if (i + 1 < n && dS[i] * dS[i + 1] < 0) {
       const te = brent(dSAt, T[i], T[i + 1], dS[i], dS[i + 1]);
       if (te > T[i] && te < T[i + 1]) {
-        nodes.push({ t: te, g: dGAt(te) });
-        extrema.add(te);
+        nodeT[nn] = te;
+        nodeG[nn] = dGAt(te);
+        nodeExtremum[nn++] = 1;
       }
     }
   }
   // A double root: ΔrG touches zero at an extremum (ΔrS = 0) without changing sign. An extremum
   // whose |ΔrG| is within the rounding of the terms' H and T·S counts as a root there.
-  for (const node of nodes) {
-    if (node.g !== 0 && isExtremum(node.t) && Math.abs(node.g) <= touchTolerance(terms, node.t)) node.g = 0;
+  for (let j = 0; j < nn; j++) {
+    if (nodeG[j] !== 0 && nodeExtremum[j] && Math.abs(nodeG[j]) <= touchTolerance(terms, nodeT[j])) nodeG[j] = 0;
   }
   const roots: number[] = [];
-  for (let i = 0; i < nodes.length; i++) {
-    const a = nodes[i];
-    if (a.g === 0) {
-      roots.push(a.t);
+  for (let j = 0; j < nn; j++) {
+    const ga = nodeG[j];
+    if (ga === 0) {
+      roots.push(nodeT[j]);
       continue;
     }
-    const b = nodes[i + 1];
-    if (b && b.g !== 0 && a.g * b.g < 0) roots.push(brent(dGAt, a.t, b.t, a.g, b.g, 1e-9));
+    if (j + 1 < nn) {
+      const gb = nodeG[j + 1];
+      if (gb !== 0 && ga * gb < 0) roots.push(brent(dGAt, nodeT[j], nodeT[j + 1], ga, gb, 1e-9));
+    }
   }
 
   const naiveK = ref.dH * ref.dS > 0 ? ref.dH / ref.dS : null;
@@ -310,7 +366,7 @@ function evaluateWithin(request: unknown): EvaluateResult {
   }
 
   const result: EvaluateResult = {
-    points,
+    points: buildPoints(n, T, dCp, dH, dS, dG, naive, tolJ, tolLn, sigmas),
     reference: {
       tK: referenceK, dCpJ: ref.dCp, dHkJ: ref.dH / 1000, dSJ: ref.dS, dGkJ: ref.dG / 1000,
       lnK: -ref.dG / (R * referenceK), log10K: -ref.dG / (R * referenceK) / LN10,
@@ -331,6 +387,7 @@ function evaluateWithin(request: unknown): EvaluateResult {
     result.equilibrium = eq.points;
     result.equilibriumInfo = eq.info;
     warnings.push(...eq.warnings);
+    warnings.push(...condensationWarnings(req.species, eq.points, eq.info));
     if (req.adiabatic) {
       const ad = adiabaticOutlet({
         adiabatic: req.adiabatic, context: eq.context, models, referenceK,
@@ -356,6 +413,7 @@ function evaluateWithin(request: unknown): EvaluateResult {
     });
     result.species = species;
   }
+  if (req.include?.includes("contributions")) Object.assign(result, speciesContributions(terms, grids, T, referenceK, uncertain));
   // Warnings and the engine version close the result, after any optional sections.
   const { warnings: w, engine } = result;
   delete (result as Partial<EvaluateResult>).warnings;

@@ -162,6 +162,10 @@ export const speciesSchema = strict({
   /** Standard pressure of the source (Pa when a bare number; "1 atm" is read). */
   standardPressurePa: quantitySchema.optional(),
   uncertainty: speciesUncertaintySchema.optional(),
+  /** Normal boiling point (at 1 atm), K or a string with a unit; screens gas use below it (lib/thermo/condensation.ts). */
+  boilingPointK: quantitySchema.optional(),
+  /** Triple point, K or a string with a unit; below it the condensed phase is a solid. */
+  triplePointK: quantitySchema.optional(),
   critical: criticalSchema.optional(),
 });
 
@@ -199,7 +203,7 @@ export const evaluateRequestSchema = strict({
   referenceK: quantitySchema.optional(),
   toleranceKJ: quantitySchema.optional(),
   toleranceKFactor: z.number().gt(1, { error: "expected a factor above 1" }).optional(),
-  include: z.array(z.enum(["species"])).optional(),
+  include: z.array(z.enum(["species", "contributions"])).optional(),
   /** Operating pressure, used only for the `high-pressure` warning (K stays the ideal-gas, 1 bar one). */
   pressureBar: quantitySchema.optional(),
   equilibrium: strict({

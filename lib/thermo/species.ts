@@ -572,17 +572,40 @@ export function termWarnings(
   const out: EngineWarning[] = [];
   const n = T.length;
   const chainsByName = model.chains;
-  // Extrapolation: per side, the furthest grid temperature outside the chain in use there.
+  // The grid in runs of one phase (one run when the term has one phase): the warnings below
+  // look at run ends, not at every grid temperature.
+  const runChains = grid.phases.map((p) => chainsByName.get(p)!);
+  const runStart: number[] = [];
+  const runPhase: number[] = [];
+  if (grid.phases.length === 1) {
+    if (n > 0) {
+      runStart.push(0);
+      runPhase.push(grid.phaseIndex[0]);
+    }
+  } else {
+    const pi = grid.phaseIndex;
+    for (let i = 0; i < n; i++) {
+      if (i === 0 || pi[i] !== pi[i - 1]) {
+        runStart.push(i);
+        runPhase.push(pi[i]);
+      }
+    }
+  }
+  runStart.push(n);
+  // Extrapolation: per side, the furthest grid temperature outside the chain in use there. The
+  // grid ascends, so within a run that is its first (below) or last (above) temperature.
   const worst: Record<"below" | "above", { by: number; tK: number; limit: number; phase: string } | null> = { below: null, above: null };
-  for (let i = 0; i < n; i++) {
-    const chain = chainsByName.get(grid.phases[grid.phaseIndex[i]])!;
-    const t = T[i];
-    if (t < chain.tminK && !covers(chain, t)) {
-      const by = chain.tminK - t;
-      if (!worst.below || by > worst.below.by) worst.below = { by, tK: t, limit: chain.tminK, phase: chain.phase };
-    } else if (t > chain.tmaxK && !covers(chain, t)) {
-      const by = t - chain.tmaxK;
-      if (!worst.above || by > worst.above.by) worst.above = { by, tK: t, limit: chain.tmaxK, phase: chain.phase };
+  for (let r = 0; r + 1 < runStart.length; r++) {
+    const chain = runChains[runPhase[r]];
+    const tLo = T[runStart[r]];
+    const tHi = T[runStart[r + 1] - 1];
+    if (tLo < chain.tminK && !covers(chain, tLo)) {
+      const by = chain.tminK - tLo;
+      if (!worst.below || by > worst.below.by) worst.below = { by, tK: tLo, limit: chain.tminK, phase: chain.phase };
+    }
+    if (tHi > chain.tmaxK && !covers(chain, tHi)) {
+      const by = tHi - chain.tmaxK;
+      if (!worst.above || by > worst.above.by) worst.above = { by, tK: tHi, limit: chain.tmaxK, phase: chain.phase };
     }
   }
   for (const side of ["below", "above"] as const) {
@@ -633,10 +656,10 @@ export function termWarnings(
     }
   }
   if (phase === undefined) {
-    for (let i = 1; i < n; i++) {
-      const a = grid.phaseIndex[i - 1];
-      const b = grid.phaseIndex[i];
-      if (a === b) continue;
+    for (let r = 1; r + 1 < runStart.length; r++) {
+      const i = runStart[r];
+      const a = runPhase[r - 1];
+      const b = runPhase[r];
       const ca = chainsByName.get(grid.phases[a])!;
       const cb = chainsByName.get(grid.phases[b])!;
       const f = (t: number) => {
@@ -676,7 +699,7 @@ export function termWarnings(
   }
   const lo = Math.min(T[0], referenceK ?? T[0]);
   const hi = Math.max(T[n - 1], referenceK ?? T[n - 1]);
-  const used = new Set(phase === undefined ? Array.from(grid.phaseIndex, (k) => grid.phases[k]) : [phase]);
+  const used = new Set(phase === undefined ? runPhase.map((k) => grid.phases[k]) : [phase]);
   for (const j of model.jumps) {
     if (!used.has(j.phase) || j.tK < lo || j.tK > hi) continue;
     out.push({

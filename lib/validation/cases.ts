@@ -32,8 +32,30 @@ export const termSchema = strictObject({
 });
 export type CaseTerm = z.infer<typeof termSchema>;
 
-const spanSchema = strictObject({ fromK: quantity, toK: quantity, stepK: quantity });
-const listSchema = strictObject({ listK: z.array(quantity).min(1, "Enter at least one temperature.").max(MAX_CASE_POINTS, `Use at most ${MAX_CASE_POINTS} temperatures.`) });
+/*
+ * Each temperature is checked on its own field, so every wrong field is flagged in one pass
+ * (an object-level refinement would wait until every field had the right type).
+ */
+const absolute = quantity.superRefine((q, ctx) => {
+  if (splitQuantity(q as Quantity) === null) return;
+  const k = toKelvin(q as Quantity);
+  if (!(k > 0)) ctx.addIssue({ code: "custom", message: `Temperatures must be above 0 K (this is ${Number(k.toFixed(6))} K).` });
+});
+const difference = quantity.superRefine((q, ctx) => {
+  if (splitQuantity(q as Quantity) === null) return;
+  if (!(toKelvinDifference(q as Quantity) > 0)) ctx.addIssue({ code: "custom", message: "The step must be positive." });
+});
+
+const spanSchema = strictObject({ fromK: absolute, toK: absolute, stepK: difference }).superRefine((v, ctx) => {
+  const from = toKelvin(v.fromK as Quantity);
+  const to = toKelvin(v.toK as Quantity);
+  const step = toKelvinDifference(v.stepK as Quantity);
+  if (from > 0 && to > 0 && to < from) ctx.addIssue({ code: "custom", path: ["toK"], message: "The span must end above where it starts." });
+  if (step > 0 && to >= from && (to - from) / step + 2 > MAX_CASE_POINTS) {
+    ctx.addIssue({ code: "custom", path: ["stepK"], message: `That gives more than ${MAX_CASE_POINTS} points; use a larger step.` });
+  }
+});
+const listSchema = strictObject({ listK: z.array(absolute).min(1, "Enter at least one temperature.").max(MAX_CASE_POINTS, `Use at most ${MAX_CASE_POINTS} temperatures.`) });
 export const caseTemperaturesSchema = z.union([spanSchema, listSchema], { error: "Give a span (from, to, step) or a list of temperatures." });
 export type CaseTemperatures = z.infer<typeof caseTemperaturesSchema>;
 
@@ -43,7 +65,7 @@ const caseFields = {
   notes: z.string().trim().max(5000, "Use at most 5000 characters."),
   terms: z.array(termSchema).min(2, "A reaction needs at least two species.").max(20, "Use at most 20 species."),
   temperatures: caseTemperaturesSchema,
-  referenceK: quantity,
+  referenceK: absolute,
   toleranceKJ: z.number({ error: "Enter a tolerance in kJ/mol." }).min(0, "The tolerance cannot be negative.").max(1000, "Use at most 1000 kJ/mol."),
   toleranceKFactor: z.number({ error: "Enter a factor above 1." }).gt(1, "A factor on K must be above 1.").max(1e6, "Use at most 1e6.").nullable(),
   /** How far the reaction goes from a feed (optional; see lib/validation/equilibrium.ts). */
@@ -72,26 +94,6 @@ export const caseInputSchema = strictObject({
     if (balance && !balance.ok) ctx.addIssue({ code: "custom", path: ["terms"], message: balance.message });
     if (v.equilibrium) {
       for (const issue of feedKeyIssues(v.terms.map(termKey), v.equilibrium)) ctx.addIssue({ code: "custom", path: ["equilibrium", ...issue.path], message: issue.message });
-    }
-
-    const positive = (q: Quantity, path: (string | number)[]) => {
-      const k = toKelvin(q);
-      if (!(k > 0)) ctx.addIssue({ code: "custom", path, message: `Temperatures must be above 0 K (this is ${Number(k.toFixed(6))} K).` });
-      return k;
-    };
-    positive(v.referenceK, ["referenceK"]);
-    const temps = v.temperatures;
-    if ("listK" in temps) {
-      temps.listK.forEach((q, i) => positive(q, ["temperatures", "listK", i]));
-    } else {
-      const from = positive(temps.fromK, ["temperatures", "fromK"]);
-      const to = positive(temps.toK, ["temperatures", "toK"]);
-      const step = toKelvinDifference(temps.stepK);
-      if (to < from) ctx.addIssue({ code: "custom", path: ["temperatures", "toK"], message: "The span must end above where it starts." });
-      if (!(step > 0)) ctx.addIssue({ code: "custom", path: ["temperatures", "stepK"], message: "The step must be positive." });
-      else if (to >= from && (to - from) / step + 2 > MAX_CASE_POINTS) {
-        ctx.addIssue({ code: "custom", path: ["temperatures", "stepK"], message: `That gives more than ${MAX_CASE_POINTS} points; use a larger step.` });
-      }
     }
   });
 export type CaseInput = z.infer<typeof caseInputSchema>;
@@ -146,7 +148,11 @@ export type CommentInput = z.infer<typeof commentSchema>;
 export const revisionParamSchema = z.coerce.number({ error: "Expected a revision number." }).int().positive("Expected a revision number.");
 /** Without from/to: the last two revisions. */
 export const diffQuerySchema = strictObject({ from: revisionParamSchema.optional(), to: revisionParamSchema.optional() });
-export const exportQuerySchema = strictObject({ revision: revisionParamSchema.optional() });
+export const exportQuerySchema = strictObject({
+  revision: revisionParamSchema.optional(),
+  /** Temperature column of the CSV: K (tK, the default), degC (tDegC) or degF (tDegF). */
+  unit: z.enum(["K", "degC", "degF"], { error: "Use a unit of K, degC or degF." }).optional(),
+});
 /** GET …/results: `format=columns` gives `result.columns` instead of `result.points` (lib/thermo/columns.ts). */
 export const resultsQuerySchema = strictObject({ revision: revisionParamSchema.optional(), format: z.enum(["rows", "columns"]).optional() });
 export const pinQuerySchema = strictObject({ formula: searchText(60).pipe(z.string().min(1)).optional() });

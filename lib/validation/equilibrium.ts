@@ -1,5 +1,6 @@
 /** The equilibrium part of a case (feed, pressure, key species, optional simultaneous set), shared by the panel form and the services. zod only. */
 import { z } from "zod";
+import { checkFeedUnit, checkPressure, checkReactionLine, checkSpeciesKey } from "@/lib/cases/equilibrium-form";
 import { strictObject } from "@/lib/validation/strict";
 
 const speciesKey = z.string().trim().min(1, "Name a species.").max(80, "Use at most 80 characters.");
@@ -33,6 +34,19 @@ export const caseEquilibriumSchema = strictObject({
     inert: z.array(speciesKey).max(20, "Use at most 20 inert species.").default([]),
   })
   .superRefine((v, ctx) => {
+    // The panel's own checks, so the API refuses an unknown element, unit or a malformed line too.
+    for (const k of Object.keys(v.feed)) {
+      const bad = checkSpeciesKey(k);
+      if (bad) ctx.addIssue({ code: "custom", path: ["feed", k], message: bad });
+    }
+    const unit = checkFeedUnit(v.feedUnit);
+    if (unit) ctx.addIssue({ code: "custom", path: ["feedUnit"], message: unit });
+    const pressure = checkPressure(v.pressure);
+    if (pressure) ctx.addIssue({ code: "custom", path: ["pressure"], message: pressure });
+    v.reactions.forEach((r, i) => {
+      const bad = checkReactionLine(r);
+      if (bad) ctx.addIssue({ code: "custom", path: ["reactions", i], message: bad });
+    });
     if (!Object.values(v.feed).some((n) => n > 0)) ctx.addIssue({ code: "custom", path: ["feed"], message: "Give at least one species a positive amount." });
     if (v.key !== null && !(v.feed[v.key] > 0)) ctx.addIssue({ code: "custom", path: ["key"], message: "The key species needs an amount in the feed." });
   });

@@ -67,4 +67,28 @@ describe("CSV export", () => {
     expect(chosen.csv).toBe(latest.csv);
     expect(chosen.disposition).toMatch(/-r1\.csv"/);
   });
+
+  it("converts the temperature column only, renamed with its unit, when asked (?unit=degC, degF); K stays the default", async () => {
+    const erin = await signInAs("engineer");
+    const c = await createCase(erin, caseInputSchema.parse(shiftCase(pins, { temperatures: { fromK: "200 degC", toK: "300 degC", stepK: "50 degC" } })));
+    const { results } = await both(c.id);
+    const get = async (q: string) => exportRoute.GET(jsonRequest("GET", `/api/v1/cases/${c.id}/export${q}`), ctx({ id: String(c.id) }) as { params: Promise<{ id: string }> });
+    for (const [unit, column, expected] of [
+      ["degC", "tDegC", [200, 250, 300]],
+      // t/°F = 1.8·t/°C + 32 (common practice)
+      ["degF", "tDegF", [392, 482, 572]],
+    ] as const) {
+      const response = await get(`?unit=${unit}`);
+      expect(response.status).toBe(200);
+      expect(response.headers.get("content-disposition")).toContain(`-${unit}.csv`);
+      const [header, ...rows] = Papa.parse<string[]>((await response.text()).trim(), { skipEmptyLines: true }).data;
+      expect(header).toEqual([column, ...CSV_COLUMNS.slice(1)]);
+      rows.forEach((row, i) => {
+        expect(Number(row[0])).toBeCloseTo(expected[i], 9);
+        expect(Number(row[4])).toBe(results.result.points[i].dGkJ);
+      });
+    }
+    expect((await get("?unit=kelvin")).status).toBe(422);
+    expect((await get("?units=degC")).status).toBe(422);
+  });
 });

@@ -50,8 +50,8 @@ describe("library API", () => {
     expect(res.status).toBe(200);
     expect(res.headers.get("content-disposition")).toMatch(/^attachment; filename="heatpath-library-all-sets-approved-\d{4}-\d{2}-\d{2}\.json"$/);
     const file = (await bodyOf(res)) as { models: unknown[] };
-    // 26 reference models plus Larkspur's approved team copy.
-    expect(file.models).toHaveLength(27);
+    // 60 reference models (26 + 34 from the two published files) plus Larkspur's approved team copy.
+    expect(file.models).toHaveLength(61);
     // One model: its name; every version: said so.
     const ch4 = await models().CpModel.findOne({ where: { name: "CH4 · Shomate (NIST-JANAF fit)" } });
     const one = await exportRoute.GET(jsonRequest("GET", `/api/v1/library/export?models=${ch4!.id}&versions=all`), ctx());

@@ -35,7 +35,7 @@ function misspell(key: string): string {
 }
 
 /** Write rows that send no body: their handlers read none (the id is in the path). */
-const NO_BODY = new Set(["propose", "withdraw", "copy reference", "version delete", "member remove", "revoke invitation", "sign out"]);
+const NO_BODY = new Set(["propose", "version impact run", "withdraw", "copy reference", "version delete", "member remove", "revoke invitation", "sign out"]);
 /** Rows whose valid body has no body in the matrix but whose handler reads an optional one: given here. */
 const OPTIONAL_BODY: Record<string, { body: Record<string, unknown>; field: string }> = { approve: { body: { note: "Checked against the data sheet." }, field: "note" } };
 /** Rows whose body is an evaluate request, checked by the engine's own (strict) schema (lib/thermo/schema.ts). */

@@ -45,6 +45,9 @@ export async function signIn(page: Page, email: string, password = "larkspur-dem
 }
 
 export async function signOut(page: Page) {
+  // On a phone, Sign out sits in the menu.
+  const menu = page.getByRole("button", { name: "Menu" });
+  if ((await menu.isVisible()) && (await menu.getAttribute("aria-expanded")) !== "true") await menu.click();
   await page.getByRole("button", { name: "Sign out" }).click();
   await page.waitForURL(/\/sign-in/);
 }

@@ -30,19 +30,55 @@ async function referenceVersions() {
 }
 
 describe("reference library seeder", () => {
-  it("loads every published set of the shared file, copied unchanged into seeders/data", async () => {
+  it("loads every published set of the two shared files, copied unchanged into seeders/data", async () => {
     const shared = readShared<unknown[]>("cp-coefficients.json");
-    expect(referenceRecords()).toEqual(shared);
+    const more = readShared<unknown[]>("cp-coefficients-more.json");
+    expect(referenceRecords()).toEqual([...shared, ...more]);
     const versions = await referenceVersions();
-    // 39 records → 26 models: the 2015 water model holds ice, liquid and gas; CH4 has two 2015 variants.
-    expect(versions).toHaveLength(26);
+    // 39 records → 26 models (the 2015 water model holds ice, liquid and gas; CH4 has two 2015
+    // variants); the 36 more → 34 models (19 third-millennium, 14 GRI-Mech, Cl2's three Shomate ranges in one).
+    expect(versions).toHaveLength(26 + 34);
     expect(versions.every((v) => v.status === "approved" && v.citation.length > 20)).toBe(true);
     const segments = versions.reduce((n, v) => n + v.data.segments.length, 0);
     const expected = referenceRecords().reduce((n, r) => n + (r.form === "nasa7" && r.tmid !== undefined ? 2 : 1), 0);
     expect(segments).toBe(expected);
     expect(new Set(versions.map((v) => v.family))).toEqual(new Set(["nasa7-2015", "nasa7-gri30", "shomate-janaf"]));
-    expect(new Set(versions.map((v) => v.formula))).toEqual(new Set(["H2", "O2", "N2", "H2O", "CO", "CO2", "CH4", "NH3"]));
     expect(versions.map((v) => v.name)).toContain("CH4 · Shomate (NIST-JANAF fit)");
+    expect(versions.map((v) => v.name)).toContain("C · NASA-7 graphite (third-millennium 2015)");
+    expect(versions.map((v) => v.name)).toContain("CH3OH · NASA-7 (GRI-Mech 3.0)");
+  });
+
+  it("holds at least 30 species (formula and phase), among them graphite, methanol, C2–C3 hydrocarbons, Ar, NO/NO2, SO2, H2S, OH and the O and H atoms", async () => {
+    const versions = await referenceVersions();
+    const formulas = new Set(versions.map((v) => v.formula));
+    expect(formulas).toEqual(
+      new Set(["H2", "O2", "N2", "H2O", "CO", "CO2", "CH4", "NH3", "C", "CH3OH", "C2H6", "C2H4", "C2H2", "C3H8", "Ar", "He", "NO", "NO2", "N2O", "SO2", "H2S", "HCl", "Cl2", "O", "H", "OH", "HCN", "CH2O"]),
+    );
+    const pairs = new Set(versions.flatMap((v) => v.data.segments.map((s) => `${v.formula}(${s.phase})`)));
+    expect(pairs.size).toBeGreaterThanOrEqual(30);
+    for (const k of ["C(cr)", "CH3OH(g)", "C2H6(g)", "C2H4(g)", "C2H2(g)", "C3H8(g)", "Ar(g)", "NO(g)", "NO2(g)", "SO2(g)", "H2S(g)", "OH(g)", "O(g)", "H(g)"]) expect(pairs).toContain(k);
+    // Every added set keeps its citation: the publication of its record.
+    for (const v of versions.filter((x) => ["C", "CH3OH", "Cl2", "Ar"].includes(x.formula))) {
+      expect(v.citation).toMatch(/Goos, Burcat, Ruscic|GRI-Mech 3\.0|NIST-JANAF/);
+    }
+    // README: the GRI Ar set is on a 1 atm standard state; the record says so and the model keeps it.
+    const griAr = versions.find((v) => v.formula === "Ar" && v.family === "nasa7-gri30")!;
+    expect(griAr.data.standardPressurePa).toBe(101325);
+  });
+
+  it("gives reference species their boiling and triple points, with the source", async () => {
+    const { models } = registry();
+    const rows = await models.Species.findAll({ where: { teamId: null } });
+    const by = new Map(rows.map((r) => [r.formula, r]));
+    // CRC Handbook of Chemistry and Physics (from memory): CH4 111.66 K and 90.69 K, H2O 373.12 K and 273.16 K.
+    expect([by.get("CH4")!.boilingPointK, by.get("CH4")!.triplePointK]).toEqual([111.66, 90.69]);
+    expect([by.get("H2O")!.boilingPointK, by.get("H2O")!.triplePointK]).toEqual([373.12, 273.16]);
+    expect(by.get("CH4")!.phasePointsCitation).toMatch(/\(from memory\)/);
+    // CO2 sublimes at 1 atm: no normal boiling point; graphite and radicals have none.
+    expect(by.get("CO2")!.boilingPointK).toBeNull();
+    expect(by.get("CO2")!.phasePointsCitation).toMatch(/sublimes/);
+    for (const f of ["C", "O", "H", "OH"]) expect(by.get(f)!.boilingPointK).toBeNull();
+    expect(rows.filter((r) => r.boilingPointK !== null).length).toBeGreaterThanOrEqual(20);
   });
 
   it("is idempotent: seeding again adds nothing", async () => {

@@ -1,4 +1,5 @@
 import canonicalize from "canonicalize";
+import { CAUTION_TEXT } from "@/lib/cases/caution";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb, models } from "@/lib/db";
 import {
@@ -114,6 +115,8 @@ describe("submission freezes a snapshot", () => {
     const to = mails.flatMap((m) => m.recipients);
     expect(to).toEqual(expect.arrayContaining(["rory.reviewer@example.test", "alex.admin@example.test"]));
     expect(to).not.toContain("erin.engineer@example.test");
+    // The full caution, not a shortened one (issue 11, item 16).
+    for (const m of mails) expect(m.body).toContain(CAUTION_TEXT);
     expect(await models().AuditEvent.count({ where: { action: "case.submitted", entityId: String(c.id) } })).toBe(1);
   });
 

@@ -184,7 +184,8 @@ describe("visibility", () => {
     expect((await refusal(lib.getModel(tom, model.id))).status).toBe(404);
     const list = await lib.listModels(tom, { q: "", phase: "", form: "", status: "all", scope: "all", page: 1, pageSize: 100 });
     expect(list.items.every((m) => m.scope === "reference")).toBe(true);
-    expect(list.total).toBe(26);
+    // 60 reference models: 26 from cp-coefficients.json, 34 from cp-coefficients-more.json.
+    expect(list.total).toBe(60);
   });
 
   it("the list shows approved versions by default and open drafts marked; it searches, filters and pages on the server", async () => {
@@ -251,5 +252,17 @@ describe("curves", () => {
     const at = c.points.find((p) => p.tK === 400)!;
     expect(at.hkJ).toBeCloseTo(-1000 + (120 * (400 - 298.15)) / 1000, 9);
     await expect(lib.previewCurve(sam, { data: { segments: [] } })).rejects.toMatchObject({ name: "EngineRefusal" });
+  });
+});
+
+describe("species phase points", () => {
+  it("a reference species shows its boiling and triple points with the source; a team species has none", async () => {
+    const erin = await actorOf("engineer");
+    const ch4 = await models().Species.findOne({ where: { teamId: null, formula: "CH4" } });
+    const dto = await lib.getSpecies(erin, ch4!.id);
+    // CRC Handbook of Chemistry and Physics (from memory): CH4 111.66 K, 90.69 K.
+    expect(dto.phasePoints).toEqual({ boilingPointK: 111.66, triplePointK: 90.69, citation: expect.stringMatching(/\(from memory\)/) });
+    const mine = await lib.createSpecies(erin, { formula: "C4H10", displayName: "Butane (team, for this test)" });
+    expect(mine.phasePoints).toBeNull();
   });
 });

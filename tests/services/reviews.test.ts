@@ -1,3 +1,4 @@
+import { CAUTION_TEXT } from "@/lib/cases/caution";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb, models } from "@/lib/db";
 import { createCase, diffSnapshots, getResults, getSnapshot, submitCase, updateCase, verifySnapshot } from "@/lib/services/cases";
@@ -71,6 +72,7 @@ describe("return, revise, resubmit, approve", () => {
     const told = await models().MailMessage.findAll({ where: { kind: "review-decided" } });
     expect(told.flatMap((m) => m.recipients)).toEqual(["erin.engineer@example.test"]);
     expect(told[0].body).toContain("Extend the span to 800 K");
+    expect(told[0].body).toContain(CAUTION_TEXT);
 
     // A returned case is edited and evaluated live again.
     const edited = await updateCase(erin, c.id, { ...caseInputSchema.parse(shiftCase(pins, { title: "Shift for review", temperatures: { fromK: 480, toK: 800, stepK: 20 } })), lockVersion: returned.lockVersion });

@@ -372,3 +372,19 @@ describe("10. messages, and quantities with units as docs/engine.md says", () =>
     expect(neg.message).toBe("invalid request: toleranceKJ: expected a tolerance of 0 or more (got -1 kJ/mol)");
   });
 });
+
+describe("a reaction value that overflows at one grid temperature (issue 14, item 4: the typed-array pipeline)", () => {
+  it("is refused naming the first such temperature and field, while the reference stays finite", () => {
+    // Synthetic, invented for this test: S° of ±2.5e305 J/(mol·K) makes ΔrS = 5e305, so T·ΔrS is
+    // finite up to 359 K (the reference 298.15 K and the grid's 300 and 350 K) and overflows at 400 K.
+    const sp = (sJ: number): SpeciesInput => ({
+      segments: [{ phase: "g", form: "constant", tminK: 200, tmaxK: 2000, coeffs: { cpJ: 30 } }],
+      reference: { tK: 298.15, phase: "g", hkJ: 0, sJ },
+    });
+    const e = refusal(() =>
+      evaluate({ reaction: "C2H5OH(g) -> CH3OCH3(g)", species: { "C2H5OH(g)": sp(-2.5e305), "CH3OCH3(g)": sp(2.5e305) }, temperatures: { fromK: 300, toK: 450, stepK: 50 } }),
+    );
+    expect(e.code).toBe("nonfinite-value");
+    expect(e.message).toBe("points at 400 K: dGkJ is not finite in double precision; the models' coefficients are outside any physical range");
+  });
+});

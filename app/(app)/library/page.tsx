@@ -1,4 +1,5 @@
 import Link from "next/link";
+import { CollapsibleFilters } from "@/components/library/collapsible-filters";
 import { ScopeBadge, StatusBadge } from "@/components/library/status-badge";
 import { buttonClass } from "@/components/ui/button";
 import { Card, PageHeader } from "@/components/ui/card";
@@ -52,6 +53,7 @@ export default async function LibraryPage({ searchParams }: { searchParams: Sear
             <span>Formula or name</span>
             <input name="q" defaultValue={query.q} placeholder="CH4, water, Shomate…" className={inputClass} />
           </label>
+          <CollapsibleFilters active={[query.phase, query.form, query.status !== "current", query.scope !== "all"].filter(Boolean).length}>
           <label className="space-y-1 text-sm font-medium text-ink-soft">
             <span>Phase</span>
             <select name="phase" defaultValue={query.phase} className={inputClass}>
@@ -82,6 +84,7 @@ export default async function LibraryPage({ searchParams }: { searchParams: Sear
               <option value="team">{actor.teamName} only</option>
             </select>
           </label>
+          </CollapsibleFilters>
           <button type="submit" className={buttonClass("primary")}>Search</button>
         </form>
         {!parsed.success && <p role="alert" className="mt-2 text-sm text-flag-700">Some filters were not understood and were reset.</p>}

@@ -11,6 +11,7 @@ import { buttonClass } from "@/components/ui/button";
 import { Card, PageHeader } from "@/components/ui/card";
 import { getActor } from "@/lib/auth/session";
 import { termKey } from "@/lib/cases/balance";
+import { enteredUnit } from "@/lib/cases/display-unit";
 import { AppError } from "@/lib/errors";
 import { getCase, type CaseDto } from "@/lib/services/cases";
 
@@ -98,7 +99,7 @@ export default async function CasePage({ params, searchParams }: Props) {
           Showing revision {chosen}, an earlier snapshot. <Link className="underline" href={`/cases/${c.id}`}>Back to the current one</Link>.
         </p>
       )}
-      <ResultsView caseId={c.id} revision={chosen} stamp={c.lockVersion} />
+      <ResultsView caseId={c.id} revision={chosen} stamp={c.lockVersion} initialUnit={enteredUnit(c.inputs.temperatures)} />
 
       {c.can.review && latest && (
         <div id="review" className="mt-6 scroll-mt-4">

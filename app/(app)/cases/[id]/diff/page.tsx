@@ -1,5 +1,6 @@
 import Link from "next/link";
 import { notFound } from "next/navigation";
+import { Caution } from "@/components/results/caution";
 import { Card, PageHeader } from "@/components/ui/card";
 import { requireUser } from "@/lib/auth/guards";
 import { getActor } from "@/lib/auth/session";
@@ -153,6 +154,7 @@ export default async function DiffPage({ params, searchParams }: Props) {
           </Card>
         </div>
       )}
+      <Caution className="mt-6" />
     </>
   );
 }

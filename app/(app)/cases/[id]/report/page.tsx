@@ -5,9 +5,12 @@ import { EquilibriumReport } from "@/components/equilibrium/equilibrium-report";
 import { Caution } from "@/components/results/caution";
 import { PrintButton } from "@/components/results/print-button";
 import { ResultCharts } from "@/components/results/result-charts";
+import { ContributionsChart } from "@/components/results/contributions-chart";
+import { ContributionsTable } from "@/components/results/contributions-table";
 import { ResultSummary, WarningList } from "@/components/results/result-summary";
 import { requireUser } from "@/lib/auth/guards";
 import { getActor } from "@/lib/auth/session";
+import { DISPLAY_UNITS, enteredUnit, formatTemperature, gridValue, isDisplayUnit, UNIT_LABELS } from "@/lib/cases/display-unit";
 import { fixed, sci } from "@/lib/cases/format";
 import { formatQuantity } from "@/lib/cases/temperature";
 import { getResults } from "@/lib/services/cases";
@@ -17,7 +20,7 @@ import { approverText, SignOffRecord } from "@/components/cases/sign-off";
 
 export const metadata = { title: "Case report" };
 
-type Props = { params: Promise<{ id: string }>; searchParams: Promise<{ revision?: string }> };
+type Props = { params: Promise<{ id: string }>; searchParams: Promise<{ revision?: string; unit?: string }> };
 
 /** At most this many rows in the printed table summary; the CSV carries every point. */
 const SUMMARY_ROWS = 16;
@@ -25,15 +28,20 @@ const SUMMARY_ROWS = 16;
 export default async function ReportPage({ params, searchParams }: Props) {
   const actor = requireUser(await getActor());
   const id = Number((await params).id);
-  const rev = (await searchParams).revision;
+  const sp = await searchParams;
+  const rev = sp.revision;
   const revision = rev && /^\d+$/.test(rev) ? Number(rev) : undefined;
   if (!Number.isInteger(id) || id <= 0) notFound();
   const data = await orNotFound(getResults(actor, id, revision));
   const r = data.result;
+  // The unit the case was entered in, unless the reader asked for another (?unit=K|degC|degF).
+  const unit = isDisplayUnit(sp.unit) ? sp.unit : enteredUnit(data.inputs.temperatures);
+  const unitHref = (u: string) => `?${new URLSearchParams({ ...(revision ? { revision: String(revision) } : {}), unit: u })}`;
   const record = data.source === "snapshot" ? await signOffRecord(actor, id, data.revision ?? undefined) : null;
   const pts = r.points;
   const stride = Math.max(1, Math.ceil(pts.length / SUMMARY_ROWS));
-  const rows = pts.filter((_, i) => i % stride === 0 || i === pts.length - 1);
+  const rowIndexes = pts.map((_, i) => i).filter((i) => i % stride === 0 || i === pts.length - 1);
+  const rows = rowIndexes.map((i) => pts[i]);
   const worst = pts.reduce((a, p) => (Math.abs(p.diffKJ) > Math.abs(a.diffKJ) ? p : a), pts[0]);
   const beyond = pts.filter((p) => p.exceedsTolerance).length;
   const coeff = new Map(data.inputs.terms.map((t) => [t.phase ? `${t.formula}(${t.phase})` : t.formula, t.coefficient]));
@@ -48,7 +56,22 @@ export default async function ReportPage({ params, searchParams }: Props) {
           <h1 className="text-xl font-semibold">{data.title}</h1>
           <p className="text-base">{data.reaction}</p>
         </div>
-        <PrintButton />
+        <div className="flex flex-col items-end gap-2">
+          <PrintButton />
+          <nav aria-label="Temperature unit" className="no-print flex items-center gap-1 text-xs" data-testid="report-unit-switch">
+            <span className="mr-1 text-ink-muted">Temperatures in</span>
+            {DISPLAY_UNITS.map((u) => (
+              <a
+                key={u}
+                href={unitHref(u)}
+                aria-current={u === unit ? "true" : undefined}
+                className={`rounded-md border px-2 py-0.5 font-medium ${u === unit ? "border-ink bg-ink text-paper" : "border-ink-line text-ink hover:bg-paper-deep"}`}
+              >
+                {UNIT_LABELS[u]}
+              </a>
+            ))}
+          </nav>
+        </div>
       </header>
 
       {record && <SignOffRecord record={record} />}
@@ -110,14 +133,14 @@ export default async function ReportPage({ params, searchParams }: Props) {
 
       <section>
         <h2 className="mb-2 text-sm font-semibold">Summary</h2>
-        <ResultSummary result={r} />
+        <ResultSummary result={r} unit={unit} />
         <p className="mt-2 text-xs">
-          Largest naive − corrected difference: <strong>{fixed(worst?.diffKJ, 3)} kJ/mol</strong> at {fixed(worst?.tK, 2)} K; {beyond} of {pts.length} points beyond tolerance.
+          Largest naive − corrected difference: <strong>{fixed(worst?.diffKJ, 3)} kJ/mol</strong> at {formatTemperature(worst?.tK, unit)}; {beyond} of {pts.length} points beyond tolerance.
         </p>
       </section>
 
       <section>
-        <ResultCharts result={r} toleranceKJ={data.inputs.toleranceKJ} compact />
+        <ResultCharts result={r} toleranceKJ={data.inputs.toleranceKJ} toleranceKFactor={data.inputs.toleranceKFactor} unit={unit} compact />
       </section>
 
       <section className="break-inside-avoid">
@@ -125,7 +148,7 @@ export default async function ReportPage({ params, searchParams }: Props) {
         <table className="w-full text-xs" data-testid="report-table">
           <thead>
             <tr>
-              <th className={th}>T (K)</th>
+              <th className={th}>T ({UNIT_LABELS[unit]})</th>
               <th className={th}>ΔrH (kJ/mol)</th>
               <th className={th}>ΔrS (J/(mol·K))</th>
               <th className={th}>ΔrG corrected (kJ/mol)</th>
@@ -137,7 +160,7 @@ export default async function ReportPage({ params, searchParams }: Props) {
           <tbody>
             {rows.map((p) => (
               <tr key={p.tK} className={p.exceedsTolerance ? "font-semibold" : undefined}>
-                <td className={td}>{fixed(p.tK, 2)}</td>
+                <td className={td}>{gridValue(p.tK, unit)}</td>
                 <td className={td}>{fixed(p.dHkJ, 3)}</td>
                 <td className={td}>{fixed(p.dSJ, 3)}</td>
                 <td className={td}>{fixed(p.dGkJ, 3)}</td>
@@ -149,6 +172,14 @@ export default async function ReportPage({ params, searchParams }: Props) {
           </tbody>
         </table>
         <p className="mt-1 text-xs text-ink-muted">* beyond tolerance. H on the formation basis; G = H − TS of each species is not ΔfG°(T).</p>
+      </section>
+
+      <section className="break-inside-avoid">
+        <h2 className="mb-1 text-sm font-semibold">Which species moves ΔrG away from the naive line</h2>
+        <ContributionsChart result={r} compact />
+        <div className="mt-2">
+          <ContributionsTable result={r} rowIndexes={rowIndexes} />
+        </div>
       </section>
 
       {r.equilibrium && <EquilibriumReport result={r} sources={await reportSources(actor, data.request)} />}

@@ -54,6 +54,13 @@ export default async function SpeciesPage({ params, searchParams }: Props) {
         lead={
           <>
             {Object.entries(species.elements).map(([el, n]) => `${el} ${n}`).join(", ")} · M = {species.molarMassGPerMol.toFixed(4)} g/mol · <ScopeBadge scope={species.scope} />
+            {species.phasePoints && (
+              <span className="mt-1 block text-xs" data-testid="phase-points">
+                {species.phasePoints.boilingPointK !== null ? `Normal boiling point ${species.phasePoints.boilingPointK} K` : "No normal boiling point"}
+                {species.phasePoints.triplePointK !== null ? ` · triple point ${species.phasePoints.triplePointK} K` : ""}
+                {species.phasePoints.citation ? ` (${species.phasePoints.citation})` : ""}
+              </span>
+            )}
           </>
         }
       />

@@ -9,8 +9,8 @@ type Context = { params: Promise<{ id: string }> };
 /** The result points as CSV, the same numbers as GET …/results. */
 export const GET = route<Context>(async (request, { params }) => {
   const id = parseWith(idParamSchema, (await params).id);
-  const { revision } = parseWith(exportQuerySchema, queryObject(request));
-  const { filename, csv } = await exportCsv(await getActor(), id, revision);
+  const { revision, unit } = parseWith(exportQuerySchema, queryObject(request));
+  const { filename, csv } = await exportCsv(await getActor(), id, revision, unit);
   return new Response(csv, {
     status: 200,
     headers: { "content-type": "text/csv; charset=utf-8", "content-disposition": `attachment; filename="${filename}"` },
