@@ -39,8 +39,11 @@ describe("production mode", () => {
   it("passes the check on a fresh database that has no tables yet (it runs before the migrations)", () => {
     const dir = fs.mkdtempSync(path.join(os.tmpdir(), "heatpath-fresh-"));
     try {
+      // A fresh SQLite file, also when the suite itself runs on PostgreSQL (DATABASE_URL set).
+      const { DATABASE_URL: _pg, ...rest } = process.env;
+      void _pg;
       const r = spawnSync("node_modules/.bin/tsx", ["scripts/db.ts", "check-production"], {
-        env: { ...process.env, ...good, DATABASE_PATH: path.join(dir, "heatpath.sqlite") },
+        env: { ...rest, ...good, DATABASE_PATH: path.join(dir, "heatpath.sqlite") },
         encoding: "utf8",
       });
       expect(r.stderr).not.toContain("no such table");
