@@ -21,6 +21,9 @@ export function StackedAreaChart({
   height = 280,
   testId,
   ariaLabel,
+  xKey = "tK",
+  xLabel = "T (K)",
+  xTicks,
 }: {
   data: Record<string, number | null>[];
   series: StackSeries[];
@@ -29,6 +32,10 @@ export function StackedAreaChart({
   height?: number;
   testId?: string;
   ariaLabel: string;
+  /** The row field on the x axis and its label; the caller converts temperatures to the display unit. */
+  xKey?: string;
+  xLabel?: string;
+  xTicks?: number[];
 }) {
   return (
     <figure className="w-full break-inside-avoid" data-testid={testId} aria-label={ariaLabel} role="img">
@@ -56,12 +63,13 @@ export function StackedAreaChart({
           <ComposedChart data={data} stackOffset="sign" margin={{ top: 8, right: 16, bottom: 24, left: 8 }}>
             <CartesianGrid stroke={CHART_COLORS.line} strokeDasharray="2 4" />
             <XAxis
-              dataKey="tK"
+              dataKey={xKey}
               type="number"
               domain={["dataMin", "dataMax"]}
+              ticks={xTicks}
               tickFormatter={plain}
               tick={{ fontSize: 11, fill: CHART_COLORS.muted }}
-              label={{ value: "T (K)", position: "insideBottom", offset: -14, fontSize: 11, fill: CHART_COLORS.ink }}
+              label={{ value: xLabel, position: "insideBottom", offset: -14, fontSize: 11, fill: CHART_COLORS.ink }}
             />
             <YAxis
               width={64}

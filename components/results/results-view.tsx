@@ -93,7 +93,7 @@ export function ResultsView({ caseId, revision, stamp, initialUnit = "K" }: { ca
         <ResultSummary result={r} unit={unit} />
       </Card>
       <ResultCharts result={r} toleranceKJ={data.inputs.toleranceKJ} toleranceKFactor={data.inputs.toleranceKFactor} unit={unit} />
-      <ContributionsChart result={r} />
+      <ContributionsChart result={r} unit={unit} />
       <Card title={`Warnings (${r.warnings.length})`}>
         <WarningList warnings={r.warnings} />
       </Card>

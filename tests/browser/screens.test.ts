@@ -66,6 +66,12 @@ describe("results in the reader's unit (item 5) and the numbers table (item 6)",
     for (const t of ticks) expect(t % 50).toBe(0); // 400, 500, … °C, never 673.1
     expect(await page.getByTestId("chart-dg").locator("svg.recharts-surface").first().textContent()).toContain("T (°C)");
     expect(await page.getByTestId("crossovers").textContent()).toMatch(/Corrected: −?\d+\.\d °C/);
+    // The species split reads in the same unit as every other chart on the page.
+    const split = page.getByTestId("chart-contributions");
+    await split.locator("svg.recharts-surface").first().waitFor();
+    expect(await split.locator("svg.recharts-surface").first().textContent()).toContain("T (°C)");
+    for (const t of await xTicks(split)) expect(t % 50).toBe(0);
+    expect(await page.getByTestId("contributions-headline").textContent()).toMatch(/At \d+\.\d\d °C/);
 
     const api = await results(page, id);
     expect(api.result.points[0].tK).toBeCloseTo(673.15, 9); // K stays the API's default

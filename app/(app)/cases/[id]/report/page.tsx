@@ -176,7 +176,7 @@ export default async function ReportPage({ params, searchParams }: Props) {
 
       <section className="break-inside-avoid">
         <h2 className="mb-1 text-sm font-semibold">Which species moves ΔrG away from the naive line</h2>
-        <ContributionsChart result={r} compact />
+        <ContributionsChart result={r} compact unit={unit} />
         <div className="mt-2">
           <ContributionsTable result={r} rowIndexes={rowIndexes} />
         </div>
