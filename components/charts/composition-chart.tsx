@@ -24,6 +24,9 @@ export function CompositionChart({
   testId,
   ariaLabel,
   percent = true,
+  xKey = "tK",
+  xLabel = "T (K)",
+  xTicks,
 }: {
   data: Record<string, number | [number, number] | null>[];
   series: CompositionSeries[];
@@ -33,6 +36,10 @@ export function CompositionChart({
   ariaLabel: string;
   /** Values are fractions shown as %. */
   percent?: boolean;
+  /** The row field on the x axis and its label; the caller converts temperatures to the display unit. */
+  xKey?: string;
+  xLabel?: string;
+  xTicks?: number[];
 }) {
   const fmt = (v: number) => (percent ? `${Number((100 * v).toPrecision(3))} %` : String(Number(v.toPrecision(4))));
   return (
@@ -54,11 +61,12 @@ export function CompositionChart({
           <ComposedChart data={data} margin={{ top: 8, right: 16, bottom: 24, left: 8 }}>
             <CartesianGrid stroke={CHART_COLORS.line} strokeDasharray="2 4" />
             <XAxis
-              dataKey="tK"
+              dataKey={xKey}
               type="number"
               domain={["dataMin", "dataMax"]}
+              ticks={xTicks}
               tick={{ fontSize: 11, fill: CHART_COLORS.muted }}
-              label={{ value: "T (K)", position: "insideBottom", offset: -14, fontSize: 11, fill: CHART_COLORS.ink }}
+              label={{ value: xLabel, position: "insideBottom", offset: -14, fontSize: 11, fill: CHART_COLORS.ink }}
             />
             <YAxis
               width={64}

@@ -1,9 +1,10 @@
+import type { DisplayUnit } from "@/lib/cases/display-unit";
 import type { EvaluateResult } from "@/lib/thermo/evaluate";
 import { EquilibriumResults } from "./equilibrium-results";
 import { SourceComparisonView, type SourcesDto } from "./source-comparison";
 
 /** The equilibrium section of the printable report: the frozen composition, then the family spread computed at print time. */
-export function EquilibriumReport({ result, sources }: { result: EvaluateResult; sources: SourcesDto | null }) {
+export function EquilibriumReport({ result, sources, unit = "K" }: { result: EvaluateResult; sources: SourcesDto | null; unit?: DisplayUnit }) {
   const info = result.equilibriumInfo!;
   return (
     <section className="space-y-3" data-testid="report-equilibrium">
@@ -12,7 +13,7 @@ export function EquilibriumReport({ result, sources }: { result: EvaluateResult;
         Feed ({info.feedUnit}): {Object.entries(info.feed).map(([k, v]) => `${k} ${v}`).join(", ")} · pressure {info.pressureBar} bar · key {info.key}
         {info.reactions.length > 1 ? ` · reactions: ${info.reactions.join("; ")}` : ""}.
       </p>
-      <EquilibriumResults result={result} compact />
+      <EquilibriumResults result={result} compact unit={unit} />
       {sources && (
         <div className="break-inside-avoid">
           <SourceComparisonView data={sources} compact />

@@ -2,7 +2,9 @@
 
 import { CHART_COLORS } from "@/components/charts/colors";
 import { CompositionChart, type CompositionSeries } from "@/components/charts/composition-chart";
+import { useDisplayUnit } from "@/components/results/display-unit-context";
 import { Badge } from "@/components/ui/badge";
+import { UNIT_LABELS, differenceFromKelvin, fromKelvin, gridValue, niceTicks, type DisplayUnit } from "@/lib/cases/display-unit";
 import type { EvaluateResult } from "@/lib/thermo/evaluate";
 import { colorOf, compositionRows, gasSpecies, keyRows } from "./series";
 
@@ -18,11 +20,21 @@ const TABLE_ROWS = 24;
  * Outlet composition against T, corrected against naive K, with ±1σ bands where the data
  * carry uncertainties. Presentational: takes an evaluate result with an `equilibrium` part.
  */
-export function EquilibriumResults({ result, compact = false }: { result: EvaluateResult; compact?: boolean }) {
+export function EquilibriumResults({ result, compact = false, unit: unitProp }: { result: EvaluateResult; compact?: boolean; unit?: DisplayUnit }) {
+  // The case page's display unit (its switch sits above the results); the report passes its own.
+  const shared = useDisplayUnit();
+  const unit = unitProp ?? shared.unit;
   const eq = result.equilibrium;
   const info = result.equilibriumInfo;
   if (!eq || !info || eq.length === 0) return null;
   const key = info.key;
+  const u = UNIT_LABELS[unit];
+  const tText = (tK: number) => `${gridValue(tK, unit)} ${u}`;
+  type Row = Record<string, number | [number, number] | null>;
+  const inUnit = (rows: Row[]): Row[] => rows.map((r) => ({ ...r, t: fromKelvin(r.tK as number, unit) }));
+  const lo = fromKelvin(eq[0].tK, unit);
+  const hi = fromKelvin(eq[eq.length - 1].tK, unit);
+  const axis = { xKey: "t", xLabel: `T (${u})`, xTicks: niceTicks(Math.min(lo, hi), Math.max(lo, hi), 6).filter((t) => t >= Math.min(lo, hi) - 1e-9 && t <= Math.max(lo, hi) + 1e-9) };
   const gas = gasSpecies(result);
   const comp: CompositionSeries[] = gas.flatMap((k, i) => [
     { key: `c:${k}`, name: `${k} corrected`, color: colorOf(i) },
@@ -55,7 +67,7 @@ export function EquilibriumResults({ result, compact = false }: { result: Evalua
         {notConverged > 0 ? <Badge tone="flag">{notConverged} points not converged</Badge> : <Badge tone="moss">converged at every T</Badge>}
       </div>
       <p className="text-sm text-ink-soft" data-testid="equilibrium-headline">
-        Largest difference in the {key} outlet fraction: <strong>{pct(worst.keyFractionDiff)}</strong> (naive − corrected, absolute) at {num(worst.tK, 6)} K
+        Largest difference in the {key} outlet fraction: <strong>{pct(worst.keyFractionDiff)}</strong> (naive − corrected, absolute) at {tText(worst.tK)}
         {over !== undefined && (
           <>
             {"; "}
@@ -63,8 +75,8 @@ export function EquilibriumResults({ result, compact = false }: { result: Evalua
               "the naive error stays within the data's own 1σ everywhere"
             ) : (
               <>
-                the naive error exceeds the data&apos;s own 1σ at <strong>{over.length}</strong> of {eq.length} temperatures ({num(over[0], 6)}
-                {over.length > 1 ? `–${num(over[over.length - 1], 6)}` : ""} K)
+                the naive error exceeds the data&apos;s own 1σ at <strong>{over.length}</strong> of {eq.length} temperatures ({gridValue(over[0], unit)}
+                {over.length > 1 ? `–${gridValue(over[over.length - 1], unit)}` : ""} {u})
               </>
             )}
           </>
@@ -81,18 +93,20 @@ export function EquilibriumResults({ result, compact = false }: { result: Evalua
       <div className={compact ? "grid grid-cols-2 gap-3" : "grid gap-4 lg:grid-cols-2"}>
         <div>
           <h3 className="mb-1 text-xs font-semibold text-ink-soft">{key} outlet mole fraction (gas){sigma ? ", ±1σ" : ""}</h3>
-          <CompositionChart data={keyRows(result)} series={keySeries} yLabel="mole fraction" testId="equilibrium-key-chart" ariaLabel={`${key} outlet fraction against temperature, corrected and naive`} height={compact ? 200 : 260} />
+          <CompositionChart data={inUnit(keyRows(result))} {...axis} series={keySeries} yLabel="mole fraction" testId="equilibrium-key-chart" ariaLabel={`${key} outlet fraction against temperature, corrected and naive`} height={compact ? 200 : 260} />
         </div>
         <div>
           <h3 className="mb-1 text-xs font-semibold text-ink-soft">Outlet composition (gas): solid corrected, dashed naive</h3>
-          <CompositionChart data={compositionRows(result)} series={comp} yLabel="mole fraction" testId="equilibrium-composition-chart" ariaLabel="Outlet mole fractions against temperature, corrected and naive" height={compact ? 200 : 260} />
+          <CompositionChart data={inUnit(compositionRows(result))} {...axis} series={comp} yLabel="mole fraction" testId="equilibrium-composition-chart" ariaLabel="Outlet mole fractions against temperature, corrected and naive" height={compact ? 200 : 260} />
         </div>
       </div>
       <div className="overflow-x-auto">
         <table className="min-w-full text-xs" data-testid="equilibrium-table">
           <thead>
             <tr>
-              <th className={th}>T (K)</th>
+              <th className={th} data-testid="equilibrium-t-header">
+                T ({u})
+              </th>
               <th className={th}>{key} conversion corrected</th>
               <th className={th}>naive</th>
               <th className={th}>{key} fraction corrected{pm}</th>
@@ -108,7 +122,9 @@ export function EquilibriumResults({ result, compact = false }: { result: Evalua
           <tbody>
             {rows.map((p) => (
               <tr key={p.tK}>
-                <td className={td}>{num(p.tK, 6)}</td>
+                <td className={td} data-value={p.tK}>
+                  {gridValue(p.tK, unit)}
+                </td>
                 <td className={td}>{pct(p.keyConversion, 4)}</td>
                 <td className={td}>{pct(p.naive.keyConversion, 4)}</td>
                 <td className={td}>
@@ -137,14 +153,14 @@ export function EquilibriumResults({ result, compact = false }: { result: Evalua
           Mole fractions of the gas phase; condensed species are pure phases at unit activity. {over !== undefined ? "* the naive error exceeds the 1σ of the corrected fraction." : ""}
         </p>
       </div>
-      {info.gas === "peng-robinson" && <FugacityTable result={result} rows={rows} compact={compact} />}
-      {result.adiabatic && <AdiabaticSummary result={result} />}
+      {info.gas === "peng-robinson" && <FugacityTable result={result} rows={rows} compact={compact} unit={unit} />}
+      {result.adiabatic && <AdiabaticSummary result={result} unit={unit} />}
     </div>
   );
 }
 
 /** Fugacity coefficients of the corrected solution, and the ideal-gas key conversion beside the real-gas one. */
-function FugacityTable({ result, rows, compact }: { result: EvaluateResult; rows: NonNullable<EvaluateResult["equilibrium"]>; compact: boolean }) {
+function FugacityTable({ result, rows, compact, unit }: { result: EvaluateResult; rows: NonNullable<EvaluateResult["equilibrium"]>; compact: boolean; unit: DisplayUnit }) {
   const key = result.equilibriumInfo!.key;
   const gas = gasSpecies(result);
   const th = "border-b border-ink-line px-2 py-1 text-right font-medium whitespace-nowrap";
@@ -155,7 +171,7 @@ function FugacityTable({ result, rows, compact }: { result: EvaluateResult; rows
       <table className="min-w-full text-xs" data-testid="fugacity-table">
         <thead>
           <tr>
-            <th className={th}>T (K)</th>
+            <th className={th}>T ({UNIT_LABELS[unit]})</th>
             <th className={th}>Z</th>
             {gas.map((k) => (
               <th key={k} className={th}>
@@ -170,7 +186,7 @@ function FugacityTable({ result, rows, compact }: { result: EvaluateResult; rows
         <tbody>
           {rows.map((p) => (
             <tr key={p.tK}>
-              <td className={td}>{num(p.tK, 6)}</td>
+              <td className={td}>{gridValue(p.tK, unit)}</td>
               <td className={td}>{num(p.diagnostics.realGas?.z, 4)}</td>
               {gas.map((k) => (
                 <td key={k} className={td}>
@@ -190,8 +206,12 @@ function FugacityTable({ result, rows, compact }: { result: EvaluateResult; rows
 }
 
 /** Adiabatic outlet temperature, corrected against naive (constant ΔrH). */
-function AdiabaticSummary({ result }: { result: EvaluateResult }) {
+function AdiabaticSummary({ result, unit }: { result: EvaluateResult; unit: DisplayUnit }) {
   const a = result.adiabatic!;
+  const u = UNIT_LABELS[unit];
+  // Temperatures to 0.01 of the unit; rises are differences (1 K = 1 °C = 1.8 °F).
+  const t = (tK: number) => `${Number(fromKelvin(tK, unit).toFixed(2))} ${u}`;
+  const d = (dK: number) => `${dK >= 0 ? "+" : "−"}${Number(Math.abs(differenceFromKelvin(dK, unit)).toFixed(2))} ${u}`;
   const key = result.equilibriumInfo!.key;
   return (
     <div className="rounded-md border border-ink-line bg-paper-deep px-3 py-2 text-sm" data-testid="adiabatic-summary">
@@ -199,20 +219,18 @@ function AdiabaticSummary({ result }: { result: EvaluateResult }) {
       <dl className="grid grid-cols-2 gap-x-4 gap-y-1 sm:grid-cols-4">
         <div>
           <dt className="text-xs text-ink-muted">Inlet</dt>
-          <dd className="tabular">{num(a.inletK, 6)} K</dd>
+          <dd className="tabular">{t(a.inletK)}</dd>
         </div>
         <div>
           <dt className="text-xs text-ink-muted">Outlet, corrected</dt>
           <dd className="tabular font-semibold" data-testid="adiabatic-outlet">
-            {num(a.outletK, 6)} K ({a.riseK >= 0 ? "+" : ""}
-            {num(a.riseK, 4)} K)
+            {t(a.outletK)} ({d(a.riseK)})
           </dd>
         </div>
         <div>
           <dt className="text-xs text-ink-muted">Outlet, naive (constant ΔrH)</dt>
           <dd className="tabular" data-testid="adiabatic-naive-outlet">
-            {num(a.naiveOutletK, 6)} K ({a.naiveRiseK >= 0 ? "+" : ""}
-            {num(a.naiveRiseK, 4)} K)
+            {t(a.naiveOutletK)} ({d(a.naiveRiseK)})
           </dd>
         </div>
         <div>
@@ -223,7 +241,7 @@ function AdiabaticSummary({ result }: { result: EvaluateResult }) {
         </div>
       </dl>
       <p className="mt-1 text-xs text-ink-muted">
-        Naive − corrected: {num(a.diffK, 4)} K. Root bracketed in [{num(a.bracketK[0], 6)}, {num(a.bracketK[1], 6)}] K, {a.iterations} iterations; ideal-gas enthalpies
+        Naive − corrected: {d(a.diffK)}. Root bracketed in [{t(a.bracketK[0])}, {t(a.bracketK[1])}], {a.iterations} iterations; ideal-gas enthalpies
         (the residual enthalpy of a real gas is not included).
       </p>
     </div>

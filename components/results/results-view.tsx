@@ -12,6 +12,7 @@ import type { ResultsDto } from "@/lib/services/cases";
 import { Caution } from "./caution";
 import { NumbersTable } from "./numbers-table";
 import { ResultSummary, WarningList } from "./result-summary";
+import { useDisplayUnit } from "./display-unit-context";
 import { UnitSwitch } from "./unit-switch";
 
 type ApiError = { code: string; message: string };
@@ -37,7 +38,7 @@ export async function fetchJson<T>(url: string): Promise<T> {
  * in) until the reader switches.
  */
 export function ResultsView({ caseId, revision, stamp, initialUnit = "K" }: { caseId: number; revision?: number; stamp: number; initialUnit?: DisplayUnit }) {
-  const [unit, setUnit] = useState<DisplayUnit>(initialUnit);
+  const { unit, setUnit } = useDisplayUnit(initialUnit);
   const q = revision ? `?revision=${revision}` : "";
   const withUnit = (base: string) => (unit === "K" ? base : `${base}${base.includes("?") ? "&" : "?"}unit=${unit}`);
   // The case's lockVersion is part of the key: an edit, a submission or a decision fetches afresh.

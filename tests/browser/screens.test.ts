@@ -208,6 +208,29 @@ describe("charts (item 7) and the sign-case sentence (item 8)", () => {
     expect(checked).toBeGreaterThan(0);
   });
 
+  it("the equilibrium panel reads in the page's display unit: table, charts and the worst-point line", async () => {
+    const { page } = b;
+    for (const title of ["Shift converter 480–700 K", "Ammonia loop near 700 K", "Reformer outlet near 1100 K"]) {
+      const id = await openCase(page, title);
+      const { result } = await results(page, id);
+      if (!result.equilibrium?.length) continue;
+      const panel = page.getByTestId("equilibrium-panel");
+      await panel.getByTestId("equilibrium-results").waitFor();
+      expect(await panel.getByTestId("equilibrium-t-header").textContent()).toBe("T (K)");
+      await page.getByTestId("unit-switch").getByText("°C", { exact: true }).click();
+      await expect.poll(() => panel.getByTestId("equilibrium-t-header").textContent()).toBe("T (°C)");
+      const cell = panel.getByTestId("equilibrium-table").locator("tbody tr").first().locator("td").first();
+      expect(Number(await cell.getAttribute("data-value"))).toBe(result.equilibrium[0].tK); // kelvin stays in data-value
+      expect(Number((await cell.textContent())!.replace("−", "-"))).toBeCloseTo(result.equilibrium[0].tK - 273.15, 6);
+      const chart = panel.getByTestId("equilibrium-key-chart");
+      expect(await chart.locator("svg.recharts-surface").first().textContent()).toContain("T (°C)");
+      expect(await panel.getByTestId("equilibrium-headline").textContent()).toContain("°C");
+      await page.getByTestId("unit-switch").getByText("K", { exact: true }).click();
+      return;
+    }
+    throw new Error("no demo case with a saved equilibrium outlet was left to check");
+  });
+
   it("the sign-case sentence says what differs, in the display unit", async () => {
     const { page } = b;
     for (const title of [CELSIUS_CASE, "Reformer outlet near 1100 K", "Shift converter 480–700 K", "Ammonia loop near 700 K"]) {

@@ -6,6 +6,7 @@ import { InputsCard, PinsCard } from "@/components/cases/inputs-card";
 import { ReviewPanel } from "@/components/cases/review-panel";
 import { StatusBadge } from "@/components/cases/status-badge";
 import { EquilibriumPanel } from "@/components/equilibrium/equilibrium-panel";
+import { DisplayUnitProvider } from "@/components/results/display-unit-context";
 import { ResultsView } from "@/components/results/results-view";
 import { buttonClass } from "@/components/ui/button";
 import { Card, PageHeader } from "@/components/ui/card";
@@ -99,6 +100,7 @@ export default async function CasePage({ params, searchParams }: Props) {
           Showing revision {chosen}, an earlier snapshot. <Link className="underline" href={`/cases/${c.id}`}>Back to the current one</Link>.
         </p>
       )}
+      <DisplayUnitProvider initialUnit={enteredUnit(c.inputs.temperatures)}>
       <ResultsView caseId={c.id} revision={chosen} stamp={c.lockVersion} initialUnit={enteredUnit(c.inputs.temperatures)} />
 
       {c.can.review && latest && (
@@ -119,6 +121,7 @@ export default async function CasePage({ params, searchParams }: Props) {
           reactantKeys={c.inputs.terms.filter((t) => t.coefficient < 0).map(termKey)}
         />
       </div>
+      </DisplayUnitProvider>
 
       <div className="mt-6 grid gap-4 lg:grid-cols-2">
         <Card title={`Snapshot history (${c.snapshots.length})`}>

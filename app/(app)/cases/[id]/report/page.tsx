@@ -182,7 +182,7 @@ export default async function ReportPage({ params, searchParams }: Props) {
         </div>
       </section>
 
-      {r.equilibrium && <EquilibriumReport result={r} sources={await reportSources(actor, data.request)} />}
+      {r.equilibrium && <EquilibriumReport result={r} sources={await reportSources(actor, data.request)} unit={unit} />}
 
       <section className="break-inside-avoid">
         <h2 className="mb-1 text-sm font-semibold">Warnings ({r.warnings.length})</h2>
