@@ -153,6 +153,31 @@ export const exportQuerySchema = strictObject({
   /** Temperature column of the CSV: K (tK, the default), degC (tDegC) or degF (tDegF). */
   unit: z.enum(["K", "degC", "degF"], { error: "Use a unit of K, degC or degF." }).optional(),
 });
-/** GET …/results: `format=columns` gives `result.columns` instead of `result.points` (lib/thermo/columns.ts). */
-export const resultsQuerySchema = strictObject({ revision: revisionParamSchema.optional(), format: z.enum(["rows", "columns"]).optional() });
+const wholeNumber = (name: string, min: number, max: number) =>
+  z.coerce
+    .number({ error: `Expected a whole number for ${name}.` })
+    .int(`Expected a whole number for ${name}.`)
+    .min(min, `Use a ${name} from ${min} to ${max}.`)
+    .max(max, `Use a ${name} from ${min} to ${max}.`);
+/** Most points the drawing sample may ask for, and most rows of one table page. */
+export const MAX_SAMPLE_POINTS = 5000;
+export const MAX_PAGE_ROWS = 1000;
+/**
+ * GET …/results: `format=columns` gives `result.columns` instead of `result.points` (lib/thermo/columns.ts);
+ * with it, `points` asks for the drawing sample and `offset` with `limit` for one page of rows (lib/cases/results-view.ts).
+ */
+export const resultsQuerySchema = strictObject({
+  revision: revisionParamSchema.optional(),
+  format: z.enum(["rows", "columns"]).optional(),
+  points: wholeNumber("points", 2, MAX_SAMPLE_POINTS).optional(),
+  offset: wholeNumber("offset", 0, MAX_CASE_POINTS).optional(),
+  limit: wholeNumber("limit", 1, MAX_PAGE_ROWS).optional(),
+}).superRefine((q, ctx) => {
+  for (const name of ["points", "offset", "limit"] as const) {
+    if (q[name] !== undefined && q.format !== "columns") ctx.addIssue({ code: "custom", path: [name], message: `${name} is only read with format=columns.` });
+  }
+  if ((q.offset === undefined) !== (q.limit === undefined)) {
+    ctx.addIssue({ code: "custom", path: [q.offset === undefined ? "offset" : "limit"], message: "Give offset and limit together." });
+  }
+});
 export const pinQuerySchema = strictObject({ formula: searchText(60).pipe(z.string().min(1)).optional() });

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { elementBalance, reactionText } from "@/lib/cases/balance";
-import { downsample } from "@/lib/cases/downsample";
+import { downsample, sampleIndices } from "@/lib/cases/downsample";
 import { joinQuantity, splitQuantity, toKelvin, toKelvinDifference } from "@/lib/cases/temperature";
 
 describe("downsample (drawing only)", () => {
@@ -17,6 +17,40 @@ describe("downsample (drawing only)", () => {
   it("leaves a short series alone", () => {
     const rows = [{ tK: 1, y: 1 }, { tK: 2, y: 2 }];
     expect(downsample(rows, ["y"])).toEqual(rows);
+  });
+});
+
+describe("sampleIndices (the columns variant, synthetic, invented for this test)", () => {
+  const n = 10_000;
+  const rising = Array.from({ length: n }, (_, i) => i / n);
+  const falling = rising.map((v) => 1 - v);
+  const spike = rising.map((v, i) => Math.sin(i / 50) + (i === 4321 ? 5 : 0));
+  // A stretch of 3 points beyond tolerance inside one bucket.
+  const beyond = rising.map((_, i) => i >= 7000 && i < 7003);
+
+  it("keeps both ends and every bucket's extremes, ascending, within the limit, with nulls skipped", () => {
+    const withNulls = spike.map((v, i) => (i % 7 === 0 ? null : v));
+    const out = sampleIndices(n, [withNulls, rising], 1200);
+    expect(out.length).toBeLessThanOrEqual(1200);
+    expect(out[0]).toBe(0);
+    expect(out[out.length - 1]).toBe(n - 1);
+    expect(out).toContain(4321);
+    expect(out).toEqual([...out].sort((a, b) => a - b));
+  });
+
+  it("a boolean series counts as 0/1, so a short stretch beyond tolerance keeps a point", () => {
+    expect(sampleIndices(n, [rising, beyond], 200).some((i) => beyond[i])).toBe(true);
+  });
+
+  it("monotone series share their extremes at the bucket ends: more buckets fill the limit instead of the rule's floor", () => {
+    // The rule alone: 6 series → 12 per bucket → 99 buckets → about 200 distinct points.
+    const out = sampleIndices(n, [rising, falling, rising, falling, rising, falling], 1200);
+    expect(out.length).toBeLessThanOrEqual(1200);
+    expect(out.length).toBeGreaterThan(1000);
+  });
+
+  it("every index when the series fit", () => {
+    expect(sampleIndices(3, [[1, 2, 3]], 1200)).toEqual([0, 1, 2]);
   });
 });
 
