@@ -4,7 +4,8 @@ import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { Button } from "@/components/ui/button";
 import { ConfirmDialog } from "@/components/ui/confirm-dialog";
-import { sendJson } from "@/lib/cases/client";
+import { refreshCaseResults } from "@/components/results/use-case-results";
+import { sendJson, settle } from "@/lib/api/client";
 
 /** Submit for review (after a confirmation: it freezes a snapshot), or re-run onto newer approved versions. */
 export function CaseActions({
@@ -30,11 +31,14 @@ export function CaseActions({
   async function go(path: "submit" | "rerun") {
     setBusy(true);
     setMessage(null);
-    const answer = await sendJson("POST", `/api/v1/cases/${caseId}/${path}`, { lockVersion });
+    const answer = await settle(sendJson("POST", `/api/v1/cases/${caseId}/${path}`, { lockVersion }));
     setBusy(false);
     setConfirming(false);
     if (!answer.ok) setMessage(answer.error.message);
-    else router.refresh();
+    else {
+      await refreshCaseResults(caseId);
+      router.refresh();
+    }
   }
   const submitLabel = status === "returned" ? "Resubmit for review" : "Submit for review";
   return (

@@ -5,7 +5,8 @@ import { useMemo, useState } from "react";
 import { Button } from "@/components/ui/button";
 import { Field, inputClass, Select, TextInput } from "@/components/ui/field";
 import { elementBalance, reactionText, termKey } from "@/lib/cases/balance";
-import { sendJson } from "@/lib/cases/client";
+import { refreshCaseResults } from "@/components/results/use-case-results";
+import { sendJson, settle } from "@/lib/api/client";
 import { convertTyped, convertTypedList, joinQuantity, splitQuantity, TEMPERATURE_UNITS, UNIT_LABELS, type Quantity, type TemperatureUnit } from "@/lib/cases/temperature";
 import { phaseForSpecies } from "@/lib/cases/phase-choice";
 import { fieldErrorsOf } from "@/lib/cases/zod-errors";
@@ -147,14 +148,15 @@ export function CaseBuilder({ options, initial }: { options: BuilderOption[]; in
     setErrors({});
     setBusy(true);
     const answer = initial
-      ? await sendJson<{ case: { id: number } }>("PATCH", `/api/v1/cases/${initial.id}`, { ...parsed.data, lockVersion: initial.lockVersion })
-      : await sendJson<{ case: { id: number } }>("POST", "/api/v1/cases", parsed.data);
+      ? await settle(sendJson<{ case: { id: number } }>("PATCH", `/api/v1/cases/${initial.id}`, { ...parsed.data, lockVersion: initial.lockVersion }))
+      : await settle(sendJson<{ case: { id: number } }>("POST", "/api/v1/cases", parsed.data));
     setBusy(false);
     if (!answer.ok) {
       if (answer.error.fields) setErrors(answer.error.fields);
       setBanner(answer.error.fields ? "Fix the marked fields." : answer.error.message);
       return;
     }
+    await refreshCaseResults(answer.data.case.id);
     router.push(`/cases/${answer.data.case.id}`);
     router.refresh();
   }

@@ -4,7 +4,7 @@ import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { Button } from "@/components/ui/button";
 import { inputClass } from "@/components/ui/field";
-import { sendJson } from "@/lib/cases/client";
+import { sendJson, settle } from "@/lib/api/client";
 
 export function CommentForm({ caseId, revision }: { caseId: number; revision: number | null }) {
   const router = useRouter();
@@ -18,7 +18,7 @@ export function CommentForm({ caseId, revision }: { caseId: number; revision: nu
       return;
     }
     setBusy(true);
-    const answer = await sendJson("POST", `/api/v1/cases/${caseId}/comments`, revision ? { body, revision } : { body });
+    const answer = await settle(sendJson("POST", `/api/v1/cases/${caseId}/comments`, revision ? { body, revision } : { body }));
     setBusy(false);
     if (!answer.ok) setError(answer.error.fields?.body ?? answer.error.message);
     else {

@@ -5,7 +5,8 @@ import { useState } from "react";
 import { Button } from "@/components/ui/button";
 import { ConfirmDialog } from "@/components/ui/confirm-dialog";
 import { inputClass } from "@/components/ui/field";
-import { sendJson } from "@/lib/cases/client";
+import { refreshCaseResults } from "@/components/results/use-case-results";
+import { sendJson, settle } from "@/lib/api/client";
 
 /**
  * Approve or return the revision on screen. Nothing is preselected; a return needs a reason,
@@ -35,11 +36,14 @@ export function ReviewPanel({ caseId, revision, title, authorName }: { caseId: n
     if (decision === null) return;
     setBusy(true);
     setError(null);
-    const answer = await sendJson("POST", `/api/v1/cases/${caseId}/reviews`, { decision, reason, revision });
+    const answer = await settle(sendJson("POST", `/api/v1/cases/${caseId}/reviews`, { decision, reason, revision }));
     setBusy(false);
     setConfirming(false);
     if (!answer.ok) setError(answer.error.fields?.reason ?? answer.error.message);
-    else router.refresh();
+    else {
+      await refreshCaseResults(caseId);
+      router.refresh();
+    }
   }
   const approving = decision === "approved";
   return (

@@ -1,20 +1,13 @@
 "use client";
 
 import Link from "next/link";
-import { useState } from "react";
+import { useEffect, useRef } from "react";
 import useSWR from "swr";
+import useSWRMutation from "swr/mutation";
 import { Badge } from "@/components/ui/badge";
 import { Button } from "@/components/ui/button";
+import { getJson, sendJson, type ApiError } from "@/lib/api/client";
 import type { ImpactDto } from "@/lib/services/impact";
-
-type ApiError = { code: string; message: string };
-
-async function fetchJson<T>(url: string): Promise<T> {
-  const res = await fetch(url, { headers: { accept: "application/json" } });
-  const body = await res.json().catch(() => null);
-  if (!res.ok) throw (body?.error as ApiError) ?? { code: "http", message: `Request failed (${res.status}).` };
-  return body as T;
-}
 
 const num = (x: number | null, digits = 3) => (x === null ? "—" : String(Number(x.toPrecision(digits))));
 const temps = (ks: number[]) => (ks.length === 0 ? "none" : ks.map((k) => `${Math.round(k)} K`).join(", "));
@@ -32,24 +25,27 @@ const SIGN: Record<string, string> = {
  */
 export function ImpactPanel({ versionId, versionStatus, canStart }: { versionId: number; versionStatus: string; canStart: boolean }) {
   const url = `/api/v1/versions/${versionId}/impact`;
-  // Keyed by the version's status too: approving queues a new run, which a refreshed page must fetch.
-  const { data, error, mutate } = useSWR<ImpactDto, ApiError, [string, string]>([url, versionStatus], ([u]) => fetchJson<ImpactDto>(u), {
+  const { data, error, mutate } = useSWR<ImpactDto, ApiError>(url, getJson, {
     revalidateOnFocus: false,
     refreshInterval: (latest) => (latest?.job && (latest.job.status === "queued" || latest.job.status === "running") ? 1000 : 0),
   });
-  const [busy, setBusy] = useState(false);
-  const [startError, setStartError] = useState<string | null>(null);
+  // Proposing or approving queues a new run: when the refreshed page brings a new status, ask again.
+  const status = useRef(versionStatus);
+  useEffect(() => {
+    if (status.current === versionStatus) return;
+    status.current = versionStatus;
+    void mutate();
+  }, [versionStatus, mutate]);
+  // Starting a run answers with the queued job, which becomes the panel's data without another request.
+  const run = useSWRMutation<ImpactDto, ApiError, string>(url, (u: string) => sendJson<ImpactDto>("POST", u), { populateCache: true, revalidate: false });
+  const busy = run.isMutating;
+  const startError = run.error?.message ?? null;
   const job = data?.job ?? null;
   const active = job?.status === "queued" || job?.status === "running";
 
-  const start = async () => {
-    setBusy(true);
-    setStartError(null);
-    const res = await fetch(url, { method: "POST", headers: { accept: "application/json" } });
-    const body = await res.json().catch(() => null);
-    setBusy(false);
-    if (!res.ok) return setStartError(body?.error?.message ?? "That did not work.");
-    await mutate(body as ImpactDto, { revalidate: false });
+  const start = () => {
+    run.reset(); // a previous refusal goes away while the new request runs
+    return run.trigger().catch(() => undefined);
   };
 
   const th = "border-b border-ink-line px-2 py-1 text-left font-medium whitespace-nowrap";

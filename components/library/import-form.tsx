@@ -3,6 +3,7 @@
 import Link from "next/link";
 import { useState } from "react";
 import { Button } from "@/components/ui/button";
+import { sendJson, settle } from "@/lib/api/client";
 
 type Result = { models: { id: number; name: string; created: boolean; versionIds: number[] }[]; versions: number };
 
@@ -38,11 +39,10 @@ export function ImportForm() {
       setBusy(false);
       return setError("The file is not valid JSON.");
     }
-    const res = await fetch("/api/v1/library/import", { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify(body) });
-    const data = await res.json().catch(() => ({}));
+    const answer = await settle(sendJson<Result>("POST", "/api/v1/library/import", body));
     setBusy(false);
-    if (!res.ok) return setError(data.error?.message ?? "Not imported.");
-    setResult(data);
+    if (!answer.ok) return setError(answer.error.message);
+    setResult(answer.data);
   }
 
   return (

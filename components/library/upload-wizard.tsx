@@ -7,6 +7,7 @@ import { PointsChart } from "@/components/charts/residual-chart";
 import { Button } from "@/components/ui/button";
 import { inputClass } from "@/components/ui/field";
 import { defaultPhase, PhaseSelect } from "./phase-select";
+import { sendJson, settle } from "@/lib/api/client";
 import { fileProblems, guessDelimiter, readDatasetRows, type DatasetParse } from "@/lib/datasets/csv";
 import { CP_UNIT_LABELS, CP_UNITS, DATASET_MAX_BYTES, T_UNIT_LABELS, T_UNITS } from "@/lib/validation/library";
 
@@ -51,10 +52,7 @@ function parseInChunks(text: string, onProgress: (fraction: number) => void): Pr
   });
 }
 
-async function send(url: string, body: unknown) {
-  const res = await fetch(url, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify(body) });
-  return { ok: res.ok, data: await res.json().catch(() => ({})) };
-}
+const post = <T,>(url: string, body: unknown) => settle(sendJson<T>("POST", url, body));
 
 export function UploadWizard({ species }: { species: SpeciesOption[] }) {
   const router = useRouter();
@@ -120,9 +118,10 @@ export function UploadWizard({ species }: { species: SpeciesOption[] }) {
     setBusy("upload");
     setError(null);
     const body = { name, filename, text, tUnit, cpUnit, phase: measuredPhase || null, ...(speciesId === "new" ? { species: { formula, displayName } } : { speciesId: Number(speciesId) }) };
-    const { ok, data } = await send("/api/v1/datasets", body);
+    const answer = await post<{ dataset: Dataset }>("/api/v1/datasets", body);
     setBusy(null);
-    if (!ok) return setError(data.error?.message ?? "Not uploaded.");
+    if (!answer.ok) return setError(answer.error.message);
+    const data = answer.data;
     setDataset(data.dataset);
     setPhase(defaultPhase(knownPhases(speciesId), data.dataset.phase));
     if (data.dataset.rangeK) {
@@ -148,10 +147,10 @@ export function UploadWizard({ species }: { species: SpeciesOption[] }) {
     if (!phase) return setError(phaseMissing);
     setBusy("fit");
     setError(null);
-    const { ok, data } = await send(`/api/v1/datasets/${dataset.id}/fit`, fitBody());
+    const answer = await post<{ fit: Fit }>(`/api/v1/datasets/${dataset.id}/fit`, fitBody());
     setBusy(null);
-    if (!ok) return setError(data.error?.message ?? "The fit failed.");
-    setFit(data.fit);
+    if (!answer.ok) return setError(answer.error.message);
+    setFit(answer.data.fit);
   }
 
   async function saveDraft() {
@@ -159,10 +158,10 @@ export function UploadWizard({ species }: { species: SpeciesOption[] }) {
     if (!phase) return setError(phaseMissing);
     setBusy("save");
     setError(null);
-    const { ok, data } = await send(`/api/v1/datasets/${dataset.id}/versions`, { fit: fitBody(), modelName, citation });
+    const answer = await post<{ version: { id: number } }>(`/api/v1/datasets/${dataset.id}/versions`, { fit: fitBody(), modelName, citation });
     setBusy(null);
-    if (!ok) return setError(data.error?.message ?? "Not saved.");
-    router.push(`/library/versions/${data.version.id}`);
+    if (!answer.ok) return setError(answer.error.message);
+    router.push(`/library/versions/${answer.data.version.id}`);
   }
 
   const bad = parse?.errors ?? [];

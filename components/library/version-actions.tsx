@@ -7,13 +7,9 @@ import { ConfirmDialog } from "@/components/ui/confirm-dialog";
 import { inputClass } from "@/components/ui/field";
 import { approveVersionAction, rejectVersionAction } from "@/app/(app)/library/versions/[id]/actions";
 import type { ActionState } from "@/lib/actions";
+import { sendJson, settle } from "@/lib/api/client";
 
 type Allowed = { edit: boolean; propose: boolean; decide: boolean; newDraft: boolean; copy: boolean; ownWork: boolean; withdraw?: boolean; remove?: boolean };
-
-async function post(url: string, body?: unknown): Promise<{ ok: boolean; data: { version?: { id: number }; error?: { message: string } } }> {
-  const res = await fetch(url, { method: "POST", headers: body ? { "content-type": "application/json" } : {}, body: body ? JSON.stringify(body) : undefined });
-  return { ok: res.ok, data: await res.json().catch(() => ({})) };
-}
 
 /** The workflow buttons the server said this person may use; the server checks again on every call. */
 export function VersionActions({ versionId, modelId, allowed, label, speciesHref }: { versionId: number; modelId: number; allowed: Allowed; label?: string; speciesHref?: string }) {
@@ -27,11 +23,10 @@ export function VersionActions({ versionId, modelId, allowed, label, speciesHref
   const remove = async () => {
     setBusy("delete");
     setError(null);
-    const res = await fetch(`/api/v1/versions/${versionId}`, { method: "DELETE" });
-    const data = await res.json().catch(() => ({}));
+    const answer = await settle(sendJson("DELETE", `/api/v1/versions/${versionId}`));
     setBusy(null);
     setConfirm(null);
-    if (!res.ok) return setError(data.error?.message ?? "Not deleted.");
+    if (!answer.ok) return setError(answer.error.message);
     router.push(speciesHref ?? "/library");
     router.refresh();
   };
@@ -39,10 +34,10 @@ export function VersionActions({ versionId, modelId, allowed, label, speciesHref
   const run = async (what: string, url: string, body?: unknown, go?: (id: number) => string) => {
     setBusy(what);
     setError(null);
-    const { ok, data } = await post(url, body);
+    const answer = await settle(sendJson<{ version?: { id: number } }>("POST", url, body));
     setBusy(null);
-    if (!ok) return setError(data.error?.message ?? "That did not work.");
-    if (go && data.version) router.push(go(data.version.id));
+    if (!answer.ok) return setError(answer.error.message);
+    if (go && answer.data?.version) router.push(go(answer.data.version.id));
     else router.refresh();
   };
 

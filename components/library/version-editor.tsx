@@ -5,6 +5,7 @@ import { useEffect, useMemo, useState } from "react";
 import useSWR from "swr";
 import { Button } from "@/components/ui/button";
 import { inputClass } from "@/components/ui/field";
+import { sendJson, settle, type ApiError } from "@/lib/api/client";
 import type { SpeciesInput } from "@/lib/thermo/schema";
 import { CP_FORMS, type CpForm } from "@/lib/thermo/schema";
 import { versionInputSchema } from "@/lib/validation/library";
@@ -41,12 +42,8 @@ function toData(segments: SegmentState[], reference: RefState, pressure: string,
 }
 
 type PreviewAnswer = CurveLike & { warnings: { code: string; message: string }[] };
-const previewFetcher = async ([url, body]: [string, string]): Promise<PreviewAnswer> => {
-  const res = await fetch(url, { method: "POST", headers: { "content-type": "application/json" }, body });
-  const data = await res.json();
-  if (!res.ok) throw new Error(data.error?.message ?? "The preview could not be computed.");
-  return data;
-};
+/** The preview is a computation on a body, not a resource: its key is the URL with the body it is asked for. */
+const previewFetcher = ([url, body]: [string, string]) => sendJson<PreviewAnswer>("POST", url, JSON.parse(body));
 
 function FieldError({ error }: { error?: string }) {
   return error ? <p role="alert" className="mt-1 text-xs font-medium text-flag-700">{error}</p> : null;
@@ -100,7 +97,7 @@ export function VersionEditor({ existing, species, modelId }: { existing?: Exist
     const t = setTimeout(() => setDebounced(body), 400);
     return () => clearTimeout(t);
   }, [body]);
-  const preview = useSWR(debounced ? ["/api/v1/preview", debounced] : null, previewFetcher, { keepPreviousData: true, revalidateOnFocus: false });
+  const preview = useSWR<PreviewAnswer, ApiError, [string, string] | null>(debounced ? ["/api/v1/preview", debounced] : null, previewFetcher, { keepPreviousData: true, revalidateOnFocus: false });
 
   const update = (i: number, patch: Partial<SegmentState>) => setSegments((all) => all.map((s, j) => (j === i ? { ...s, ...patch } : s)));
   const paste = (i: number, text: string) => {
@@ -115,29 +112,28 @@ export function VersionEditor({ existing, species, modelId }: { existing?: Exist
     setMessage(null);
     setServerErrors({});
     const version = { data, citation, changeNote: changeNote || null };
-    const res = existing
-      ? await fetch(`/api/v1/versions/${existing.id}`, { method: "PATCH", headers: { "content-type": "application/json" }, body: JSON.stringify({ ...version, lockVersion }) })
-      : modelId
-        ? await fetch(`/api/v1/models/${modelId}/versions`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify(version) })
-        : await fetch("/api/v1/models", {
-            method: "POST",
-            headers: { "content-type": "application/json" },
-            body: JSON.stringify({ ...(speciesId === "new" ? { species: { formula: newFormula, displayName: newName } } : { speciesId: Number(speciesId) }), name: modelName, version }),
-          });
-    const answer = await res.json().catch(() => ({}));
+    type Saved = { version: { id: number; lockVersion: number } };
+    const answer = await settle(
+      existing
+        ? sendJson<Saved>("PATCH", `/api/v1/versions/${existing.id}`, { ...version, lockVersion })
+        : modelId
+          ? sendJson<Saved>("POST", `/api/v1/models/${modelId}/versions`, version)
+          : sendJson<Saved>("POST", "/api/v1/models", { ...(speciesId === "new" ? { species: { formula: newFormula, displayName: newName } } : { speciesId: Number(speciesId) }), name: modelName, version }),
+    );
     setSaving(false);
-    if (res.status === 409 && answer.error?.details?.current) {
-      setConflict(answer.error.details.current);
-      setMessage(answer.error.message);
+    if (!answer.ok) {
+      const e = answer.error;
+      const current = e.details?.current as Existing | undefined;
+      if (e.status === 409 && current) {
+        setConflict(current);
+        setMessage(e.message);
+        return;
+      }
+      if (e.fields) setServerErrors(Object.fromEntries(Object.entries(e.fields).map(([k, v]) => [k.replace(/^version\./, ""), v])));
+      setMessage(e.message);
       return;
     }
-    if (!res.ok) {
-      const fields = answer.error?.details?.fields as Record<string, string> | undefined;
-      if (fields) setServerErrors(Object.fromEntries(Object.entries(fields).map(([k, v]) => [k.replace(/^version\./, ""), v])));
-      setMessage(answer.error?.message ?? "Not saved.");
-      return;
-    }
-    const v = answer.version;
+    const v = answer.data.version;
     setLockVersion(v.lockVersion);
     router.push(`/library/versions/${v.id}`);
     router.refresh();
@@ -313,7 +309,7 @@ export function VersionEditor({ existing, species, modelId }: { existing?: Exist
         <div className="rounded-lg border border-ink-line bg-white p-4 shadow-card">
           <h2 className="mb-2 flex items-center justify-between text-sm font-semibold">Live preview {preview.isLoading || preview.isValidating ? <span className="text-xs font-normal text-ink-muted" role="status">computing…</span> : null}</h2>
           {!check.success && <p className="text-sm text-ink-muted">Complete the highlighted fields to see the curve.</p>}
-          {preview.error && <p role="alert" className="text-sm text-flag-700">{(preview.error as Error).message}</p>}
+          {preview.error && <p role="alert" className="text-sm text-flag-700">{preview.error.message}</p>}
           {preview.data && !preview.error && <PropertyCharts a={preview.data} labelA="this draft" stacked />}
           {preview.data?.warnings?.length ? <ul className="mt-2 space-y-1 text-xs text-ember-700">{preview.data.warnings.slice(0, 4).map((w, k) => <li key={k}>{w.message}</li>)}</ul> : null}
         </div>

@@ -4,9 +4,7 @@ import { useState } from "react";
 import { Button } from "@/components/ui/button";
 import { gridValue, UNIT_LABELS, type DisplayUnit } from "@/lib/cases/display-unit";
 import { fixed, sci } from "@/lib/cases/format";
-import type { EvaluateResult } from "@/lib/thermo/evaluate";
-
-const PAGE = 50;
+import { TABLE_PAGE as PAGE, useTablePage, type TablePage } from "./use-case-results";
 
 /** K from ln K when it is finite in double precision (the engine's own rule for `K`). */
 const kOf = (lnK: number) => {
@@ -16,20 +14,29 @@ const kOf = (lnK: number) => {
 
 /**
  * Every point, paginated, temperatures in the display unit; each cell carries the API's number
- * (kelvin, full precision) in data-value. On screen: energies to 0.001 kJ/mol, ln K and log10 K
+ * (kelvin, full precision) in data-value. The first page comes with the case's results; a page
+ * turn asks the API for that page only. On screen: energies to 0.001 kJ/mol, ln K and log10 K
  * to 3 decimals, K to 4 significant figures. The header and the T column stay put when the
  * table scrolls (sideways on a phone).
  */
-export function NumbersTable({ points, unit = "K" }: { points: EvaluateResult["points"]; unit?: DisplayUnit }) {
+export function NumbersTable({ caseId, revision, firstPage, unit = "K" }: { caseId: number; revision?: number; firstPage: TablePage; unit?: DisplayUnit }) {
   const [page, setPage] = useState(0);
-  const pages = Math.max(1, Math.ceil(points.length / PAGE));
-  const rows = points.slice(page * PAGE, page * PAGE + PAGE);
+  const later = useTablePage(caseId, revision, page === 0 ? null : page * PAGE);
+  const shown = page === 0 ? firstPage : (later.data ?? firstPage);
+  const total = firstPage.total;
+  const pages = Math.max(1, Math.ceil(total / PAGE));
+  const rows = shown.points;
   const th = "sticky top-0 z-10 bg-paper-deep px-2 py-1.5 text-right font-medium whitespace-nowrap";
   const td = "px-2 py-1 text-right tabular whitespace-nowrap";
   const first = "sticky left-0 z-[5] border-r border-ink-line/60";
   return (
     <div>
-      <div className="max-h-[70vh] overflow-auto rounded-md border border-ink-line/60" data-testid="numbers-scroll" tabIndex={0} role="region" aria-label="Numbers table, scrolls sideways">
+      {later.error && (
+        <p role="alert" className="mb-2 text-xs text-flag-700">
+          {later.error.message}
+        </p>
+      )}
+      <div className="max-h-[70vh] overflow-auto rounded-md border border-ink-line/60" data-testid="numbers-scroll" aria-busy={page > 0 && later.isLoading ? true : undefined} tabIndex={0} role="region" aria-label="Numbers table, scrolls sideways">
         <table className="min-w-full border-separate border-spacing-0 text-xs" data-testid="numbers-table">
           <thead className="text-ink-soft">
             <tr>
@@ -75,7 +82,7 @@ export function NumbersTable({ points, unit = "K" }: { points: EvaluateResult["p
       </div>
       <div className="no-print mt-2 flex items-center justify-between gap-2 text-xs text-ink-muted">
         <span data-testid="table-range">
-          Rows {page * PAGE + 1}–{Math.min(points.length, (page + 1) * PAGE)} of {points.length.toLocaleString("en")}
+          Rows {shown.offset + 1}–{Math.min(total, shown.offset + PAGE)} of {total.toLocaleString("en")}
         </span>
         <span className="flex gap-2">
           <Button variant="secondary" className="!px-2 !py-1 text-xs" focusableWhenDisabled disabled={page === 0} onClick={() => setPage(page - 1)}>

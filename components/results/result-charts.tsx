@@ -13,12 +13,15 @@ export function toleranceWords(toleranceKJ: number, toleranceKFactor?: number | 
 /** The result's charts: ΔrG corrected vs naive, their difference, K, ln K vs 1/T, ΔrH and ΔrS, against T in the display unit. */
 export function ResultCharts({
   result,
+  totalPoints,
   toleranceKJ,
   toleranceKFactor = null,
   unit = "K",
   compact = false,
 }: {
   result: EvaluateResult;
+  /** How many temperatures the case has when `result.points` is already a drawing sample (the route's `points`). */
+  totalPoints?: number;
   toleranceKJ: number;
   toleranceKFactor?: number | null;
   unit?: DisplayUnit;
@@ -26,6 +29,7 @@ export function ResultCharts({
 }) {
   const s = useChartSeries(result, unit, toleranceKJ);
   if (!s) return null;
+  const total = Math.max(totalPoints ?? 0, s.total);
   const h = compact ? 210 : 280;
   const panel = "rounded-lg border border-ink-line bg-white p-3 break-inside-avoid print:border-ink-line";
   const title = "mb-1 text-sm font-semibold text-ink";
@@ -34,9 +38,9 @@ export function ResultCharts({
   const over = `beyond tolerance (${toleranceWords(toleranceKJ, toleranceKFactor)})`;
   return (
     <div className="space-y-4" data-testid="result-charts" data-unit={unit}>
-      {s.drawn < s.total && (
+      {s.drawn < total && (
         <p className="text-xs text-ink-muted" data-testid="downsample-note">
-          Charts draw {s.drawn.toLocaleString("en")} of {s.total.toLocaleString("en")} points (extremes kept); the table and the CSV carry every point.
+          Charts draw {s.drawn.toLocaleString("en")} of {total.toLocaleString("en")} points (extremes kept); the table and the CSV carry every point.
         </p>
       )}
       <section className={panel}>

@@ -2,20 +2,16 @@
 
 import dynamic from "next/dynamic";
 import Link from "next/link";
-import { useState } from "react";
-import useSWR from "swr";
 import { Badge } from "@/components/ui/badge";
 import { buttonClass } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
 import type { DisplayUnit } from "@/lib/cases/display-unit";
-import type { ResultsDto } from "@/lib/services/cases";
 import { Caution } from "./caution";
 import { NumbersTable } from "./numbers-table";
 import { ResultSummary, WarningList } from "./result-summary";
 import { useDisplayUnit } from "./display-unit-context";
 import { UnitSwitch } from "./unit-switch";
-
-type ApiError = { code: string; message: string };
+import { useCaseResults } from "./use-case-results";
 
 const ContributionsChart = dynamic(() => import("./contributions-chart").then((m) => m.ContributionsChart), { ssr: false });
 
@@ -25,27 +21,17 @@ const ResultCharts = dynamic(() => import("./result-charts").then((m) => m.Resul
   loading: () => <p className="py-8 text-center text-sm text-ink-muted">Drawing the charts…</p>,
 });
 
-export async function fetchJson<T>(url: string): Promise<T> {
-  const res = await fetch(url, { headers: { accept: "application/json" } });
-  const body = await res.json().catch(() => null);
-  if (!res.ok) throw (body?.error as ApiError) ?? { code: "http", message: `Request failed (${res.status}).` };
-  return body as T;
-}
-
 /**
  * The results of a case, fetched from the API: the stored snapshot once submitted, a live
  * evaluation while a draft. Temperatures read in `initialUnit` (the unit the case was entered
  * in) until the reader switches.
  */
-export function ResultsView({ caseId, revision, stamp, initialUnit = "K" }: { caseId: number; revision?: number; stamp: number; initialUnit?: DisplayUnit }) {
+export function ResultsView({ caseId, revision, initialUnit = "K" }: { caseId: number; revision?: number; initialUnit?: DisplayUnit }) {
   const { unit, setUnit } = useDisplayUnit(initialUnit);
   const q = revision ? `?revision=${revision}` : "";
   const withUnit = (base: string) => (unit === "K" ? base : `${base}${base.includes("?") ? "&" : "?"}unit=${unit}`);
-  // The case's lockVersion is part of the key: an edit, a submission or a decision fetches afresh.
-  const { data, error, isLoading } = useSWR<ResultsDto, ApiError, [string, number]>([`/api/v1/cases/${caseId}/results${q}`, stamp], ([url]) => fetchJson<ResultsDto>(url), {
-    revalidateOnFocus: false,
-    keepPreviousData: true,
-  });
+  // One request per view, shared with the equilibrium panel: the drawing sample and the table's first page.
+  const { data, error, isLoading } = useCaseResults(caseId, revision);
 
   if (isLoading) return <Card><p className="text-sm text-ink-muted">Loading the results…</p></Card>;
   if (error || !data) {
@@ -93,13 +79,13 @@ export function ResultsView({ caseId, revision, stamp, initialUnit = "K" }: { ca
       <Card title="What the numbers say">
         <ResultSummary result={r} unit={unit} />
       </Card>
-      <ResultCharts result={r} toleranceKJ={data.inputs.toleranceKJ} toleranceKFactor={data.inputs.toleranceKFactor} unit={unit} />
+      <ResultCharts result={r} totalPoints={data.sample.total} toleranceKJ={data.inputs.toleranceKJ} toleranceKFactor={data.inputs.toleranceKFactor} unit={unit} />
       <ContributionsChart result={r} unit={unit} />
       <Card title={`Warnings (${r.warnings.length})`}>
         <WarningList warnings={r.warnings} />
       </Card>
       <Card title="Numbers">
-        <NumbersTable points={r.points} unit={unit} />
+        <NumbersTable caseId={caseId} revision={revision} firstPage={data.page} unit={unit} />
       </Card>
       <Caution />
     </div>

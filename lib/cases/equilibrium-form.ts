@@ -5,13 +5,24 @@
  */
 import { elementBalance } from "./balance";
 import { parseFormula } from "@/lib/thermo/formula";
-import { FEED_UNITS } from "@/lib/thermo/schema";
+import { FEED_UNITS, type FeedUnit } from "@/lib/thermo/schema";
 
 const MARKER = /\((cr(?:-[A-Za-z0-9_.]+)?|l|g)\)$/;
 const NUMBER = /^(?:\d+(?:\.\d*)?|\.\d+)(?:e[-+]?\d+)?(?:\/(?:\d+(?:\.\d*)?|\.\d+))?$/i;
 
 /** Units of amount a feed may be given in: the engine's own closed set. */
 export const FEED_UNIT_HINT = FEED_UNITS.join(", ");
+
+/** Mass units and the amount unit the engine gives their moles in (tests/lib/equilibrium-form.test.ts holds it to the engine). */
+export const MASS_FEED_UNITS: Partial<Record<FeedUnit, FeedUnit>> = { g: "mol", kg: "kmol", "kg/h": "kmol/h", "t/h": "kmol/h" };
+
+/** What the outlet's amounts come back in for a feed in `unit`, in words for the field's hint. */
+export function feedUnitHint(unit: string): string {
+  const amount = MASS_FEED_UNITS[unit.trim() as FeedUnit];
+  return amount
+    ? `A mass: each species is converted with its molar mass (from its formula); moles come back in ${amount}.`
+    : "Moles come back in the same unit.";
+}
 /** Pressure units the panel takes (absolute pressures; gauge units are refused). */
 export const PRESSURE_PATTERN = /^\s*([-+]?(?:\d+(?:\.\d*)?|\.\d+)(?:e[-+]?\d+)?)\s*(bar|mbar|Pa|kPa|MPa|atm|psi)?\s*$/;
 

@@ -9,6 +9,7 @@ import type { Locator, Page } from "playwright-core";
 import { describe, expect, it } from "vitest";
 import { signCaseSentence } from "@/lib/cases/sign-case";
 import type { EvaluateResult } from "@/lib/thermo/evaluate";
+import { FEED_UNITS } from "@/lib/thermo/schema";
 import { baseURL, browserForFile, openBrowser, shot, signIn, signOut } from "./browser";
 
 const b = browserForFile();
@@ -254,18 +255,24 @@ describe("the equilibrium panel's checks (item 9)", () => {
     expect(await panel.getByText("“Xx(g)” is not a species").count()).toBe(1);
     expect(await panel.getByTestId("feed-rows").textContent()).not.toContain("Xx(g)");
 
-    await panel.getByLabel("Unit of amount").fill("bananas");
+    // The unit is a choice among the engine's own units, so no other can be entered; a mass unit says what the moles come back in.
+    const unitField = panel.getByLabel("Unit of amount");
+    expect(await unitField.locator("option").allTextContents()).toEqual([...FEED_UNITS]);
+    await unitField.selectOption("kg");
+    expect(await panel.textContent()).toContain("each species is converted with its molar mass (from its formula); moles come back in kmol.");
+    await unitField.selectOption("mol");
+    expect(await panel.textContent()).toContain("Moles come back in the same unit.");
     await panel.getByLabel("Pressure").fill("abc");
     await panel.getByLabel("Simultaneous reactions (optional, one per line)").fill("banana\nx CO(g) + H2O(g) -> CO2(g) + H2(g)");
     await panel.getByRole("textbox", { name: "CH4(g)", exact: true }).fill("lots");
     await panel.getByRole("button", { name: "Solve" }).click();
     await panel.getByTestId("equilibrium-error").waitFor();
     const text = (await panel.textContent()) ?? "";
-    for (const words of ["“bananas” is not a unit of amount", "“abc” is not a pressure", "Line 1: “banana” is not a reaction", "Line 2: The coefficient “x” of CO(g) is not a number", "“lots” is not a number"]) {
+    for (const words of ["“abc” is not a pressure", "Line 1: “banana” is not a reaction", "Line 2: The coefficient “x” of CO(g) is not a number", "“lots” is not a number"]) {
       expect(text.split(words).length - 1, words).toBe(1);
     }
     expect(text).not.toMatch(/invalid-request|equilibrium\.(feed|reactions|pressure)|feedUnit:/);
-    expect(await panel.getByLabel("Unit of amount").getAttribute("aria-invalid")).toBe("true");
+    expect(await panel.getByLabel("Pressure").getAttribute("aria-invalid")).toBe("true");
     await panel.screenshot({ path: "test-results/screens/screens-equilibrium-errors.png" });
 
     // The API refuses the same things (an unknown unit or element is not silently accepted).

@@ -1,5 +1,7 @@
 import { describe, expect, it } from "vitest";
-import { checkEquilibriumForm, checkFeedUnit, checkPressure, checkReactionLine, checkSpeciesKey } from "@/lib/cases/equilibrium-form";
+import { checkEquilibriumForm, checkFeedUnit, checkPressure, checkReactionLine, checkSpeciesKey, feedUnitHint, MASS_FEED_UNITS } from "@/lib/cases/equilibrium-form";
+import { feedAmounts } from "@/lib/thermo/equilibrium";
+import { FEED_UNITS } from "@/lib/thermo/schema";
 import { warningMeaning } from "@/lib/cases/warnings";
 import { caseEquilibriumSchema } from "@/lib/validation/equilibrium";
 import { fieldErrorsOf } from "@/lib/cases/zod-errors";
@@ -40,5 +42,17 @@ describe("equilibrium panel checks", () => {
 
   it("gives equilibrium-not-converged a meaning in plain words", () => {
     expect(warningMeaning("equilibrium-not-converged")).toContain("did not settle");
+  });
+});
+
+describe("the feed unit's hint", () => {
+  it("names the unit the engine gives the moles in, for every feed unit the engine takes", () => {
+    for (const unit of FEED_UNITS) {
+      const { amountUnit, molarMass } = feedAmounts({ "H2O(g)": 1 }, unit);
+      // A mass unit goes through the molar mass; the panel's table of mass units says so and names the engine's amount unit.
+      expect(MASS_FEED_UNITS[unit] ?? unit, unit).toBe(amountUnit);
+      expect(Boolean(MASS_FEED_UNITS[unit]), unit).toBe(molarMass !== undefined);
+      expect(feedUnitHint(unit), unit).toBe(molarMass ? `A mass: each species is converted with its molar mass (from its formula); moles come back in ${amountUnit}.` : "Moles come back in the same unit.");
+    }
   });
 });
