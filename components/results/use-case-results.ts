@@ -10,7 +10,7 @@ import { columnsToPoints } from "@/lib/thermo/columns";
 /** Rows of the numbers table on screen; the case page asks for the first page with its results. */
 export const TABLE_PAGE = 50;
 /** Points the case page draws (the route's drawing sample). */
-export const DRAW_SAMPLE = 1200;
+const DRAW_SAMPLE = 1200;
 
 export type TablePage = { offset: number; limit: number; total: number; points: EvaluatePoint[] };
 /** The case page's results: `result.points` is the drawing sample; `page` is the table's first page. */
@@ -20,9 +20,9 @@ const base = (caseId: number) => `/api/v1/cases/${caseId}/results`;
 const withRevision = (caseId: number, revision?: number) => `${base(caseId)}?${revision ? `revision=${revision}&` : ""}format=columns`;
 
 /** The one results request of a case page view: the drawing sample and the table's first page. */
-export const caseResultsUrl = (caseId: number, revision?: number) => `${withRevision(caseId, revision)}&points=${DRAW_SAMPLE}&offset=0&limit=${TABLE_PAGE}`;
+const caseResultsUrl = (caseId: number, revision?: number) => `${withRevision(caseId, revision)}&points=${DRAW_SAMPLE}&offset=0&limit=${TABLE_PAGE}`;
 /** A later page of the numbers table, on its own. */
-export const tablePageUrl = (caseId: number, revision: number | undefined, offset: number) => `${withRevision(caseId, revision)}&offset=${offset}&limit=${TABLE_PAGE}`;
+const tablePageUrl = (caseId: number, revision: number | undefined, offset: number) => `${withRevision(caseId, revision)}&offset=${offset}&limit=${TABLE_PAGE}`;
 
 const pageOf = (page: PageInfo): TablePage => ({ offset: page.offset, limit: page.limit, total: page.total, points: columnsToPoints(page.columns) });
 

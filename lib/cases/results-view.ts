@@ -55,7 +55,7 @@ const pick = (table: Record<string, number[]>, indices: readonly number[]) =>
   Object.fromEntries(Object.entries(table).map(([k, v]) => [k, indices.map((i) => v[i])]));
 
 /** Which points to draw: the charted point fields and each species' share of the gap and of the 1σ band. */
-export function drawingIndices(result: EvaluateResult, maxPoints: number): number[] {
+function drawingIndices(result: EvaluateResult, maxPoints: number): number[] {
   const p = result.points;
   const series: ArrayLike<unknown>[] = [];
   for (const key of CHARTED_KEYS) {
