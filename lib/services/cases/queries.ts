@@ -90,7 +90,7 @@ async function commentsOf(caseId: number): Promise<CommentDto[]> {
 }
 
 /** The pins a stored case shows: every term's and the equilibrium's extra species'; none when one no longer loads. */
-export const casePins = (row: Case, transaction?: Transaction): Promise<PinnedVersion[]> =>
+const casePins = (row: Case, transaction?: Transaction): Promise<PinnedVersion[]> =>
   loadPins(row.teamId, pinTerms(row.inputs), { allowAny: true, transaction }).catch(() => [] as PinnedVersion[]);
 
 /**
