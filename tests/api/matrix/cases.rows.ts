@@ -80,6 +80,7 @@ export const ROWS: Row[] = [
   },
   { name: "case results", file: "cases/[id]/results", method: "GET", handler: results.GET as Handler, prepare: async () => ({ params: { id: await draft() } }), expect: teamReads() },
   { name: "case results (columns)", file: "cases/[id]/results", method: "GET", query: "format=columns", handler: results.GET as Handler, prepare: async () => ({ params: { id: await draft() } }), expect: teamReads() },
+  { name: "case results (the case page's sample and first page)", file: "cases/[id]/results", method: "GET", query: "format=columns&points=1200&offset=0&limit=50", handler: results.GET as Handler, prepare: async () => ({ params: { id: await draft() } }), expect: teamReads() },
   {
     name: "case submit",
     file: "cases/[id]/submit",
