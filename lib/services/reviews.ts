@@ -8,7 +8,7 @@ import { AppError, conflict, notFound } from "@/lib/errors";
 import type { DecisionInput } from "@/lib/validation/cases";
 import { recordAudit } from "./audit";
 import { caseReaction, getCase, listCases, type CaseDto, type CaseSummaryDto } from "./cases";
-import { contributedVersionIds } from "./library";
+import { contributedVersionIds } from "./library/rows";
 import { enqueueMail } from "./mail";
 import { CAUTION_TEXT } from "@/lib/cases/caution";
 
