@@ -7,9 +7,9 @@
 import { EngineRefusal, parseTemperatureK, speciesProperties, type EngineWarning, type SpeciesInput } from "./index";
 
 /** One phase's chain of segments: the lowest and highest temperature its segments cover (K). */
-export type ChainRange = { phase: string; tminK: number; tmaxK: number };
+type ChainRange = { phase: string; tminK: number; tmaxK: number };
 
-export type DataDescription = {
+type DataDescription = {
   /** Phases in the order their first segment appears. */
   phases: string[];
   forms: string[];
@@ -19,11 +19,11 @@ export type DataDescription = {
   chains: ChainRange[];
 };
 
-export type CurvePoint = { tK: number; cpJ: number; hkJ: number; sJ: number; gkJ: number; phase: string; extrapolated: boolean };
+type CurvePoint = { tK: number; cpJ: number; hkJ: number; sJ: number; gkJ: number; phase: string; extrapolated: boolean };
 /** Where the stable phase changes along the curve (lowest G, or the stated transition), from the engine's phase-change-in-span warnings. */
-export type PhaseChange = { tK: number; from: string; to: string };
+type PhaseChange = { tK: number; from: string; to: string };
 export type Curve = { points: CurvePoint[]; chains: ChainRange[]; phaseChanges: PhaseChange[]; warnings: EngineWarning[]; fromK: number; toK: number };
-export type CurveOptions = { fromK?: number; toK?: number; points?: number; phase?: string; edges?: boolean };
+type CurveOptions = { fromK?: number; toK?: number; points?: number; phase?: string; edges?: boolean };
 
 const kelvin = (q: number | string): number => (typeof q === "number" ? q : parseTemperatureK(q, "tK"));
 

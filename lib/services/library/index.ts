@@ -4,17 +4,4 @@
  */
 export { exportLibrary, getModel, getSpecies, getVersion, listModels, listSpecies, previewCurve, versionAudit, versionCurve } from "./queries";
 export { approveVersion, copyReferenceVersion, createModel, createSpecies, createVersion, editVersion, importLibrary, proposeVersion, rejectVersion } from "./commands";
-export type {
-  ContributorDto,
-  ImportResult,
-  ModelDetailDto,
-  ModelRowDto,
-  ModelSummaryDto,
-  Page,
-  Scope,
-  SpeciesDetailDto,
-  SpeciesDto,
-  VersionAuditDto,
-  VersionDto,
-  VersionSummaryDto,
-} from "./present";
+export type { VersionDto } from "./present";

@@ -9,7 +9,7 @@ import type { CpModel, ModelVersion, Species } from "@/models";
 import type { VersionStatus, VersionUncertainty } from "@/models/model-version";
 import type { ContributorRole } from "@/models/model-version-contributor";
 
-export type Scope = "reference" | "team";
+type Scope = "reference" | "team";
 export type SpeciesDto = {
   id: number;
   formula: string;
@@ -21,7 +21,7 @@ export type SpeciesDto = {
   phasePoints: { boilingPointK: number | null; triplePointK: number | null; citation: string | null } | null;
 };
 export type ModelSummaryDto = { id: number; name: string; family: string; variant: string | null; scope: Scope; copiedFromId: number | null };
-export type VersionSummaryDto = {
+type VersionSummaryDto = {
   id: number;
   versionNumber: number;
   status: VersionStatus;
@@ -33,7 +33,7 @@ export type VersionSummaryDto = {
   updatedAt: string;
 };
 /** Someone who changed or proposed a version, with each part they took (docs/library.md, four-eyes). */
-export type ContributorDto = { userId: number; name: string; roles: ContributorRole[] };
+type ContributorDto = { userId: number; name: string; roles: ContributorRole[] };
 export type VersionDto = VersionSummaryDto & {
   modelId: number;
   scope: Scope;
@@ -71,7 +71,7 @@ export type ImportResult = { models: { id: number; name: string; created: boolea
 /** A person's parts in a version, in the order of CONTRIBUTOR_ROLES. */
 export type Contributor = { userId: number; roles: ContributorRole[] };
 
-export const scopeOf = (teamId: number | null): Scope => (teamId === null ? "reference" : "team");
+const scopeOf = (teamId: number | null): Scope => (teamId === null ? "reference" : "team");
 
 export function speciesDto(s: Species): SpeciesDto {
   return { id: s.id, formula: s.formula, displayName: s.displayName, elements: s.elements, molarMassGPerMol: s.molarMassGPerMol, scope: scopeOf(s.teamId), phasePoints: phasePointsOf(s) ?? null };
