@@ -1,8 +1,7 @@
 import "server-only";
 import { Op, type Transaction } from "sequelize";
 import { requirePermission, type Actor } from "@/lib/auth/guards";
-import { termKey } from "@/lib/cases/balance";
-import { phasePointsOf } from "@/lib/cases/equilibrium";
+import { pinnedVersionOf } from "@/lib/cases/pin";
 import { models } from "@/lib/db";
 import { AppError } from "@/lib/errors";
 import { describeData } from "@/lib/thermo/curve";
@@ -125,23 +124,7 @@ export async function loadPins(teamId: number, terms: readonly CaseTerm[], optio
     if (s.formula !== t.formula) throw pinError(i, `That version belongs to ${s.formula}, not ${t.formula}.`);
     const { phases } = phasesOf(v.data);
     if (t.phase && !phases.includes(t.phase)) throw pinError(i, `${m.name} v${v.versionNumber} has no ${t.phase} phase (it has ${phases.join(", ")}).`);
-    return {
-      key: termKey(t),
-      formula: t.formula,
-      phase: t.phase,
-      versionId: v.id,
-      modelId: m.id,
-      speciesName: s.displayName,
-      modelName: m.name,
-      family: m.family,
-      versionNumber: v.versionNumber,
-      status: v.status,
-      citation: v.citation,
-      data: v.data,
-      uncertainty: v.uncertainty ?? null,
-      phasePoints: phasePointsOf(s),
-      ...(s.critical ? { critical: { tcK: s.critical.tcK, pcBar: s.critical.pcBar, omega: s.critical.omega } } : {}),
-    };
+    return pinnedVersionOf(t, v, m, s);
   });
 }
 
