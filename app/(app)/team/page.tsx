@@ -9,6 +9,7 @@ import { requireUser } from "@/lib/auth/guards";
 import { getActor } from "@/lib/auth/session";
 import { isProduction } from "@/lib/env";
 import { listInvitations, listMembers } from "@/lib/services/team";
+import { changeRoleAction, inviteAction, removeMemberAction, revokeInvitationAction } from "./actions";
 
 export const metadata = { title: "Team" };
 
@@ -19,7 +20,7 @@ const INVITATION_COLUMNS: Column<Awaited<ReturnType<typeof listInvitations>>[num
   { key: "role", header: "Role", cell: (i) => ROLE_LABELS[i.role] },
   { key: "status", header: "Status", cell: (i) => <Badge tone={statusTone[i.status]}>{i.status}</Badge> },
   { key: "expires", header: "Expires", className: "tabular text-ink-muted", cell: (i) => i.expiresAt.slice(0, 10) },
-  { key: "revoke", header: null, align: "right", cell: (i) => i.status === "pending" && <RevokeInvitationButton invitationId={i.id} /> },
+  { key: "revoke", header: null, align: "right", cell: (i) => i.status === "pending" && <RevokeInvitationButton invitationId={i.id} revoke={revokeInvitationAction} /> },
 ];
 
 export default async function TeamPage() {
@@ -38,14 +39,14 @@ export default async function TeamPage() {
                   <p className="text-sm font-medium">{m.name}{m.userId === actor.userId && <span className="text-ink-muted"> (you)</span>}</p>
                   <p className="text-xs text-ink-muted">{m.email}</p>
                 </div>
-                {manage ? <MemberControls membershipId={m.id} role={m.role} name={m.name} /> : <Badge>{ROLE_LABELS[m.role]}</Badge>}
+                {manage ? <MemberControls membershipId={m.id} role={m.role} name={m.name} changeRole={changeRoleAction} removeMember={removeMemberAction} /> : <Badge>{ROLE_LABELS[m.role]}</Badge>}
               </li>
             ))}
           </ul>
         </Card>
         {manage && (
           <Card title="Invite someone">
-            <InviteForm demo={!isProduction} />
+            <InviteForm demo={!isProduction} invite={inviteAction} />
             {invitations.length > 0 && (
               <DataTable className="mt-6" caption="Invitations" columns={INVITATION_COLUMNS} rows={invitations} rowKey={(i) => i.id} />
             )}

@@ -13,6 +13,7 @@ import { requireUser } from "@/lib/auth/guards";
 import { getActor } from "@/lib/auth/session";
 import { getVersion, versionAudit, versionCurve } from "@/lib/services/library";
 import { FAMILY_LABELS } from "@/lib/validation/library";
+import { approveVersionAction, rejectVersionAction } from "./actions";
 
 type Props = { params: Promise<{ id: string }> };
 
@@ -112,7 +113,7 @@ export default async function VersionPage({ params }: Props) {
         </div>
         <div className="space-y-6">
           <Card title="Workflow">
-            <VersionActions versionId={v.id} modelId={v.modelId} allowed={allowed} label={`${v.model.name}, version ${v.versionNumber}`} speciesHref={`/library/species/${v.species.id}`} />
+            <VersionActions versionId={v.id} modelId={v.modelId} allowed={allowed} label={`${v.model.name}, version ${v.versionNumber}`} speciesHref={`/library/species/${v.species.id}`} decisions={{ approve: approveVersionAction, reject: rejectVersionAction }} />
             <dl className="mt-4 space-y-1 text-sm">
               <div className="flex justify-between gap-2"><dt className="text-ink-muted">Author</dt><dd>{v.authorName ?? (v.scope === "reference" ? "Published source" : "—")}</dd></div>
               {v.contributors.length > 0 && (
