@@ -96,7 +96,8 @@ export function ImpactPanel({ versionId, versionStatus, canStart }: { versionId:
             columns={IMPACT_COLUMNS}
             rows={data.cases}
             rowKey={(c) => c.caseId}
-            rowClassName={(c) => (c.exceedsTolerance ? "bg-flag-50 align-top" : "align-top")}
+            alignTop
+            rowClassName={(c) => (c.exceedsTolerance ? "bg-flag-50" : undefined)}
           />
         </div>
       )}

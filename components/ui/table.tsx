@@ -5,7 +5,7 @@ import type { Key, ReactNode } from "react";
  *
  * Looks:
  * - `list`: records on a page (cases, datasets, audit, invitations, segments) — text-sm, muted
- *   small headers, a rule between rows, cells aligned to the top.
+ *   small headers, a rule between rows.
  * - `numbers`: engine numbers (summary, equilibrium, fugacity, sources, contributions, impact) —
  *   text-xs, a rule under the headers, right-aligned tabular figures.
  * - `compact`: small right-aligned lists of numbers with muted headers (snapshot diff, stored points).
@@ -39,7 +39,7 @@ const LOOKS: Record<TableLook, LookClasses> = {
     table: "w-full text-sm",
     thead: "text-xs text-ink-muted",
     th: "py-1 pr-3 font-medium last:pr-0",
-    tbody: "divide-y divide-ink-line align-top",
+    tbody: "divide-y divide-ink-line",
     tr: "",
     td: "py-1.5 pr-3 last:pr-0",
     right: "text-right tabular",
@@ -96,6 +96,7 @@ export function DataTable<Row>({
   dense = false,
   rules = false,
   stickyHeader = false,
+  alignTop = false,
   align,
   nowrapHeader = false,
 }: {
@@ -116,6 +117,8 @@ export function DataTable<Row>({
   dense?: boolean;
   /** A rule between body rows. */
   rules?: boolean;
+  /** Cells start at the top of a row (rows with several lines). */
+  alignTop?: boolean;
   /** Every column's alignment unless it says otherwise; default: right in every look but `list`. */
   align?: "left" | "right";
   /** Header cells never wrap. */
@@ -139,7 +142,7 @@ export function DataTable<Row>({
           ))}
         </tr>
       </thead>
-      <tbody className={join(l.tbody, rules && "divide-y divide-ink-line") || undefined}>
+      <tbody className={join(l.tbody, rules && "divide-y divide-ink-line", alignTop && "align-top") || undefined}>
         {rows.map((row, i) => (
           <tr key={rowKey(row, i)} className={join(l.tr, rowClassName?.(row, i)) || undefined} data-testid={rowTestId}>
             {cols.map((c) => {

@@ -130,7 +130,7 @@ export default async function AuditPage({ searchParams }: { searchParams: Search
           <p className="text-sm text-ink-muted">No events match these filters.</p>
         ) : (
           <div className="overflow-x-auto">
-            <DataTable testId="audit-table" rowTestId="audit-row" columns={COLUMNS} rows={events} rowKey={(e) => e.id} />
+            <DataTable alignTop testId="audit-table" rowTestId="audit-row" columns={COLUMNS} rows={events} rowKey={(e) => e.id} />
           </div>
         )}
         <Pager className="mt-3" nextHref={older} nextLabel="Older events →" />

@@ -122,7 +122,7 @@ export default async function ReportPage({ params, searchParams }: Props) {
           ]}
           rows={data.pins}
           rowKey={(p) => p.key}
-          rowClassName={() => "align-top"}
+          alignTop
         />
       </section>
 

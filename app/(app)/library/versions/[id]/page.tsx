@@ -95,6 +95,7 @@ export default async function VersionPage({ params }: Props) {
             <div className="overflow-x-auto">
               <DataTable
                 className="min-w-[36rem]"
+                alignTop
                 testId="segments-table"
                 columns={[
                   { key: "phase", header: "Phase", cell: (s) => phaseLabel(s.phase) },
