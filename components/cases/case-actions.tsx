@@ -4,7 +4,6 @@ import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { Button } from "@/components/ui/button";
 import { ConfirmDialog } from "@/components/ui/confirm-dialog";
-import { refreshCaseResults } from "@/components/results/use-case-results";
 import { sendJson, settle } from "@/lib/api/client";
 
 /** Submit for review (after a confirmation: it freezes a snapshot), or re-run onto newer approved versions. */
@@ -35,10 +34,7 @@ export function CaseActions({
     setBusy(false);
     setConfirming(false);
     if (!answer.ok) setMessage(answer.error.message);
-    else {
-      await refreshCaseResults(caseId);
-      router.refresh();
-    }
+    else router.refresh();
   }
   const submitLabel = status === "returned" ? "Resubmit for review" : "Submit for review";
   return (

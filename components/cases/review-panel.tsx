@@ -5,7 +5,6 @@ import { useState } from "react";
 import { Button } from "@/components/ui/button";
 import { ConfirmDialog } from "@/components/ui/confirm-dialog";
 import { inputClass } from "@/components/ui/field";
-import { refreshCaseResults } from "@/components/results/use-case-results";
 import { sendJson, settle } from "@/lib/api/client";
 
 /**
@@ -40,10 +39,7 @@ export function ReviewPanel({ caseId, revision, title, authorName }: { caseId: n
     setBusy(false);
     setConfirming(false);
     if (!answer.ok) setError(answer.error.fields?.reason ?? answer.error.message);
-    else {
-      await refreshCaseResults(caseId);
-      router.refresh();
-    }
+    else router.refresh();
   }
   const approving = decision === "approved";
   return (

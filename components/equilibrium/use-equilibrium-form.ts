@@ -3,7 +3,7 @@
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import useSWRMutation from "swr/mutation";
-import { refreshCaseResults, type CaseResults } from "@/components/results/use-case-results";
+import type { CaseResults } from "@/components/results/use-case-results";
 import { ApiError, sendJson } from "@/lib/api/client";
 import { checkEquilibriumForm, checkReactionLine, checkSpeciesKey } from "@/lib/cases/equilibrium-form";
 import type { EvaluateResult } from "@/lib/thermo/evaluate";
@@ -95,7 +95,7 @@ export function useEquilibriumForm({ caseId, lockVersion, initial, caseKeys, rea
   const [errors, setErrors] = useState<Record<string, string>>({});
   const [saved, setSaved] = useState<string | null>(null);
   const [sources, setSources] = useState<SourcesDto | null>(null);
-  // The write: the case's feed is replaced (or removed); afterwards the case's results are asked for again.
+  // The write: the case's feed is replaced (or removed).
   const store = useSWRMutation(`/api/v1/equilibrium/cases/${caseId}`, (url: string, { arg }: { arg: { lockVersion: number; equilibrium: CaseEquilibrium | null } }) => sendJson("PUT", url, arg));
 
   const reactions = reactionsText.split("\n").map((l) => l.trim()).filter(Boolean);
@@ -171,7 +171,7 @@ export function useEquilibriumForm({ caseId, lockVersion, initial, caseKeys, rea
         await store.trigger({ lockVersion, equilibrium: what === "clear" ? null : equilibrium() });
         setTrial(null);
         setSaved(what === "clear" ? "Equilibrium removed from the case." : "Saved to the case.");
-        await refreshCaseResults(caseId);
+        // The refreshed page brings the case's new lockVersion, and with it the results are asked for again (useCaseResults).
         router.refresh();
       } else if (data) {
         const shown = trial ?? data.result;

@@ -26,12 +26,13 @@ const ResultCharts = dynamic(() => import("./result-charts").then((m) => m.Resul
  * evaluation while a draft. Temperatures read in `initialUnit` (the unit the case was entered
  * in) until the reader switches.
  */
-export function ResultsView({ caseId, revision, initialUnit = "K" }: { caseId: number; revision?: number; initialUnit?: DisplayUnit }) {
+export function ResultsView({ caseId, revision, stamp, initialUnit = "K" }: { caseId: number; revision?: number; stamp: number; initialUnit?: DisplayUnit }) {
   const { unit, setUnit } = useDisplayUnit(initialUnit);
   const q = revision ? `?revision=${revision}` : "";
   const withUnit = (base: string) => (unit === "K" ? base : `${base}${base.includes("?") ? "&" : "?"}unit=${unit}`);
   // One request per view, shared with the equilibrium panel: the drawing sample and the table's first page.
-  const { data, error, isLoading } = useCaseResults(caseId, revision);
+  // The case's lockVersion (stamp): an edit, a submission or a decision asks afresh.
+  const { data, error, isLoading } = useCaseResults(caseId, revision, stamp);
 
   if (isLoading) return <Card><p className="text-sm text-ink-muted">Loading the results…</p></Card>;
   if (error || !data) {

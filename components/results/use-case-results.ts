@@ -1,5 +1,6 @@
 "use client";
 
+import { useEffect, useRef } from "react";
 import useSWR, { mutate } from "swr";
 import { ApiError, getJson } from "@/lib/api/client";
 import type { PageInfo, ResultsView, SampleInfo } from "@/lib/cases/results-view";
@@ -39,9 +40,19 @@ const options = { revalidateOnFocus: false, keepPreviousData: true } as const;
 /**
  * The results of a case for its page, keyed by their URL: the results view and the equilibrium
  * panel share the one request (the stored snapshot once submitted, a live evaluation of a draft).
+ * `stamp` is the case's lockVersion as the page last rendered it (given by one of the two): every
+ * write to a case moves it, and when the refreshed page brings a new one the results are asked
+ * for again, in step with the rest of the page (status, inputs).
  */
-export function useCaseResults(caseId: number, revision?: number) {
-  return useSWR<CaseResults, ApiError>(caseResultsUrl(caseId, revision), fetchCaseResults, options);
+export function useCaseResults(caseId: number, revision?: number, stamp?: number) {
+  const swr = useSWR<CaseResults, ApiError>(caseResultsUrl(caseId, revision), fetchCaseResults, options);
+  const seen = useRef(stamp);
+  useEffect(() => {
+    if (stamp === undefined || seen.current === stamp) return;
+    seen.current = stamp;
+    void refreshCaseResults(caseId);
+  }, [caseId, stamp]);
+  return swr;
 }
 
 /** One later page of the numbers table; `null` offset asks for nothing (the first page came with the results). */
@@ -50,9 +61,9 @@ export function useTablePage(caseId: number, revision: number | undefined, offse
 }
 
 /**
- * After a write that changes what a case computes or shows (an edit, a submission, a decision,
- * the equilibrium feed): drop every cached results answer of the case, so the page on screen
- * asks again once and a page opened later does not show the old numbers first.
+ * Drop every cached results answer of a case (the sample and any table page), so a mounted view
+ * asks again once and a page opened later does not show the old numbers first: on a new stamp,
+ * and from the builder before it opens the edited case.
  */
 export function refreshCaseResults(caseId: number): Promise<unknown> {
   const prefix = `${base(caseId)}?`;

@@ -93,7 +93,7 @@ export default async function CasePage({ params, searchParams }: Props) {
         </p>
       )}
       <DisplayUnitProvider initialUnit={enteredUnit(c.inputs.temperatures)}>
-      <ResultsView caseId={c.id} revision={chosen} initialUnit={enteredUnit(c.inputs.temperatures)} />
+      <ResultsView caseId={c.id} revision={chosen} stamp={c.lockVersion} initialUnit={enteredUnit(c.inputs.temperatures)} />
 
       {c.can.review && latest && (
         <div id="review" className="mt-6 scroll-mt-4">
