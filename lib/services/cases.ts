@@ -21,6 +21,7 @@ import { recordAudit } from "./audit";
 import { enqueueMail, enqueueMailToRoles } from "./mail";
 import { equilibriumCsvColumns, equilibriumRequestOf, pinTerms, speciesOfPin } from "@/lib/cases/equilibrium";
 import { inertCriticalConstants, loadPins, newerApprovedVersions, type NewerVersionDto } from "./pins";
+import { frozenSnapshot } from "./results-cache";
 
 // ---------------------------------------------------------------- DTOs
 
@@ -310,11 +311,8 @@ export async function listSnapshots(actor: Actor | null, caseId: number): Promis
 export async function getResults(actor: Actor | null, caseId: number, revision?: number): Promise<ResultsDto> {
   const me = requirePermission(actor, "cases.view");
   const row = await caseFor(me, caseId);
-  let snap: CaseSnapshot | null = null;
-  if (revision !== undefined) snap = await snapshotOf(caseId, revision);
-  else if (!EDITABLE.includes(row.status)) {
-    snap = await models().CaseSnapshot.findOne({ where: { caseId }, order: [["revision", "DESC"]] });
-  }
+  // Read and parsed once per process (lib/services/results-cache.ts); a draft is evaluated below.
+  const snap = revision !== undefined || !EDITABLE.includes(row.status) ? await frozenSnapshot(row.teamId, caseId, revision) : null;
   if (snap) {
     return {
       source: "snapshot",

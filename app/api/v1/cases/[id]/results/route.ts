@@ -1,6 +1,7 @@
 import { getActor } from "@/lib/auth/session";
-import { json, parseWith, queryObject, route } from "@/lib/http";
+import { jsonBody, parseWith, queryObject, route } from "@/lib/http";
 import { getResults } from "@/lib/services/cases";
+import { resultsJson } from "@/lib/services/results-cache";
 import { inFormat } from "@/lib/thermo/columns";
 import { resultsQuerySchema } from "@/lib/validation/cases";
 import { idParamSchema } from "@/lib/validation/team";
@@ -12,5 +13,6 @@ export const GET = route<Context>(async (request, { params }) => {
   const id = parseWith(idParamSchema, (await params).id);
   const { revision, format } = parseWith(resultsQuerySchema, queryObject(request));
   const results = await getResults(await getActor(), id, revision);
-  return json(format === "columns" ? { ...results, result: inFormat(results.result, format) } : results);
+  // A frozen snapshot's result is serialised once per view and process (lib/services/results-cache.ts).
+  return jsonBody(resultsJson(results, format ?? "rows", () => inFormat(results.result, format)));
 });
