@@ -6,8 +6,6 @@ import { runEngineTask } from "@/lib/engine-pool";
 import { type EvaluateRequest, type SourceComparison, type SpeciesInput } from "@/lib/thermo";
 import { speciesOfPin } from "@/lib/cases/equilibrium";
 
-export { equilibriumCsvColumns, equilibriumRequestOf, pinTerms, speciesOfPin } from "@/lib/cases/equilibrium";
-
 export type FamilyOptionDto = { family: string; versions: { key: string; versionId: number; modelName: string; versionNumber: number; citation: string }[] };
 
 /**
