@@ -185,8 +185,8 @@ describe("warnings", () => {
 
   it("nonphysical-cp where a model's Cp is not positive", () => {
     // Synthetic, invented for this test: Cp = 30 − 0.1 T crosses zero at 300 K.
-    const demo: SpeciesInput = { segments: [{ phase: "g", form: "expression", tminK: 200, tmaxK: 400, coeffs: { cp: "30 - 0.1*T" } }], reference: { tK: 250, phase: "g", hkJ: 0, sJ: 100 } };
-    const out = speciesProperties(demo, [250, 290, 310, 350]);
+    const made: SpeciesInput = { segments: [{ phase: "g", form: "expression", tminK: 200, tmaxK: 400, coeffs: { cp: "30 - 0.1*T" } }], reference: { tK: 250, phase: "g", hkJ: 0, sJ: 100 } };
+    const out = speciesProperties(made, [250, 290, 310, 350]);
     expect(out.warnings.find((w) => w.code === "nonphysical-cp")).toMatchObject({ tK: 310 });
   });
 

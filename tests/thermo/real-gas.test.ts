@@ -115,7 +115,7 @@ describe("mixture fugacity coefficients against an independent route", () => {
   }
 
   const cases = [
-    // synthetic compositions, invented for this test; kij values invented too
+    // Compositions and kij values synthetic, invented for this test.
     { name: "ammonia loop gas at 700 K, 300 bar", tK: 700, pBar: 300, species: ["N2", "H2", "NH3", "CH4"], y: [0.2, 0.6, 0.15, 0.05], k: [[0, 3, 0.03]] },
     { name: "shift gas at 500 K, 30 bar", tK: 500, pBar: 30, species: ["CO", "H2O", "CO2", "H2", "CH4"], y: [0.03, 0.35, 0.12, 0.47, 0.03], k: [[1, 2, 0.12], [2, 4, 0.09]] },
     { name: "CO2-rich gas at 320 K, 80 bar", tK: 320, pBar: 80, species: ["CO2", "CH4", "N2"], y: [0.5, 0.4, 0.1], k: [] as number[][] },
