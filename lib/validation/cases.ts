@@ -58,7 +58,6 @@ const spanSchema = strictObject({ fromK: absolute, toK: absolute, stepK: differe
 });
 const listSchema = strictObject({ listK: z.array(absolute).min(1, "Enter at least one temperature.").max(MAX_CASE_POINTS, `Use at most ${MAX_CASE_POINTS} temperatures.`) });
 export const caseTemperaturesSchema = z.union([spanSchema, listSchema], { error: "Give a span (from, to, step) or a list of temperatures." });
-export type CaseTemperatures = z.infer<typeof caseTemperaturesSchema>;
 
 /** Each field of a case once, without defaults: a create fills the defaults in, a PATCH names only what changes. */
 const caseFields = {

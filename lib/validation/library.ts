@@ -8,10 +8,8 @@ import { CP_FORMS, FIT_FORMS, phaseSchema, speciesSchema } from "@/lib/thermo/sc
 import { hasControl, ONE_LINE, oneLine, searchText } from "./text";
 
 export const VERSION_STATUS_FILTERS = ["current", "approved", "proposed", "draft", "rejected", "superseded", "all"] as const;
-export type VersionStatusFilter = (typeof VERSION_STATUS_FILTERS)[number];
 
 /** Data families of the seeded reference library, and the team's own. */
-export const MODEL_FAMILIES = ["nasa7-2015", "nasa7-gri30", "shomate-janaf", "measured", "custom"] as const;
 export const FAMILY_LABELS: Record<string, string> = {
   "nasa7-2015": "NASA-7, third-millennium (2015)",
   "nasa7-gri30": "NASA-7, GRI-Mech 3.0",
