@@ -13,7 +13,8 @@ import { R as GAS_CONSTANT } from "./constants";
 const R = GAS_CONSTANT + 0;
 import { refuse } from "./errors";
 import { compileCpExpression } from "./expression";
-import { batchOf, type CpBatch } from "./integrate";
+import { requireAboveZeroK } from "./grid";
+import { batchOf, type CpBatch } from "./integrate-batch";
 import type { CpForm, ParsedSegment } from "./schema";
 import { makeTableInterpolant } from "./table";
 import { parseMolarEntropyJ, parseTemperatureK } from "./units";
@@ -48,7 +49,7 @@ export function compileSegment(seg: ParsedSegment, label: string): CompiledSegme
 function compileForm(seg: ParsedSegment, label: string): Omit<CompiledSegment, "cpBatch"> & { cpBatch?: CpBatch } {
   const tminK = parseTemperatureK(seg.tminK, `${label}.tminK`);
   const tmaxK = parseTemperatureK(seg.tmaxK, `${label}.tmaxK`);
-  if (!(tminK > 0)) refuse("nonpositive-temperature", `${label}.tminK: temperatures must be above 0 K (got ${tminK} K)`);
+  requireAboveZeroK(tminK, `${label}.tminK`);
   if (!(tmaxK > tminK)) refuse("invalid-segment", `${label}: tmaxK (${tmaxK} K) must be above tminK (${tminK} K)`);
   const base = { phase: seg.phase, form: seg.form, tminK, tmaxK };
   switch (seg.form) {
@@ -173,7 +174,7 @@ function compileForm(seg: ParsedSegment, label: string): Omit<CompiledSegment, "
           refuse("invalid-table", `${label}.coeffs.points: temperatures must increase strictly (point ${i + 1}: ${pts[i][0]} K after ${pts[i - 1][0]} K)`);
         }
       }
-      if (pts[0][0] <= 0) refuse("nonpositive-temperature", `${label}.coeffs.points: temperatures must be above 0 K (got ${pts[0][0]} K)`);
+      requireAboveZeroK(pts[0][0], `${label}.coeffs.points`);
       const first = pts[0][0];
       const last = pts[pts.length - 1][0];
       if (tminK < first - 1e-9 || tmaxK > last + 1e-9) {

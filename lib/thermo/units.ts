@@ -4,10 +4,11 @@
  */
 import { all, create, type Unit } from "mathjs";
 import { refuse } from "./errors";
+import { CALORIE_J } from "./scales";
 
 const math = create(all, {});
-// mathjs has no calorie; the thermochemical calorie is defined here, once.
-math.createUnit("cal", { definition: "4.184 J", prefixes: "short", aliases: ["calorie", "calories"] });
+// mathjs has no calorie; the thermochemical calorie comes from scales.ts (the one definition).
+math.createUnit("cal", { definition: `${CALORIE_J} J`, prefixes: "short", aliases: ["calorie", "calories"] });
 
 interface Dimension {
   /** Unit a bare number in this field is taken to be in, and the unit results are given in. */
