@@ -31,6 +31,9 @@ export interface Chain {
   hasConstants: boolean;
 }
 
+/** Grid intervals integrated per batch call: bounds the scratch of a grid walk (a few tens of kB). */
+const BLOCK = 1024;
+
 /** Cp (J/(mol·K)), H (J/mol) and S (J/(mol·K)) at one temperature. */
 export interface PointValues {
   cpJ: number;
@@ -109,8 +112,8 @@ export function chainOnGrid(ig: Integrator, chain: Chain, T: Float64Array, cp: F
     let split = i0;
     while (split < i1 && T[split] < a.tK) split++;
     const m = i1 - i0;
-    const bufA = ig.scratch.float("gridA", m);
     if (seg.breaks) {
+      const bufA = ig.scratch.float("gridA", m);
       walkPointwise(ig, seg, T, i0, i1, split, h, s);
       for (let j = i0; j < i1; j++) bufA[j - i0] = T[j];
       seg.cpBatch(bufA.subarray(0, m), cp.subarray(i0, i1), m);
@@ -118,41 +121,54 @@ export function chainOnGrid(ig: Integrator, chain: Chain, T: Float64Array, cp: F
       continue;
     }
     // Interval j covers [T[j-1], T[j]] going up from the anchor, [T[j], T[j+1]] going down.
-    const bufB = ig.scratch.float("gridB", m);
-    const bufH = ig.scratch.float("gridH", m);
-    const bufS = ig.scratch.float("gridS", m);
-    const bufCA = ig.scratch.float("gridCA", m);
-    const bufCB = ig.scratch.float("gridCB", m);
-    for (let j = i0; j < i1; j++) {
-      const q = j - i0;
-      if (j >= split) {
-        bufA[q] = j === split ? a.tK : T[j - 1];
-        bufB[q] = T[j];
-      } else {
-        bufA[q] = T[j];
-        bufB[q] = j === split - 1 ? a.tK : T[j + 1];
+    // Integrated in blocks of at most BLOCK intervals, so the scratch stays small (and in cache)
+    // whatever the grid size; every interval's integral depends on its own nodes only.
+    const b = Math.min(m, BLOCK);
+    const bufA = ig.scratch.float("gridA", b);
+    const bufB = ig.scratch.float("gridB", b);
+    const bufH = ig.scratch.float("gridH", b);
+    const bufS = ig.scratch.float("gridS", b);
+    const bufCA = ig.scratch.float("gridCA", b);
+    const bufCB = ig.scratch.float("gridCB", b);
+    ig.site = seg;
+    for (let q0 = i0; q0 < i1; q0 += BLOCK) {
+      const q1 = Math.min(q0 + BLOCK, i1);
+      for (let j = q0; j < q1; j++) {
+        const q = j - q0;
+        if (j >= split) {
+          bufA[q] = j === split ? a.tK : T[j - 1];
+          bufB[q] = T[j];
+        } else {
+          bufA[q] = T[j];
+          bufB[q] = j === split - 1 ? a.tK : T[j + 1];
+        }
+      }
+      integrateIntervals(ig, seg.cpBatch, seg.cp, bufA, bufB, q1 - q0, bufH, bufS, bufCA, bufCB);
+      for (let j = q0; j < q1; j++) {
+        const q = j - q0;
+        h[j] = bufH[q];
+        s[j] = bufS[q];
+        // The interval ends are the grid temperatures: their Cp came with the integration.
+        cp[j] = j >= split ? bufCB[q] : bufCA[q];
       }
     }
-    ig.site = seg;
-    integrateIntervals(ig, seg.cpBatch, seg.cp, bufA, bufB, m, bufH, bufS, bufCA, bufCB);
+    // Cumulative sums outward from the anchor, in place (h and s held the per-interval integrals).
     let hh = a.hJ;
     let ss = a.sJ;
     for (let j = split; j < i1; j++) {
-      hh += bufH[j - i0];
-      ss += bufS[j - i0];
+      hh += h[j];
+      ss += s[j];
       h[j] = hh;
       s[j] = ss;
     }
     hh = a.hJ;
     ss = a.sJ;
     for (let j = split - 1; j >= i0; j--) {
-      hh -= bufH[j - i0];
-      ss -= bufS[j - i0];
+      hh -= h[j];
+      ss -= s[j];
       h[j] = hh;
       s[j] = ss;
     }
-    // The interval ends are the grid temperatures: their Cp came with the integration.
-    for (let j = i0; j < i1; j++) cp[j] = j >= split ? bufCB[j - i0] : bufCA[j - i0];
     i0 = i1;
   }
 }

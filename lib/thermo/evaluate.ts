@@ -8,7 +8,7 @@
  *   3. reactionOnGrid (reaction-grid.ts)     — term grids summed into typed arrays, term warnings
  *   4. analysis: reactionSigmas (reaction-uncertainty.ts), correctedCrossovers and signCaseOf
  *      (crossover.ts), equilibrium and adiabatic outlet (equilibrium.ts, adiabatic.ts)
- *   5. assemble: buildPoints (points.ts) once at the end, the result's keys written in order.
+ *   5. assemble: buildPoints (or buildColumns) (points.ts) once at the end, the result's keys written in order.
  */
 import { ENGINE_VERSION, HIGH_PRESSURE_BAR, R as GAS_CONSTANT } from "./constants";
 import { adiabaticOutlet } from "./adiabatic";
@@ -16,10 +16,11 @@ import { condensationWarnings } from "./condensation";
 import { speciesContributions } from "./contributions";
 import { correctedCrossovers, signCaseOf } from "./crossover";
 import { equilibriumOnGrid } from "./equilibrium";
+import type { ColumnarResult, ResultFormat } from "./columns";
 import type { EvaluateResult } from "./evaluate-types";
 import { fmt } from "./format";
 import { Integrator, WORK_BUDGET } from "./integrate";
-import { buildPoints, refuseNonfinitePoints } from "./points";
+import { buildColumns, buildPoints, refuseNonfinitePoints } from "./points";
 import { buildTerms, reactionOnGrid, type ReactionGrid, type Term } from "./reaction-grid";
 import { reactionSigmas } from "./reaction-uncertainty";
 import { normaliseRequest, type NormalisedRequest } from "./request";
@@ -42,6 +43,12 @@ const R = GAS_CONSTANT;
 export interface EvaluateOptions {
   /** The integrator of this call (its work budget, its counters); default: a fresh one with WORK_BUDGET. */
   integrator?: Integrator;
+  /**
+   * "rows" (default): `points`, one object per temperature. "columns": `columns` in its place,
+   * built straight from the typed arrays — the same as `toColumnar(evaluate(request))` (columns.ts)
+   * without building the point objects first.
+   */
+  format?: ResultFormat;
 }
 
 /**
@@ -49,7 +56,10 @@ export interface EvaluateOptions {
  * an EngineRefusal with a stable code and an exact message. Units: kJ/mol for H and G,
  * J/(mol·K) for S and Cp, K for temperatures.
  */
-export function evaluate(request: unknown, options: EvaluateOptions = {}): EvaluateResult {
+export function evaluate(request: unknown, options?: EvaluateOptions & { format?: "rows" }): EvaluateResult;
+export function evaluate(request: unknown, options: EvaluateOptions & { format: "columns" }): ColumnarResult;
+export function evaluate(request: unknown, options?: EvaluateOptions): EvaluateResult | ColumnarResult;
+export function evaluate(request: unknown, options: EvaluateOptions = {}): EvaluateResult | ColumnarResult {
   const integrator = options.integrator ?? new Integrator(WORK_BUDGET);
   const nr = normaliseRequest(request);
   const { req, T, referenceK } = nr;
@@ -68,8 +78,11 @@ export function evaluate(request: unknown, options: EvaluateOptions = {}): Evalu
   const contributions = req.include?.includes("contributions") ? speciesContributions(terms, rg.grids, T, referenceK, uncertain) : null;
 
   const ref = rg.ref;
+  const sigmas = unc?.sigmas ?? null;
   return {
-    points: buildPoints(T, rg, nr.tolJ, nr.tolLn, unc?.sigmas ?? null),
+    ...(options.format === "columns"
+      ? { columns: buildColumns(T, rg, nr.tolJ, nr.tolLn, sigmas) }
+      : { points: buildPoints(T, rg, nr.tolJ, nr.tolLn, sigmas) }),
     reference: {
       tK: referenceK, dCpJ: ref.dCp, dHkJ: ref.dH / 1000, dSJ: ref.dS, dGkJ: ref.dG / 1000,
       lnK: -ref.dG / (R * referenceK), log10K: -ref.dG / (R * referenceK) / LN10,

@@ -3,7 +3,10 @@
  * Lobatto rule per interval, then G3/K7, then adaptive G7/K15 (Integrator.integrateCp) where
  * the cheaper tier misses the tolerance. Scratch arrays belong to the request's Integrator.
  */
-import { type CpFunction, type Integrator, REL_TOL } from "./integrate";
+import { type CpFunction, type Integrator, REL_TOL as TOLERANCE } from "./integrate";
+
+/** Read once: under a CommonJS transform an imported binding is an accessor, read on every use in the loops below. */
+const REL_TOL = TOLERANCE + 0;
 
 export interface CpBatch {
   /** f[i] = Cp(x[i]) for i < n. */
