@@ -31,9 +31,9 @@ export function kelvinDifferenceFrom(value: number, scale: TemperatureScale): nu
   return scale === "degF" ? (value * 5) / 9 : value;
 }
 
-/** A temperature difference in K shown on `scale`. */
+/** A temperature difference in K shown on `scale` (1 K = 1 °C = 1.8 °F). */
 export function kelvinDifferenceTo(k: number, scale: TemperatureScale): number {
-  return scale === "degF" ? (k * 9) / 5 : k;
+  return scale === "degF" ? k * 1.8 : k;
 }
 
 /** Cp in J/(mol·K) from kJ/(mol·K) or cal/(mol·K). */
@@ -50,5 +50,7 @@ export function isAboveZeroK(tK: number): boolean {
 
 /** The engine's wording of the rule, after a field name: `referenceK: temperatures must be above 0 K (got -5 K)`. */
 export const ABOVE_ZERO_K = "temperatures must be above 0 K";
-/** The forms' wording of the rule, as a sentence. */
-export const ABOVE_ZERO_K_SENTENCE = "Temperatures must be above 0 K.";
+/** The forms' wording of the rule, as a sentence; with the value (K) it says what was entered: "… above 0 K (this is -26.85 K)." */
+export function aboveZeroKSentence(tK?: number): string {
+  return tK === undefined ? "Temperatures must be above 0 K." : `Temperatures must be above 0 K (this is ${Number(tK.toFixed(6))} K).`;
+}
