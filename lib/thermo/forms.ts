@@ -2,9 +2,10 @@
  * Cp forms. Each compiles to a Cp(T) function in J/(mol·K) over its stated range; the
  * forms that publish integration constants (shomate, nasa7, nasa9) also give H and S from
  * those constants, which the engine uses only to anchor a segment at one temperature.
- * To add a form: extend `segmentSchema` in schema.ts, add a case here, and (if it carries
- * constants) a `constants` pair; `cpBatch` is optional (a loop over `cp` is the default) —
- * the integrator needs nothing else.
+ * To add a form: extend `segmentSchema` (and `CP_FORMS`) in schema.ts, add a case to
+ * `compileForm` here, and (if it carries constants) a `constants` pair — a segment with
+ * constants anchors itself (species-model.ts); `cpBatch` is optional (a loop over `cp` is the
+ * default, `batchOf` in integrate-batch.ts) — the integrator needs nothing else.
  */
 import { R as GAS_CONSTANT } from "./constants";
 
@@ -37,8 +38,6 @@ export interface CompiledSegment {
   /** H (J/mol, formation basis) and S (J/(mol·K), at the source's standard pressure) from the published constants. */
   constants?: { hJ: (tK: number) => number; sJ: (tK: number) => number };
 }
-
-export const FORMS_WITH_CONSTANTS: ReadonlySet<CpForm> = new Set(["shomate", "nasa7", "nasa9"]);
 
 /** Compile one validated segment; `label` names it in messages (e.g. `species "CO(g)" segment 1`). */
 export function compileSegment(seg: ParsedSegment, label: string): CompiledSegment {
