@@ -55,9 +55,9 @@ export interface EvaluateResult {
 export const UNCERTAINTY_BASIS =
   "1σ standard uncertainties by linear propagation of each species' ΔfH°, S° and relative Cp uncertainty, taken as independent";
 
-export const SIGN_CASES: Record<SignCaseCode, string> = {
+export const SIGN_CASES: Readonly<Record<SignCaseCode, string>> = Object.freeze({
   "favourable-always": "K > 1 at all T",
   "favourable-above": "K > 1 only above the crossover temperature",
   "favourable-below": "K > 1 only below the crossover temperature",
   "favourable-never": "K > 1 at no T",
-};
+});
