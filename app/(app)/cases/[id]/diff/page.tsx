@@ -1,10 +1,10 @@
 import Link from "next/link";
-import { notFound } from "next/navigation";
 import { Caution } from "@/components/results/caution";
 import { Card, PageHeader } from "@/components/ui/card";
 import { DataTable } from "@/components/ui/table";
 import { requireUser } from "@/lib/auth/guards";
 import { getActor } from "@/lib/auth/session";
+import { orNotFound, pageId } from "@/lib/pages";
 import { fixed, kelvin } from "@/lib/cases/format";
 import { AppError } from "@/lib/errors";
 import { diffSnapshots, getCase } from "@/lib/services/cases";
@@ -18,17 +18,13 @@ const num = (s: string | undefined) => (s && /^\d+$/.test(s) ? Number(s) : undef
 
 export default async function DiffPage({ params, searchParams }: Props) {
   const actor = requireUser(await getActor());
-  const id = Number((await params).id);
+  const id = await pageId(params);
   const sp = await searchParams;
-  if (!Number.isInteger(id) || id <= 0) notFound();
-  const fail = (e: unknown): never => {
-    if (e instanceof AppError && e.status === 404) notFound();
-    throw e;
-  };
-  const c = await getCase(actor, id).catch(fail);
-  const diff = await diffSnapshots(actor, id, num(sp.from), num(sp.to)).catch((e) => {
+  const c = await orNotFound(getCase(actor, id));
+  // A case with one snapshot has nothing to compare (409): the page says so.
+  const diff = await orNotFound(diffSnapshots(actor, id, num(sp.from), num(sp.to))).catch((e) => {
     if (e instanceof AppError && e.status === 409) return null;
-    return fail(e);
+    throw e;
   });
   return (
     <>

@@ -1,5 +1,4 @@
-import { orNotFound } from "@/lib/pages";
-import { notFound } from "next/navigation";
+import { orNotFound, pageId } from "@/lib/pages";
 import { temperaturesText } from "@/components/cases/inputs-card";
 import { EquilibriumReport } from "@/components/equilibrium/equilibrium-report";
 import { Caution } from "@/components/results/caution";
@@ -28,11 +27,10 @@ const SUMMARY_ROWS = 16;
 
 export default async function ReportPage({ params, searchParams }: Props) {
   const actor = requireUser(await getActor());
-  const id = Number((await params).id);
+  const id = await pageId(params);
   const sp = await searchParams;
   const rev = sp.revision;
   const revision = rev && /^\d+$/.test(rev) ? Number(rev) : undefined;
-  if (!Number.isInteger(id) || id <= 0) notFound();
   const data = await orNotFound(getResults(actor, id, revision));
   const r = data.result;
   // The unit the case was entered in, unless the reader asked for another (?unit=K|degC|degF).

@@ -1,12 +1,11 @@
 import Link from "next/link";
-import { notFound } from "next/navigation";
 import { PointsChart } from "@/components/charts/residual-chart";
 import { StatusBadge } from "@/components/library/status-badge";
 import { Card, PageHeader } from "@/components/ui/card";
 import { DataTable } from "@/components/ui/table";
 import { requireUser } from "@/lib/auth/guards";
 import { getActor } from "@/lib/auth/session";
-import { orNotFound } from "@/lib/pages";
+import { orNotFound, pageId } from "@/lib/pages";
 import { datasetVersions, getDataset } from "@/lib/services/datasets";
 import { CP_UNIT_LABELS, T_UNIT_LABELS } from "@/lib/validation/library";
 
@@ -19,8 +18,7 @@ const unitLabel = (labels: Record<string, string>, u: string) => labels[u] ?? u;
 
 export default async function DatasetPage({ params }: { params: Promise<{ id: string }> }) {
   const actor = requireUser(await getActor());
-  const id = Number((await params).id);
-  if (!Number.isInteger(id) || id <= 0) notFound();
+  const id = await pageId(params);
   const d = await orNotFound(getDataset(actor, id));
   const versions = await datasetVersions(actor, id);
   const hasSigma = d.points.some((p) => p.sigmaJ !== undefined);

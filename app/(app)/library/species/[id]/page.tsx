@@ -1,4 +1,4 @@
-import { orNotFound } from "@/lib/pages";
+import { orNotFound, pageId } from "@/lib/pages";
 import Link from "next/link";
 import { PropertyCharts } from "@/components/library/property-charts";
 import { ScopeBadge, StatusBadge } from "@/components/library/status-badge";
@@ -8,7 +8,8 @@ import { Card, PageHeader } from "@/components/ui/card";
 import { inputClass } from "@/components/ui/field";
 import { requireUser } from "@/lib/auth/guards";
 import { getActor } from "@/lib/auth/session";
-import { defaultRange, getSpecies, getVersion, versionCurve } from "@/lib/services/library";
+import { getSpecies, getVersion, versionCurve } from "@/lib/services/library";
+import { defaultRange } from "@/lib/thermo/curve";
 import { FAMILY_LABELS } from "@/lib/validation/library";
 
 type Props = { params: Promise<{ id: string }>; searchParams: Promise<Record<string, string | undefined>> };
@@ -19,7 +20,7 @@ const num = (s: string | undefined) => (s && Number.isFinite(Number(s)) && Numbe
 
 export default async function SpeciesPage({ params, searchParams }: Props) {
   const actor = requireUser(await getActor());
-  const id = Number((await params).id);
+  const id = await pageId(params);
   const sp = await searchParams;
   const species = await orNotFound(getSpecies(actor, id));
   const all = species.models.flatMap((m) => m.versions.map((v) => ({ ...v, model: m })));

@@ -1,4 +1,4 @@
-import { orNotFound } from "@/lib/pages";
+import { orNotFound, pageId } from "@/lib/pages";
 import Link from "next/link";
 import { PropertyCharts } from "@/components/library/property-charts";
 import { phaseLabel } from "@/components/library/curve-rows";
@@ -45,7 +45,7 @@ function coeffText(coeffs: unknown): string {
 
 export default async function VersionPage({ params }: Props) {
   const actor = requireUser(await getActor());
-  const id = Number((await params).id);
+  const id = await pageId(params);
   const v = await orNotFound(getVersion(actor, id));
   const [audit, curve] = await Promise.all([versionAudit(actor, id), versionCurve(actor, id).catch((e: Error) => e)]);
   const team = v.scope === "team";
