@@ -4,7 +4,7 @@ import { Op, type Transaction } from "sequelize";
 import { requirePermission, requireSameTeam, type Actor } from "@/lib/auth/guards";
 import { can } from "@/lib/auth/permissions";
 import { reactionText, termKey } from "@/lib/cases/balance";
-import { CAUTION_TEXT } from "@/lib/cases/caution";
+import { cautionGasOf, cautionText } from "@/lib/cases/caution";
 import { fromKelvin, TEMPERATURE_COLUMN, type DisplayUnit } from "@/lib/cases/display-unit";
 import { canonicalSha256 } from "@/lib/cases/hash";
 import { formatQuantity } from "@/lib/cases/temperature";
@@ -601,7 +601,7 @@ async function requestReview(transaction: Transaction, me: Actor, row: Case, sna
         ``,
         `Open the case: ${caseUrl(row.id)}`,
         ``,
-        CAUTION_TEXT,
+        cautionText(cautionGasOf(snap.result)),
       ].join("\n"),
     },
     { exceptUserId: row.authorId },

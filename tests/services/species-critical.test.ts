@@ -43,8 +43,8 @@ afterAll(() => closeDb());
 
 // Larkspur shift converter at 30 bar with butane riding along (invented demo scenario).
 const feed = { "CO(g)": 13, "H2O(g)": 38, "CO2(g)": 6, "H2(g)": 40, "C4H10(g)": 3 };
-const pinned = () => ({ feed, feedUnit: "kmol/h", pressure: "30 bar", key: "CO(g)", reactions: [], extraTerms: [{ formula: "C4H10", phase: "g", versionId: butaneVersion }], inert: [], gas: "peng-robinson" });
-const inert = () => ({ feed, feedUnit: "kmol/h", pressure: "30 bar", key: "CO(g)", reactions: [], extraTerms: [], inert: ["C4H10(g)"], gas: "peng-robinson" });
+const pinned = () => ({ feed, feedUnit: "kmol/h", pressure: "30 bar", key: "CO(g)", reactions: [], extraTerms: [{ formula: "C4H10", phase: "g", versionId: butaneVersion }], inert: [], gas: "peng-robinson" as const });
+const inert = () => ({ feed, feedUnit: "kmol/h", pressure: "30 bar", key: "CO(g)", reactions: [], extraTerms: [], inert: ["C4H10(g)"], gas: "peng-robinson" as const });
 
 describe("who may set them", () => {
   it("a steward sets them; the species page reads them back with their source; one audit event", async () => {

@@ -5,7 +5,7 @@ import type { Expect, Handler, Row } from "./types";
 import * as speciesOne from "@/app/api/v1/species/[id]/route";
 
 // Butane's constants: Poling, Prausnitz & O'Connell, The Properties of Gases and Liquids, 5th ed., Appendix A (from memory).
-export const BUTANE = { tcK: 425.12, pcBar: 37.96, omega: 0.2, citation: "Poling, Prausnitz & O'Connell, 5th ed., Appendix A (from memory)" };
+const BUTANE = { tcK: 425.12, pcBar: 37.96, omega: 0.2, citation: "Poling, Prausnitz & O'Connell, 5th ed., Appendix A (from memory)" };
 
 async function larkspurSpecies(): Promise<string> {
   const team = (await actorOf("steward")).teamId;

@@ -3,6 +3,7 @@ import { notFound } from "next/navigation";
 import { temperaturesText } from "@/components/cases/inputs-card";
 import { EquilibriumReport } from "@/components/equilibrium/equilibrium-report";
 import { Caution } from "@/components/results/caution";
+import { cautionGasOf } from "@/lib/cases/caution";
 import { PrintButton } from "@/components/results/print-button";
 import { ResultCharts } from "@/components/results/result-charts";
 import { ContributionsChart } from "@/components/results/contributions-chart";
@@ -34,6 +35,7 @@ export default async function ReportPage({ params, searchParams }: Props) {
   if (!Number.isInteger(id) || id <= 0) notFound();
   const data = await orNotFound(getResults(actor, id, revision));
   const r = data.result;
+  const gas = cautionGasOf(r);
   // The unit the case was entered in, unless the reader asked for another (?unit=K|degC|degF).
   const unit = isDisplayUnit(sp.unit) ? sp.unit : enteredUnit(data.inputs.temperatures);
   const unitHref = (u: string) => `?${new URLSearchParams({ ...(revision ? { revision: String(revision) } : {}), unit: u })}`;
@@ -129,7 +131,7 @@ export default async function ReportPage({ params, searchParams }: Props) {
         </table>
       </section>
 
-      <Caution />
+      <Caution gas={gas} />
 
       <section>
         <h2 className="mb-2 text-sm font-semibold">Summary</h2>
@@ -186,10 +188,10 @@ export default async function ReportPage({ params, searchParams }: Props) {
 
       <section className="break-inside-avoid">
         <h2 className="mb-1 text-sm font-semibold">Warnings ({r.warnings.length})</h2>
-        <WarningList warnings={r.warnings} />
+        <WarningList warnings={r.warnings} gas={gas} />
       </section>
 
-      <Caution />
+      <Caution gas={gas} />
     </article>
   );
 }
