@@ -1,7 +1,8 @@
 import { Op, type Transaction } from "sequelize";
-import { canonicalSha256 } from "@/lib/cases/hash";
-import { evaluate, type EvaluateRequest } from "@/lib/thermo";
-import { equilibriumRequestOf, phasePointsOf, speciesOfPin } from "@/lib/cases/equilibrium";
+import { pinnedVersionOf } from "@/lib/cases/pin";
+import { buildRequest } from "@/lib/cases/request";
+import { snapshotContent, snapshotHash } from "@/lib/cases/snapshot";
+import { evaluate, parseReaction, parseSpeciesKey } from "@/lib/thermo";
 import type { CaseInput } from "@/lib/validation/cases";
 import type { CaseEquilibrium } from "@/lib/validation/equilibrium";
 import type { PinnedVersion } from "@/models/case-snapshot";
@@ -37,192 +38,145 @@ export type Plan = {
   family?: string;
 };
 
-export const DEMO_CASES: Plan[] = [
-  {
-    title: "Reformer outlet near 1100 K",
-    notes: "Primary reformer, outlet around 1100 K (invented plant data). Checks where methane reforming turns favourable and how far the naive line is off there.",
-    terms: [
-      { formula: "CH4", phase: "g", coefficient: -1 },
-      { formula: "H2O", phase: "g", coefficient: -1 },
-      { formula: "CO", phase: "g", coefficient: 1 },
-      { formula: "H2", phase: "g", coefficient: 3 },
-    ],
-    temperatures: { fromK: 800, toK: 1300, stepK: 5 },
-    toleranceKJ: 2,
-    flow: "approved",
-    reason: "Crossover and outlet K agree with the design basis; naive error noted in the summary.",
-    // Steam-to-carbon 3 at 25 bar, reforming and shift together (invented plant data).
-    equilibrium: {
-      feed: { "CH4(g)": 100, "H2O(g)": 300, "CO(g)": 0, "H2(g)": 0 },
-      feedUnit: "kmol/h",
-      pressure: "25 bar",
-      key: "CH4(g)",
-      reactions: ["CH4(g) + H2O(g) -> CO(g) + 3 H2(g)", "CO(g) + H2O(g) -> CO2(g) + H2(g)"],
-      extra: [{ formula: "CO2", phase: "g" }],
+/** A term per species of the reaction text, reactants first, in the order written. */
+function termsOf(reaction: string): Term[] {
+  return parseReaction(reaction).terms.map((t) => ({ formula: t.formula, phase: t.phase ?? null, coefficient: t.nu }));
+}
+
+/** A feed at a pressure with its key species; kmol/h, no extra reactions or species unless `more` says otherwise. */
+function feed(flows: Record<string, number>, pressure: string, key: string, more: Partial<Omit<DemoEquilibrium, "extra">> & { extra?: string[] } = {}): DemoEquilibrium {
+  const { extra = [], ...rest } = more;
+  return { feed: flows, feedUnit: "kmol/h", pressure, key, reactions: [], ...rest, extra: extra.map((k) => ({ formula: parseSpeciesKey(k).formula, phase: parseSpeciesKey(k).phase ?? null })) };
+}
+
+/** One demo case: the reaction as text, the span as [from, to, step] (K, or quantities with their unit). */
+type Row = Omit<Plan, "terms" | "temperatures"> & { reaction: string; span: [number, number, number] | [string, string, string] };
+
+function demoCase({ reaction, span: [fromK, toK, stepK], ...rest }: Row): Plan {
+  const { title, notes, ...more } = rest;
+  return { title, notes, terms: termsOf(reaction), temperatures: { fromK, toK, stepK } as CaseInput["temperatures"], ...more };
+}
+
+const REFORMING = "CH4(g) + H2O(g) -> CO(g) + 3 H2(g)";
+const SHIFT = "CO(g) + H2O(g) -> CO2(g) + H2(g)";
+const AMMONIA = "N2(g) + 3 H2(g) -> 2 NH3(g)";
+/** Converter inlet after the reformer and waste-heat boiler, 30 bar (invented). */
+const SHIFT_INLET = { "CO(g)": 13, "H2O(g)": 38, "CO2(g)": 6, "H2(g)": 40, "CH4(g)": 3 };
+/** Loop converter inlet with argon-free make-up (invented). */
+const LOOP_INLET = { "N2(g)": 1, "H2(g)": 3, "NH3(g)": 0.04 };
+
+export const DEMO_CASES: Plan[] = (
+  [
+    {
+      title: "Reformer outlet near 1100 K",
+      notes: "Primary reformer, outlet around 1100 K (invented plant data). Checks where methane reforming turns favourable and how far the naive line is off there.",
+      reaction: REFORMING,
+      span: [800, 1300, 5],
+      toleranceKJ: 2,
+      flow: "approved",
+      reason: "Crossover and outlet K agree with the design basis; naive error noted in the summary.",
+      // Steam-to-carbon 3 at 25 bar, reforming and shift together (invented plant data).
+      equilibrium: feed({ "CH4(g)": 100, "H2O(g)": 300, "CO(g)": 0, "H2(g)": 0 }, "25 bar", "CH4(g)", { reactions: [REFORMING, SHIFT], extra: ["CO2(g)"] }),
     },
-  },
-  {
-    title: "Shift converter 480–700 K",
-    notes: "High- and low-temperature shift beds (invented). Does the naive line stay within 1 kJ/mol over the beds?",
-    terms: [
-      { formula: "CO", phase: "g", coefficient: -1 },
-      { formula: "H2O", phase: "g", coefficient: -1 },
-      { formula: "CO2", phase: "g", coefficient: 1 },
-      { formula: "H2", phase: "g", coefficient: 1 },
-    ],
-    temperatures: { fromK: 480, toK: 700, stepK: 2 },
-    toleranceKJ: 1,
-    flow: "submitted",
-    comment: "Steam-to-carbon ratio of the beds is in the notes of the reformer case.",
-    // Converter inlet after the reformer and waste-heat boiler, 30 bar (invented); methane rides along.
-    equilibrium: {
-      feed: { "CO(g)": 13, "H2O(g)": 38, "CO2(g)": 6, "H2(g)": 40, "CH4(g)": 3 },
-      feedUnit: "kmol/h",
-      pressure: "30 bar",
-      key: "CO(g)",
-      reactions: [],
-      extra: [],
-      inert: ["CH4(g)"],
+    {
+      title: "Shift converter 480–700 K",
+      notes: "High- and low-temperature shift beds (invented). Does the naive line stay within 1 kJ/mol over the beds?",
+      reaction: SHIFT,
+      span: [480, 700, 2],
+      toleranceKJ: 1,
+      flow: "submitted",
+      comment: "Steam-to-carbon ratio of the beds is in the notes of the reformer case.",
+      // Methane rides along, inert.
+      equilibrium: feed(SHIFT_INLET, "30 bar", "CO(g)", { inert: ["CH4(g)"] }),
     },
-  },
-  {
-    title: "Ammonia loop near 700 K",
-    notes: "Synthesis loop converter around 700 K (invented).",
-    terms: [
-      { formula: "N2", phase: "g", coefficient: -1 },
-      { formula: "H2", phase: "g", coefficient: -3 },
-      { formula: "NH3", phase: "g", coefficient: 2 },
-    ],
-    temperatures: { fromK: 600, toK: 800, stepK: 5 },
-    toleranceKJ: 1,
-    flow: "returned",
-    // Loop converter inlet at 150 bar with argon-free make-up (invented).
-    equilibrium: { feed: { "N2(g)": 1, "H2(g)": 3, "NH3(g)": 0.04 }, feedUnit: "kmol/s", pressure: "150 bar", key: "N2(g)", reactions: [], extra: [] },
-    reason: "The loop runs near 150 bar: state the pressure in the notes and say that K here is the ideal-gas, 1 bar constant before I sign it off.",
-  },
-  {
-    title: "Cold box CO trace near 90 K",
-    notes: "Would CO traces methanate in the cold box around 90 K (invented)? The pinned models start at 200 K, so every species is extrapolated: read the warnings.",
-    terms: [
-      { formula: "CO", phase: "g", coefficient: -1 },
-      { formula: "H2", phase: "g", coefficient: -3 },
-      { formula: "CH4", phase: "g", coefficient: 1 },
-      { formula: "H2O", phase: "cr", coefficient: 1 },
-    ],
-    temperatures: { fromK: 80, toK: 120, stepK: 1 },
-    toleranceKJ: 1,
-    flow: "draft",
-    // Cold box feed at 30 bar: hydrogen with methane and a CO trace (invented).
-    equilibrium: { feed: { "CO(g)": 0.2, "H2(g)": 90, "CH4(g)": 9.8, "H2O(cr)": 0 }, feedUnit: "kmol/h", pressure: "30 bar", key: "CO(g)", reactions: [], extra: [] },
-  },
-  {
-    title: "Reformer start-up sweep (°C)",
-    notes: "Start-up heating from 400 °C to 900 °C, entered in °C (invented).",
-    terms: [
-      { formula: "CH4", phase: "g", coefficient: -1 },
-      { formula: "H2O", phase: "g", coefficient: -2 },
-      { formula: "CO2", phase: "g", coefficient: 1 },
-      { formula: "H2", phase: "g", coefficient: 4 },
-    ],
-    temperatures: { fromK: "400 degC", toK: "900 degC", stepK: "10 degC" },
-    toleranceKJ: 2,
-    flow: "draft",
-  },
-  {
-    title: "Methanol synthesis loop 450–600 K",
-    notes: "Methanol converter on a CO-rich side stream around 500 K and 80 bar (invented). GRI-Mech 3.0 sets throughout: the 2015 database's methanol record is left out of the library.",
-    terms: [
-      { formula: "CO", phase: "g", coefficient: -1 },
-      { formula: "H2", phase: "g", coefficient: -2 },
-      { formula: "CH3OH", phase: "g", coefficient: 1 },
-    ],
-    temperatures: { fromK: 450, toK: 600, stepK: 2 },
-    toleranceKJ: 1,
-    flow: "submitted",
-    family: "nasa7-gri30",
-    // H2/CO 2.5 at 80 bar (invented).
-    equilibrium: { feed: { "CO(g)": 10, "H2(g)": 25, "CH3OH(g)": 0 }, feedUnit: "kmol/h", pressure: "80 bar", key: "CO(g)", reactions: [], extra: [] },
-  },
-  {
-    title: "Reformer tubes: carbon from CO (Boudouard)",
-    notes: "Could carbon deposit from CO on the cooler tube sections (invented)? Graphite is the condensed product; where K > 1 CO disproportionates.",
-    terms: [
-      { formula: "CO", phase: "g", coefficient: -2 },
-      { formula: "C", phase: "cr", coefficient: 1 },
-      { formula: "CO2", phase: "g", coefficient: 1 },
-    ],
-    temperatures: { fromK: 600, toK: 1300, stepK: 5 },
-    toleranceKJ: 1,
-    flow: "draft",
-    // A CO-rich pocket at 25 bar (invented).
-    equilibrium: { feed: { "CO(g)": 1, "C(cr)": 0, "CO2(g)": 0.2 }, feedUnit: "kmol/h", pressure: "25 bar", key: "CO(g)", reactions: [], extra: [] },
-  },
-  {
-    title: "Reformer tubes: carbon from methane cracking",
-    notes: "Could methane crack to carbon on the hot tube wall (invented)? The corrected crossover sits about 100 K below the naive one.",
-    terms: [
-      { formula: "CH4", phase: "g", coefficient: -1 },
-      { formula: "C", phase: "cr", coefficient: 1 },
-      { formula: "H2", phase: "g", coefficient: 2 },
-    ],
-    temperatures: { fromK: 600, toK: 1300, stepK: 5 },
-    toleranceKJ: 1,
-    flow: "draft",
-    // Equal CH4 and H2 at 25 bar (invented).
-    equilibrium: { feed: { "CH4(g)": 1, "C(cr)": 0, "H2(g)": 1 }, feedUnit: "kmol/h", pressure: "25 bar", key: "CH4(g)", reactions: [], extra: [] },
-  },
-  {
-    title: "Shift converter bed temperature rise",
-    notes: "High-temperature shift bed, inlet 600 K at 30 bar (invented). How hot does the bed run if it reaches equilibrium, and how far off is the constant-ΔrH estimate?",
-    terms: [
-      { formula: "CO", phase: "g", coefficient: -1 },
-      { formula: "H2O", phase: "g", coefficient: -1 },
-      { formula: "CO2", phase: "g", coefficient: 1 },
-      { formula: "H2", phase: "g", coefficient: 1 },
-    ],
-    temperatures: { fromK: 600, toK: 760, stepK: 5 },
-    toleranceKJ: 1,
-    flow: "draft",
-    // The methane that rides along carries heat, so it is pinned too (invented feed, as the converter case).
-    equilibrium: {
-      feed: { "CO(g)": 13, "H2O(g)": 38, "CO2(g)": 6, "H2(g)": 40, "CH4(g)": 3 },
-      feedUnit: "kmol/h",
-      pressure: "30 bar",
-      key: "CO(g)",
-      reactions: [],
-      extra: [{ formula: "CH4", phase: "g" }],
-      inert: [],
-      gas: "peng-robinson",
-      adiabaticInletK: 600,
+    {
+      title: "Ammonia loop near 700 K",
+      notes: "Synthesis loop converter around 700 K (invented).",
+      reaction: AMMONIA,
+      span: [600, 800, 5],
+      toleranceKJ: 1,
+      flow: "returned",
+      equilibrium: feed(LOOP_INLET, "150 bar", "N2(g)", { feedUnit: "kmol/s" }),
+      reason: "The loop runs near 150 bar: state the pressure in the notes and say that K here is the ideal-gas, 1 bar constant before I sign it off.",
     },
-  },
-  {
-    title: "Ammonia bed temperature rise at 150 bar",
-    notes: "First bed of the synthesis converter, inlet 653 K at 150 bar (invented). Peng–Robinson fugacities; outlet temperature if the bed reached equilibrium.",
-    terms: [
-      { formula: "N2", phase: "g", coefficient: -1 },
-      { formula: "H2", phase: "g", coefficient: -3 },
-      { formula: "NH3", phase: "g", coefficient: 2 },
-    ],
-    temperatures: { fromK: 640, toK: 840, stepK: 5 },
-    toleranceKJ: 1,
-    flow: "draft",
-    equilibrium: {
-      feed: { "N2(g)": 1, "H2(g)": 3, "NH3(g)": 0.04 },
-      feedUnit: "kmol/s",
-      pressure: "150 bar",
-      key: "N2(g)",
-      reactions: [],
-      extra: [],
-      inert: [],
-      gas: "peng-robinson",
-      adiabaticInletK: 653,
+    {
+      title: "Cold box CO trace near 90 K",
+      notes: "Would CO traces methanate in the cold box around 90 K (invented)? The pinned models start at 200 K, so every species is extrapolated: read the warnings.",
+      reaction: "CO(g) + 3 H2(g) -> CH4(g) + H2O(cr)",
+      span: [80, 120, 1],
+      toleranceKJ: 1,
+      flow: "draft",
+      // Cold box feed at 30 bar: hydrogen with methane and a CO trace (invented).
+      equilibrium: feed({ "CO(g)": 0.2, "H2(g)": 90, "CH4(g)": 9.8, "H2O(cr)": 0 }, "30 bar", "CO(g)"),
     },
-  },
-];
+    {
+      title: "Reformer start-up sweep (°C)",
+      notes: "Start-up heating from 400 °C to 900 °C, entered in °C (invented).",
+      reaction: "CH4(g) + 2 H2O(g) -> CO2(g) + 4 H2(g)",
+      span: ["400 degC", "900 degC", "10 degC"],
+      toleranceKJ: 2,
+      flow: "draft",
+    },
+    {
+      title: "Methanol synthesis loop 450–600 K",
+      notes: "Methanol converter on a CO-rich side stream around 500 K and 80 bar (invented). GRI-Mech 3.0 sets throughout: the 2015 database's methanol record is left out of the library.",
+      reaction: "CO(g) + 2 H2(g) -> CH3OH(g)",
+      span: [450, 600, 2],
+      toleranceKJ: 1,
+      flow: "submitted",
+      family: "nasa7-gri30",
+      // H2/CO 2.5 at 80 bar (invented).
+      equilibrium: feed({ "CO(g)": 10, "H2(g)": 25, "CH3OH(g)": 0 }, "80 bar", "CO(g)"),
+    },
+    {
+      title: "Reformer tubes: carbon from CO (Boudouard)",
+      notes: "Could carbon deposit from CO on the cooler tube sections (invented)? Graphite is the condensed product; where K > 1 CO disproportionates.",
+      reaction: "2 CO(g) -> C(cr) + CO2(g)",
+      span: [600, 1300, 5],
+      toleranceKJ: 1,
+      flow: "draft",
+      // A CO-rich pocket at 25 bar (invented).
+      equilibrium: feed({ "CO(g)": 1, "C(cr)": 0, "CO2(g)": 0.2 }, "25 bar", "CO(g)"),
+    },
+    {
+      title: "Reformer tubes: carbon from methane cracking",
+      notes: "Could methane crack to carbon on the hot tube wall (invented)? The corrected crossover sits about 100 K below the naive one.",
+      reaction: "CH4(g) -> C(cr) + 2 H2(g)",
+      span: [600, 1300, 5],
+      toleranceKJ: 1,
+      flow: "draft",
+      // Equal CH4 and H2 at 25 bar (invented).
+      equilibrium: feed({ "CH4(g)": 1, "C(cr)": 0, "H2(g)": 1 }, "25 bar", "CH4(g)"),
+    },
+    {
+      title: "Shift converter bed temperature rise",
+      notes: "High-temperature shift bed, inlet 600 K at 30 bar (invented). How hot does the bed run if it reaches equilibrium, and how far off is the constant-ΔrH estimate?",
+      reaction: SHIFT,
+      span: [600, 760, 5],
+      toleranceKJ: 1,
+      flow: "draft",
+      // The methane that rides along carries heat, so it is pinned too (invented feed, as the converter case).
+      equilibrium: feed(SHIFT_INLET, "30 bar", "CO(g)", { extra: ["CH4(g)"], inert: [], gas: "peng-robinson", adiabaticInletK: 600 }),
+    },
+    {
+      title: "Ammonia bed temperature rise at 150 bar",
+      notes: "First bed of the synthesis converter, inlet 653 K at 150 bar (invented). Peng–Robinson fugacities; outlet temperature if the bed reached equilibrium.",
+      reaction: AMMONIA,
+      span: [640, 840, 5],
+      toleranceKJ: 1,
+      flow: "draft",
+      equilibrium: feed(LOOP_INLET, "150 bar", "N2(g)", { feedUnit: "kmol/s", inert: [], gas: "peng-robinson", adiabaticInletK: 653 }),
+    },
+  ] satisfies Row[]
+).map(demoCase);
 
 const FAMILY = "nasa7-2015";
 
+/**
+ * The newest approved reference version of the family with the term's phase. The pin is made
+ * as the case services make it (lib/cases/pin.ts), without the species' critical constants:
+ * the seeded snapshots were frozen without them and their hashes stay as they were.
+ */
 async function pinFor(ctx: SeedContext, formula: string, phase: string | null, transaction: Transaction, family = FAMILY): Promise<PinnedVersion | null> {
   const { Species, CpModel, ModelVersion } = ctx.models;
   const species = await Species.findOne({ where: { teamId: null, formula }, transaction });
@@ -232,30 +186,10 @@ async function pinFor(ctx: SeedContext, formula: string, phase: string | null, t
     const v = await ModelVersion.findOne({ where: { modelId: m.id, status: "approved" }, order: [["versionNumber", "DESC"]], transaction });
     const phases = ((v?.data as { segments?: { phase: string }[] })?.segments ?? []).map((s) => s.phase);
     if (v && (!phase || phases.includes(phase))) {
-      return {
-        key: phase ? `${formula}(${phase})` : formula,
-        formula,
-        phase,
-        versionId: v.id,
-        modelId: m.id,
-        speciesName: species.displayName,
-        modelName: m.name,
-        family: m.family,
-        versionNumber: v.versionNumber,
-        status: v.status,
-        citation: v.citation,
-        data: v.data,
-        uncertainty: v.uncertainty ?? null,
-        phasePoints: phasePointsOf(species),
-      };
+      return pinnedVersionOf({ formula, phase }, v, m, { ...species.get({ plain: true }), critical: null });
     }
   }
   return null;
-}
-
-function reactionOf(terms: Term[]): string {
-  const side = (list: Term[]) => list.map((t) => `${Math.abs(t.coefficient) === 1 ? "" : `${Math.abs(t.coefficient)} `}${t.phase ? `${t.formula}(${t.phase})` : t.formula}`).join(" + ");
-  return `${side(terms.filter((t) => t.coefficient < 0))} -> ${side(terms.filter((t) => t.coefficient > 0))}`;
 }
 
 /** `plans` exist for the upgrade test, which seeds the cases as they were and then seeds again. */
@@ -303,15 +237,9 @@ export async function seed(ctx: SeedContext, options: { plans?: Plan[] } = {}): 
       await audit("case.created", row.id, erin.id, { title: plan.title, seeded: true });
       if (plan.flow === "draft") continue;
 
-      const species: EvaluateRequest["species"] = {};
-      // As the case services build it (lib/services/cases.ts buildRequest).
-      for (const p of pins) species[p.key] = speciesOfPin(p);
-      const request: EvaluateRequest = { reaction: reactionOf(plan.terms), species, temperatures: plan.temperatures, referenceK: 298.15, toleranceKJ: plan.toleranceKJ, include: ["contributions"] };
-      const equilibrium = equilibriumRequestOf(inputs.equilibrium);
-      if (equilibrium) request.equilibrium = equilibrium;
-      const result = evaluate(request);
-      const content = JSON.parse(JSON.stringify({ inputs, pins, engineVersion: result.engine.version, request, result }));
-      const snap = await CaseSnapshot.create({ caseId: row.id, teamId: team.id, revision: 1, ...content, hash: canonicalSha256(content), createdById: erin.id }, { transaction });
+      const request = buildRequest(inputs, pins);
+      const content = snapshotContent({ inputs, pins, request, result: evaluate(request) });
+      const snap = await CaseSnapshot.create({ caseId: row.id, teamId: team.id, revision: 1, ...content, hash: snapshotHash(content), createdById: erin.id }, { transaction });
       await audit("case.submitted", row.id, erin.id, { status: "submitted", revision: 1, hash: snap.hash });
       if (plan.flow === "submitted") {
         if (plan.comment) await Comment.create({ caseId: row.id, snapshotId: snap.id, authorId: erin.id, body: plan.comment }, { transaction });

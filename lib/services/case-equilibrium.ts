@@ -7,7 +7,8 @@ import { runEngine } from "@/lib/engine-pool";
 import type { EvaluateResult } from "@/lib/thermo";
 import { caseEquilibriumSchema } from "@/lib/validation/equilibrium";
 import { caseInputSchema } from "@/lib/validation/cases";
-import { getCase, requestFor, updateCase, type CaseDto } from "./cases";
+import { getCase, updateCase, type CaseDto } from "./cases";
+import { requestFor } from "./cases/queries";
 import { pinTerms } from "@/lib/cases/equilibrium";
 import { loadPins } from "./pins";
 

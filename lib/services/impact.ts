@@ -11,7 +11,7 @@ import type { Case } from "@/models/case";
 import type { PinnedVersion } from "@/models/case-snapshot";
 import type { ImpactCase, ImpactJob, ImpactStatus, ImpactTrigger } from "@/models/impact-job";
 import type { ModelVersion } from "@/models/model-version";
-import { requestFor } from "./cases";
+import { requestFor } from "./cases/queries";
 import { enqueueMail } from "./mail";
 import { loadPins } from "./pins";
 

@@ -7,7 +7,9 @@ import { env } from "@/lib/env";
 import { AppError, conflict, notFound } from "@/lib/errors";
 import type { DecisionInput } from "@/lib/validation/cases";
 import { recordAudit } from "./audit";
-import { caseReaction, getCase, listCases, type CaseDto, type CaseSummaryDto } from "./cases";
+import { caseReaction } from "@/lib/cases/request";
+import { listCases, type CaseDto, type CaseSummaryDto } from "./cases";
+import { caseView } from "./cases/queries";
 import { contributedVersionIds } from "./library";
 import { enqueueMail } from "./mail";
 import { cautionGasOfInputs, cautionText } from "@/lib/cases/caution";
@@ -48,7 +50,7 @@ export async function listReviews(actor: Actor | null, caseId: number): Promise<
 export async function decideCase(actor: Actor | null, caseId: number, input: DecisionInput): Promise<CaseDto> {
   const me = requirePermission(actor, "cases.review");
   const { Case, CaseSnapshot, Review, User } = models();
-  await db().transaction(async (transaction) => {
+  const decided = await db().transaction(async (transaction) => {
     const row = await Case.findByPk(caseId, { transaction });
     if (!row) throw notFound("Case");
     requireSameTeam(me, row.teamId, "Case");
@@ -91,8 +93,9 @@ export async function decideCase(actor: Actor | null, caseId: number, input: Dec
         ].join("\n"),
       });
     }
+    return row;
   });
-  return getCase(me, caseId);
+  return caseView(me, decided);
 }
 
 /** Recent decisions in the team, newest first. */

@@ -1,6 +1,7 @@
 import { afterAll, describe, expect, it, vi } from "vitest";
 import { closeDb, registry } from "@/lib/db";
-import { getResults, verifySnapshot } from "@/lib/services/cases";
+import { verifySnapshot } from "@/lib/cases/snapshot";
+import { getResults } from "@/lib/services/cases";
 import { seed as demoTeam } from "@/seeders/01-demo-team";
 import { DEMO_CASES, seed as demoCases } from "@/seeders/04-demo-cases";
 import { actorOf } from "../helpers/actors";

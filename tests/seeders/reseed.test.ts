@@ -5,7 +5,7 @@
  */
 import { afterAll, describe, expect, it } from "vitest";
 import { closeDb } from "@/lib/db";
-import { verifySnapshot } from "@/lib/services/cases";
+import { verifySnapshot } from "@/lib/cases/snapshot";
 import { runSeeders } from "@/seeders";
 import { seed as demoTeam } from "@/seeders/01-demo-team";
 import { seed as referenceLibrary } from "@/seeders/02-reference-library";

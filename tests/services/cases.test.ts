@@ -2,17 +2,8 @@ import canonicalize from "canonicalize";
 import { CAUTION_TEXT } from "@/lib/cases/caution";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb, models } from "@/lib/db";
-import {
-  createCase,
-  diffSnapshots,
-  getCase,
-  getResults,
-  getSnapshot,
-  snapshotHash,
-  submitCase,
-  updateCase,
-  verifySnapshot,
-} from "@/lib/services/cases";
+import { snapshotHash, verifySnapshot } from "@/lib/cases/snapshot";
+import { createCase, diffSnapshots, getCase, getResults, getSnapshot, submitCase, updateCase } from "@/lib/services/cases";
 import { caseInputSchema } from "@/lib/validation/cases";
 import { actorOf } from "../helpers/actors";
 import { shiftCase } from "../helpers/cases";

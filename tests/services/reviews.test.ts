@@ -1,7 +1,8 @@
 import { CAUTION_TEXT } from "@/lib/cases/caution";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb, models } from "@/lib/db";
-import { createCase, diffSnapshots, getResults, getSnapshot, submitCase, updateCase, verifySnapshot } from "@/lib/services/cases";
+import { verifySnapshot } from "@/lib/cases/snapshot";
+import { createCase, diffSnapshots, getResults, getSnapshot, submitCase, updateCase } from "@/lib/services/cases";
 import { decideCase, homeCounts, reviewQueue } from "@/lib/services/reviews";
 import { caseInputSchema, decisionSchema } from "@/lib/validation/cases";
 import { actorOf } from "../helpers/actors";
