@@ -11,10 +11,11 @@ import { createCase, getResults } from "@/lib/services/cases";
 import { getSpeciesCritical, setSpeciesCritical } from "@/lib/services/species-critical";
 import { caseInputSchema } from "@/lib/validation/cases";
 import { speciesPatchSchema } from "@/lib/validation/species-critical";
-import { actorOf } from "../helpers/actors";
+import { actorOf, signInAs } from "../helpers/actors";
 import { shiftCase } from "../helpers/cases";
 import { freshDatabase, tableCounts } from "../helpers/db";
 import { hammer, hostileBody, nastyString, type Handler } from "../helpers/hostile";
+import { bodyOf, ctx, jsonRequest } from "../helpers/request";
 import { ensureReferenceLibrary, type RefFormula } from "../helpers/reference-library";
 
 // n-Butane: Poling, Prausnitz & O'Connell, The Properties of Gases and Liquids, 5th ed., Appendix A (from memory).
@@ -55,6 +56,16 @@ describe("who may set them", () => {
     const audit = await models().AuditEvent.findOne({ where: { entityType: "species", entityId: String(butaneId), action: "species.critical-set" } });
     expect(audit!.after).toEqual({ formula: "C4H10", critical: BUTANE });
     expect(audit!.actorId).toBe(sam.userId);
+  });
+
+  it("over HTTP: PATCH answers { critical }, GET carries the same beside the species", async () => {
+    await signInAs("steward");
+    const patched = await (speciesOne.PATCH as Handler)(jsonRequest("PATCH", `/api/v1/species/${butaneId}`, { critical: BUTANE }), ctx({ id: String(butaneId) }));
+    expect(patched.status).toBe(200);
+    expect(await bodyOf(patched)).toEqual({ critical: { speciesId: butaneId, scope: "team", critical: BUTANE, canEdit: true } });
+    await signInAs("engineer");
+    const read = await (speciesOne.GET as Handler)(jsonRequest("GET", `/api/v1/species/${butaneId}`), ctx({ id: String(butaneId) }));
+    expect(await bodyOf(read)).toMatchObject({ species: { id: butaneId, formula: "C4H10" }, critical: { critical: BUTANE, canEdit: false } });
   });
 
   it("an engineer is refused (403), another team's admin gets 404, the reference library is read-only", async () => {
