@@ -11,7 +11,7 @@ import { oneLine } from "./text";
 // zod 4 numbers refuse NaN and ±Infinity by themselves.
 const finite = (what: string) => z.number({ error: `Enter ${what} as a number.` });
 
-export const CRITICAL_LIMITS = { tcK: 5000, pcBar: 5000, omegaMin: -1, omegaMax: 2 } as const;
+const CRITICAL_LIMITS = { tcK: 5000, pcBar: 5000, omegaMin: -1, omegaMax: 2 } as const;
 
 const tcK = finite("the critical temperature").gt(0, "A critical temperature must be above 0 K.").max(CRITICAL_LIMITS.tcK, `A critical temperature above ${CRITICAL_LIMITS.tcK} K is not plausible.`);
 const pcBar = finite("the critical pressure").gt(0, "A critical pressure must be above 0 bar.").max(CRITICAL_LIMITS.pcBar, `A critical pressure above ${CRITICAL_LIMITS.pcBar} bar is not plausible.`);
@@ -20,8 +20,7 @@ const omega = finite("the acentric factor")
   .max(CRITICAL_LIMITS.omegaMax, `An acentric factor runs from ${CRITICAL_LIMITS.omegaMin} to ${CRITICAL_LIMITS.omegaMax}.`);
 const citation = oneLine(z.string({ error: "Name the source of the constants." }).trim().min(1, "Name the source of the constants.").max(300, "Use at most 300 characters."));
 
-export const criticalConstantsSchema = strictObject({ tcK, pcBar, omega, citation });
-export type CriticalConstantsInput = z.infer<typeof criticalConstantsSchema>;
+const criticalConstantsSchema = strictObject({ tcK, pcBar, omega, citation });
 
 /** The body of PATCH /api/v1/species/:id: the constants with their source, or null to remove them. */
 export const speciesPatchSchema = strictObject({ critical: criticalConstantsSchema.nullable() });
