@@ -15,6 +15,9 @@ export type ActionState<T = undefined> = {
   data?: T;
 };
 
+/** A server action as useActionState takes it; a page passes its actions to the form components as props. */
+export type FormAction<T = undefined> = (prev: ActionState<T>, formData: FormData) => Promise<ActionState<T>>;
+
 export const initialActionState: ActionState = { ok: false };
 
 /** Expected failures become a message for the form; anything else is rethrown to the error page. */

@@ -1,6 +1,7 @@
 import { ZodError, type ZodType } from "zod";
 import { env } from "@/lib/env";
 import { AppError } from "@/lib/errors";
+import { idParamSchema } from "@/lib/validation/params";
 
 export type ErrorBody = { error: { code: string; message: string; details?: unknown } };
 
@@ -159,4 +160,20 @@ export function route<C = unknown>(handler: (request: Request, context: C) => Pr
       return toErrorResponse(error);
     }
   };
+}
+
+/** What Next passes a handler of a dynamic route: the segment values, as a promise. */
+type SegmentContext = { params: Promise<Record<string, string>> };
+
+/**
+ * `route()` for a route under an `[id]` segment: the id is parsed first (422 `invalid-request`,
+ * "Expected a numeric id.", unless a positive integer) and handed over as a number; `params`
+ * holds every segment as sent, for a route with more than one.
+ * `export const GET = withId(async (request, id) => json(await service(await getActor(), id)))`.
+ */
+export function withId(handler: (request: Request, id: number, params: Record<string, string>) => Promise<Response>) {
+  return route<SegmentContext>(async (request, { params }) => {
+    const segments = await params;
+    return handler(request, parseWith(idParamSchema, segments.id), segments);
+  });
 }

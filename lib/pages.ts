@@ -2,6 +2,7 @@ import { forbidden, notFound } from "next/navigation";
 import { requireUser, type Actor } from "@/lib/auth/guards";
 import { can, type Action } from "@/lib/auth/permissions";
 import { AppError } from "@/lib/errors";
+import { idParamSchema } from "@/lib/validation/params";
 
 /**
  * For pages: a signed-in member whose role lacks `action` gets the framework's 403 page
@@ -24,4 +25,11 @@ export async function orNotFound<T>(work: Promise<T>): Promise<T> {
     if (error instanceof AppError && error.status === 404) notFound();
     throw error;
   }
+}
+
+/** For pages under an `[id]` segment: the id by the API's rule (idParamSchema), else the not-found page. */
+export async function pageId(params: Promise<{ id: string }>): Promise<number> {
+  const parsed = idParamSchema.safeParse((await params).id);
+  if (!parsed.success) notFound();
+  return parsed.data;
 }

@@ -3,6 +3,7 @@ import { pinnedVersionOf } from "@/lib/cases/pin";
 import { buildRequest } from "@/lib/cases/request";
 import { snapshotContent, snapshotHash } from "@/lib/cases/snapshot";
 import { evaluate, parseReaction, parseSpeciesKey } from "@/lib/thermo";
+import { describeData } from "@/lib/thermo/curve";
 import type { CaseInput } from "@/lib/validation/cases";
 import type { CaseEquilibrium } from "@/lib/validation/equilibrium";
 import type { PinnedVersion } from "@/models/case-snapshot";
@@ -184,7 +185,7 @@ async function pinFor(ctx: SeedContext, formula: string, phase: string | null, t
   const cpModels = await CpModel.findAll({ where: { teamId: null, speciesId: species.id, family }, order: [["id", "ASC"]], transaction });
   for (const m of cpModels) {
     const v = await ModelVersion.findOne({ where: { modelId: m.id, status: "approved" }, order: [["versionNumber", "DESC"]], transaction });
-    const phases = ((v?.data as { segments?: { phase: string }[] })?.segments ?? []).map((s) => s.phase);
+    const phases = describeData(v?.data).phases;
     if (v && (!phase || phases.includes(phase))) {
       return pinnedVersionOf({ formula, phase }, v, m, { ...species.get({ plain: true }), critical: null });
     }

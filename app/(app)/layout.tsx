@@ -3,6 +3,7 @@ import { AppHeader } from "@/components/shell/app-header";
 import { can } from "@/lib/auth/permissions";
 import { getActor } from "@/lib/auth/session";
 import { isProduction } from "@/lib/env";
+import { signOutAction } from "./actions";
 
 const NAV = [
   { href: "/", label: "Home" },
@@ -23,6 +24,7 @@ export default async function AppLayout({ children }: { children: React.ReactNod
       </a>
       <AppHeader
         actor={actor}
+        signOut={signOutAction}
         items={[
           ...NAV,
           ...(can(actor.role, "audit.view") ? [{ href: "/audit", label: "Audit" }] : []),

@@ -1,13 +1,12 @@
 "use client";
 
 import { useActionState } from "react";
-import { acceptInvitationAction } from "@/app/(auth)/invite/[token]/actions";
 import { Button } from "@/components/ui/button";
 import { Field, TextInput } from "@/components/ui/field";
-import { initialActionState } from "@/lib/actions";
+import { initialActionState, type FormAction } from "@/lib/actions";
 
-export function AcceptInvitationForm({ token, email }: { token: string; email: string }) {
-  const [state, action, pending] = useActionState(acceptInvitationAction, initialActionState);
+export function AcceptInvitationForm({ token, email, accept }: { token: string; email: string; accept: FormAction }) {
+  const [state, action, pending] = useActionState(accept, initialActionState);
   return (
     <form action={action} className="space-y-4" noValidate>
       <input type="hidden" name="token" value={token} />

@@ -1,13 +1,12 @@
 "use client";
 
 import { useActionState } from "react";
-import { signInAction } from "@/app/(auth)/sign-in/actions";
 import { Button } from "@/components/ui/button";
 import { Field, TextInput } from "@/components/ui/field";
-import { initialActionState } from "@/lib/actions";
+import { initialActionState, type FormAction } from "@/lib/actions";
 
-export function SignInForm({ next }: { next?: string }) {
-  const [state, action, pending] = useActionState(signInAction, initialActionState);
+export function SignInForm({ next, signIn }: { next?: string; signIn: FormAction }) {
+  const [state, action, pending] = useActionState(signIn, initialActionState);
   return (
     <form action={action} className="space-y-4" noValidate>
       {next && <input type="hidden" name="next" value={next} />}

@@ -1,7 +1,8 @@
 "use client";
 
 import { Area, CartesianGrid, ComposedChart, Line, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
-import { CHART_COLORS } from "./line-series-chart";
+import { CHART_MARGIN, ChartLegend, xAxisProps, yAxisProps } from "./chart-parts";
+import { CHART_COLORS } from "./colors";
 
 export type CompositionSeries = {
   key: string;
@@ -44,37 +45,13 @@ export function CompositionChart({
   const fmt = (v: number) => (percent ? `${Number((100 * v).toPrecision(3))} %` : String(Number(v.toPrecision(4))));
   return (
     <figure className="w-full break-inside-avoid" data-testid={testId} aria-label={ariaLabel} role="img">
-      {/* An HTML legend wraps on a phone, where the chart's own would overlap the plot. */}
-      <ul className="mb-1 flex flex-wrap gap-x-3 gap-y-1 text-xs text-ink-soft" aria-hidden="true">
-        {series.map((s) => (
-          <li key={s.key} className="inline-flex items-center gap-1">
-            <svg width="18" height="8" className="shrink-0">
-              <line x1="0" y1="4" x2="18" y2="4" stroke={s.color} strokeWidth="2" strokeDasharray={s.dashed ? "4 3" : undefined} />
-            </svg>
-            {s.name}
-            {s.bandKey ? " ±1σ" : ""}
-          </li>
-        ))}
-      </ul>
+      <ChartLegend items={series.map((s) => ({ key: s.key, name: `${s.name}${s.bandKey ? " ±1σ" : ""}`, color: s.color, swatch: "line", dashed: s.dashed }))} />
       <div style={{ height }} className="w-full">
         <ResponsiveContainer width="100%" height="100%">
-          <ComposedChart data={data} margin={{ top: 8, right: 16, bottom: 24, left: 8 }}>
+          <ComposedChart data={data} margin={CHART_MARGIN}>
             <CartesianGrid stroke={CHART_COLORS.line} strokeDasharray="2 4" />
-            <XAxis
-              dataKey={xKey}
-              type="number"
-              domain={["dataMin", "dataMax"]}
-              ticks={xTicks}
-              tick={{ fontSize: 11, fill: CHART_COLORS.muted }}
-              label={{ value: xLabel, position: "insideBottom", offset: -14, fontSize: 11, fill: CHART_COLORS.ink }}
-            />
-            <YAxis
-              width={64}
-              tickFormatter={fmt}
-              tick={{ fontSize: 11, fill: CHART_COLORS.muted }}
-              label={{ value: yLabel, angle: -90, position: "insideLeft", offset: 4, fontSize: 11, fill: CHART_COLORS.ink, style: { textAnchor: "middle" } }}
-              domain={["auto", "auto"]}
-            />
+            <XAxis {...xAxisProps({ dataKey: xKey, label: xLabel, ticks: xTicks })} />
+            <YAxis {...yAxisProps({ label: yLabel, tickFormatter: fmt })} />
             {series
               .filter((s) => s.bandKey)
               .map((s) => (

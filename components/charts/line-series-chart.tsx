@@ -3,6 +3,7 @@
 import { useEffect, useRef, useState } from "react";
 import { Area, CartesianGrid, ComposedChart, Line, ReferenceArea, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
 
+import { CHART_MARGIN, ChartLegend, type LegendItem, xAxisProps, Y_AXIS_WIDTH, yAxisProps } from "./chart-parts";
 /** Colours of the palette (tailwind.config.ts): ember = corrected, frost = naive, flag = beyond tolerance. */
 import { CHART_COLORS } from "./colors";
 
@@ -46,8 +47,6 @@ const SUPERSCRIPT: Record<string, string> = { "-": "⁻", "0": "⁰", "1": "¹",
 const power10 = (v: number) => (Number.isInteger(v) ? `10${String(v).replace(/./g, (c) => SUPERSCRIPT[c] ?? c)}` : "");
 const plain = (v: number) => (Math.abs(v) >= 1e5 || (Math.abs(v) < 1e-3 && v !== 0) ? v.toExponential(1) : String(Number(v.toPrecision(4))));
 
-const MARGIN = { top: 8, right: 16, bottom: 24, left: 8 };
-const Y_AXIS_WIDTH = 64;
 const LABEL_FONT = 10;
 // A 10 px label with its white halo is about 18 px tall.
 const LABEL_ROW = 18;
@@ -90,33 +89,16 @@ function MarkLabel({ viewBox, text, color, row, anchor }: { viewBox?: { x?: numb
   );
 }
 
-export function ChartLegend({ series, bands, extra }: { series: SeriesSpec[]; bands: BandSpec[]; extra: LegendExtra[] }) {
-  return (
-    <ul className="mb-1 flex flex-wrap gap-x-3 gap-y-1 text-xs text-ink-soft" data-testid="chart-legend">
-      {series.map((s) => (
-        <li key={s.key} className="inline-flex items-center gap-1">
-          <svg width="18" height="8" className="shrink-0" aria-hidden="true">
-            <line x1="0" y1="4" x2="18" y2="4" stroke={s.color} strokeWidth="2" strokeDasharray={s.dashed ? "4 3" : undefined} />
-          </svg>
-          {s.name}
-        </li>
-      ))}
-      {[...bands.map((b) => ({ name: b.name, color: b.color, opacity: b.opacity ?? 0.18 })), ...extra].map((e) => (
-        <li key={e.name} className="inline-flex items-center gap-1">
-          {"line" in e && e.line ? (
-            <svg width="18" height="8" className="shrink-0" aria-hidden="true">
-              <line x1="0" y1="4" x2="18" y2="4" stroke={e.color} strokeWidth="1.5" strokeDasharray={e.line === "dashed" ? "4 3" : undefined} />
-            </svg>
-          ) : (
-            <svg width="12" height="10" className="shrink-0" aria-hidden="true">
-              <rect width="12" height="10" fill={e.color} fillOpacity={Math.max(0.25, e.opacity ?? 0.25)} stroke={e.color} strokeOpacity={0.5} />
-            </svg>
-          )}
-          {e.name}
-        </li>
-      ))}
-    </ul>
-  );
+/** Series as lines, then bands and the extras (filled squares unless they are a line). */
+function legendItems(series: SeriesSpec[], bands: BandSpec[], extra: LegendExtra[]): LegendItem[] {
+  return [
+    ...series.map((s): LegendItem => ({ key: s.key, name: s.name, color: s.color, swatch: "line", dashed: s.dashed })),
+    ...[...bands.map((b): LegendExtra => ({ name: b.name, color: b.color, opacity: b.opacity ?? 0.18 })), ...extra].map((e): LegendItem =>
+      e.line
+        ? { key: e.name, name: e.name, color: e.color, swatch: "line", dashed: e.line === "dashed", strokeWidth: 1.5 }
+        : { key: e.name, name: e.name, color: e.color, swatch: "area", fillOpacity: Math.max(0.25, e.opacity ?? 0.25), strokeOpacity: 0.5 },
+    ),
+  ];
 }
 
 export function LineSeriesChart({
@@ -156,37 +138,20 @@ export function LineSeriesChart({
   const lo = Math.min(...xs, ...(xTicks ?? []).slice(0, 1));
   const hi = Math.max(...xs, ...(xTicks ?? []).slice(-1));
   const domain: [number, number] = xDomain ?? [lo, hi];
-  const plotWidth = Math.max(40, width - MARGIN.left - MARGIN.right - Y_AXIS_WIDTH);
+  const plotWidth = Math.max(40, width - CHART_MARGIN.left - CHART_MARGIN.right - Y_AXIS_WIDTH);
   const inside = marksX.filter((m) => m.x >= domain[0] && m.x <= domain[1]);
   const placed = placeMarkLabels(inside, domain, plotWidth);
   const extra = [...(stretchLabel && stretches.length ? [{ name: stretchLabel, color: CHART_COLORS.flag, opacity: 0.1 }] : []), ...legendExtra];
   return (
     <figure className="w-full break-inside-avoid" data-testid={testId} aria-label={ariaLabel} role="img">
       {/* An HTML legend above the plot wraps on a phone; the marks' labels stay inside the plot. */}
-      <ChartLegend series={series} bands={allBands} extra={extra} />
+      <ChartLegend items={legendItems(series, allBands, extra)} />
       <div style={{ height }} className="w-full" ref={box}>
         <ResponsiveContainer width="100%" height="100%">
-          <ComposedChart data={data} margin={MARGIN}>
+          <ComposedChart data={data} margin={CHART_MARGIN}>
             <CartesianGrid stroke={CHART_COLORS.line} strokeDasharray="2 4" />
-            <XAxis
-              dataKey={xKey}
-              type="number"
-              domain={domain}
-              ticks={xTicks}
-              interval={xTicks ? 0 : "preserveEnd"}
-              allowDataOverflow={false}
-              tickFormatter={plain}
-              tick={{ fontSize: 11, fill: CHART_COLORS.muted }}
-              label={{ value: xLabel, position: "insideBottom", offset: -14, fontSize: 11, fill: CHART_COLORS.ink }}
-            />
-            <YAxis
-              tickFormatter={tick}
-              allowDecimals={yTicks !== "power10"}
-              width={Y_AXIS_WIDTH}
-              tick={{ fontSize: 11, fill: CHART_COLORS.muted }}
-              label={{ value: yLabel, angle: -90, position: "insideLeft", offset: 4, fontSize: 11, fill: CHART_COLORS.ink, style: { textAnchor: "middle" } }}
-              domain={["auto", "auto"]}
-            />
+            <XAxis {...xAxisProps({ dataKey: xKey, label: xLabel, ticks: xTicks, domain, tickFormatter: plain })} interval={xTicks ? 0 : "preserveEnd"} allowDataOverflow={false} />
+            <YAxis {...yAxisProps({ label: yLabel, tickFormatter: tick })} allowDecimals={yTicks !== "power10"} />
             {stretches.map((s, i) => (
               <ReferenceArea
                 key={`s${i}`}

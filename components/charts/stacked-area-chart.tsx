@@ -1,6 +1,7 @@
 "use client";
 
 import { Area, CartesianGrid, ComposedChart, Line, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
+import { CHART_MARGIN, ChartLegend, type LegendItem, xAxisProps, yAxisProps } from "./chart-parts";
 import { CHART_COLORS } from "./colors";
 
 export type StackSeries = { key: string; name: string; color: string };
@@ -39,45 +40,18 @@ export function StackedAreaChart({
 }) {
   return (
     <figure className="w-full break-inside-avoid" data-testid={testId} aria-label={ariaLabel} role="img">
-      {/* An HTML legend wraps on a phone, where the chart's own would overlap the plot. */}
-      <ul className="mb-1 flex flex-wrap gap-x-3 gap-y-1 text-xs text-ink-soft" aria-hidden="true">
-        {series.map((s) => (
-          <li key={s.key} className="inline-flex items-center gap-1">
-            <svg width="12" height="10" className="shrink-0">
-              <rect x="0" y="0" width="12" height="10" fill={s.color} fillOpacity="0.55" stroke={s.color} />
-            </svg>
-            {s.name}
-          </li>
-        ))}
-        {total && (
-          <li className="inline-flex items-center gap-1">
-            <svg width="18" height="8" className="shrink-0">
-              <line x1="0" y1="4" x2="18" y2="4" stroke={total.color} strokeWidth="2" />
-            </svg>
-            {total.name}
-          </li>
-        )}
-      </ul>
+      <ChartLegend
+        items={[
+          ...series.map((s): LegendItem => ({ key: s.key, name: s.name, color: s.color, swatch: "area", fillOpacity: 0.55 })),
+          ...(total ? [{ key: total.key, name: total.name, color: total.color, swatch: "line" } as const] : []),
+        ]}
+      />
       <div style={{ height }} className="w-full">
         <ResponsiveContainer width="100%" height="100%">
-          <ComposedChart data={data} stackOffset="sign" margin={{ top: 8, right: 16, bottom: 24, left: 8 }}>
+          <ComposedChart data={data} stackOffset="sign" margin={CHART_MARGIN}>
             <CartesianGrid stroke={CHART_COLORS.line} strokeDasharray="2 4" />
-            <XAxis
-              dataKey={xKey}
-              type="number"
-              domain={["dataMin", "dataMax"]}
-              ticks={xTicks}
-              tickFormatter={plain}
-              tick={{ fontSize: 11, fill: CHART_COLORS.muted }}
-              label={{ value: xLabel, position: "insideBottom", offset: -14, fontSize: 11, fill: CHART_COLORS.ink }}
-            />
-            <YAxis
-              width={64}
-              tickFormatter={plain}
-              tick={{ fontSize: 11, fill: CHART_COLORS.muted }}
-              label={{ value: yLabel, angle: -90, position: "insideLeft", offset: 4, fontSize: 11, fill: CHART_COLORS.ink, style: { textAnchor: "middle" } }}
-              domain={["auto", "auto"]}
-            />
+            <XAxis {...xAxisProps({ dataKey: xKey, label: xLabel, ticks: xTicks, tickFormatter: plain })} />
+            <YAxis {...yAxisProps({ label: yLabel, tickFormatter: plain })} />
             <ReferenceLine y={0} stroke={CHART_COLORS.muted} />
             {series.map((s) => (
               <Area

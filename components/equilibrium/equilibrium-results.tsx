@@ -4,6 +4,7 @@ import { CHART_COLORS } from "@/components/charts/colors";
 import { CompositionChart, type CompositionSeries } from "@/components/charts/composition-chart";
 import { useDisplayUnit } from "@/components/results/display-unit-context";
 import { Badge } from "@/components/ui/badge";
+import { DataTable } from "@/components/ui/table";
 import { UNIT_LABELS, differenceFromKelvin, fromKelvin, gridValue, niceTicks, type DisplayUnit } from "@/lib/cases/display-unit";
 import type { EvaluateResult } from "@/lib/thermo/evaluate";
 import { colorOf, compositionRows, gasSpecies, keyRows } from "./series";
@@ -12,6 +13,8 @@ import { colorOf, compositionRows, gasSpecies, keyRows } from "./series";
 const pct = (x: number | null | undefined, digits = 3) => (x === null || x === undefined ? "—" : x === 0 ? "0 %" : `${(100 * x).toPrecision(digits)} %`);
 const plusMinus = (s: number | null | undefined) => (s ? ` ± ${pct(s, 2)}` : "");
 const num = (x: number | null | undefined, digits = 4) => (x === null || x === undefined ? "—" : String(Number(x.toPrecision(digits))));
+
+type EqPoint = NonNullable<EvaluateResult["equilibrium"]>[number];
 
 /** At most this many table rows on screen; the CSV export has every point. */
 const TABLE_ROWS = 24;
@@ -54,8 +57,6 @@ export function EquilibriumResults({ result, compact = false, unit: unitProp }: 
   // "±1σ" only where the result carries uncertainties.
   const sigma = Boolean(eq[0].sigma || eq[0].naive.sigma);
   const pm = sigma ? " ±1σ" : "";
-  const th = "border-b border-ink-line px-2 py-1 text-right font-medium whitespace-nowrap";
-  const td = "px-2 py-0.5 text-right tabular whitespace-nowrap";
   return (
     <div className="space-y-4" data-testid="equilibrium-results">
       <div className="flex flex-wrap items-center gap-2 text-sm">
@@ -101,53 +102,27 @@ export function EquilibriumResults({ result, compact = false, unit: unitProp }: 
         </div>
       </div>
       <div className="overflow-x-auto">
-        <table className="min-w-full text-xs" data-testid="equilibrium-table">
-          <thead>
-            <tr>
-              <th className={th} data-testid="equilibrium-t-header">
-                T ({u})
-              </th>
-              <th className={th}>{key} conversion corrected</th>
-              <th className={th}>naive</th>
-              <th className={th}>{key} fraction corrected{pm}</th>
-              <th className={th}>naive{pm}</th>
-              <th className={th}>naive − corrected</th>
-              {others.map((k) => (
-                <th key={k} className={th}>
-                  {k}
-                </th>
-              ))}
-            </tr>
-          </thead>
-          <tbody>
-            {rows.map((p) => (
-              <tr key={p.tK}>
-                <td className={td} data-value={p.tK}>
-                  {gridValue(p.tK, unit)}
-                </td>
-                <td className={td}>{pct(p.keyConversion, 4)}</td>
-                <td className={td}>{pct(p.naive.keyConversion, 4)}</td>
-                <td className={td}>
-                  {pct(p.keyFraction)}
-                  {plusMinus(p.sigma?.keyFraction)}
-                </td>
-                <td className={td}>
-                  {pct(p.naive.keyFraction)}
-                  {plusMinus(p.naive.sigma?.keyFraction)}
-                </td>
-                <td className={`${td} ${p.naiveExceedsUncertainty ? "font-semibold text-flag-700" : ""}`}>
-                  {pct(p.keyFractionDiff)}
-                  {p.naiveExceedsUncertainty ? " *" : ""}
-                </td>
-                {others.map((k) => (
-                  <td key={k} className={td}>
-                    {pct(p.moleFractions[k])}
-                  </td>
-                ))}
-              </tr>
-            ))}
-          </tbody>
-        </table>
+        <DataTable
+          look="numbers"
+          nowrap
+          testId="equilibrium-table"
+          columns={[
+            { key: "t", header: `T (${u})`, headerTestId: "equilibrium-t-header", value: (p) => p.tK, cell: (p) => gridValue(p.tK, unit) },
+            { key: "conv", header: `${key} conversion corrected`, cell: (p) => pct(p.keyConversion, 4) },
+            { key: "convn", header: "naive", cell: (p) => pct(p.naive.keyConversion, 4) },
+            { key: "x", header: `${key} fraction corrected${pm}`, cell: (p) => <>{pct(p.keyFraction)}{plusMinus(p.sigma?.keyFraction)}</> },
+            { key: "xn", header: `naive${pm}`, cell: (p) => <>{pct(p.naive.keyFraction)}{plusMinus(p.naive.sigma?.keyFraction)}</> },
+            {
+              key: "diff",
+              header: "naive − corrected",
+              className: (p) => (p.naiveExceedsUncertainty ? "font-semibold text-flag-700" : undefined),
+              cell: (p) => `${pct(p.keyFractionDiff)}${p.naiveExceedsUncertainty ? " *" : ""}`,
+            },
+            ...others.map((k) => ({ key: `y:${k}`, header: k, cell: (p: EqPoint) => pct(p.moleFractions[k]) })),
+          ]}
+          rows={rows}
+          rowKey={(p) => p.tK}
+        />
         <p className="mt-1 text-xs text-ink-muted">
           {rows.length < eq.length ? `One row in every ${stride} points, and the last; the CSV export has all ${eq.length}. ` : ""}
           Mole fractions of the gas phase; condensed species are pure phases at unit activity. {over !== undefined ? "* the naive error exceeds the 1σ of the corrected fraction." : ""}
@@ -163,43 +138,24 @@ export function EquilibriumResults({ result, compact = false, unit: unitProp }: 
 function FugacityTable({ result, rows, compact, unit }: { result: EvaluateResult; rows: NonNullable<EvaluateResult["equilibrium"]>; compact: boolean; unit: DisplayUnit }) {
   const key = result.equilibriumInfo!.key;
   const gas = gasSpecies(result);
-  const th = "border-b border-ink-line px-2 py-1 text-right font-medium whitespace-nowrap";
-  const td = "px-2 py-0.5 text-right tabular whitespace-nowrap";
   return (
     <div className="overflow-x-auto">
       <h3 className="mb-1 text-xs font-semibold text-ink-soft">Fugacity coefficients φ (Peng–Robinson, corrected K) and the ideal-gas answer beside</h3>
-      <table className="min-w-full text-xs" data-testid="fugacity-table">
-        <thead>
-          <tr>
-            <th className={th}>T ({UNIT_LABELS[unit]})</th>
-            <th className={th}>Z</th>
-            {gas.map((k) => (
-              <th key={k} className={th}>
-                φ {k}
-              </th>
-            ))}
-            <th className={th}>{key} conversion real gas</th>
-            <th className={th}>ideal gas</th>
-            {!compact && <th className={th}>{key} fraction ideal gas</th>}
-          </tr>
-        </thead>
-        <tbody>
-          {rows.map((p) => (
-            <tr key={p.tK}>
-              <td className={td}>{gridValue(p.tK, unit)}</td>
-              <td className={td}>{num(p.diagnostics.realGas?.z, 4)}</td>
-              {gas.map((k) => (
-                <td key={k} className={td}>
-                  {num(p.fugacityCoefficients?.[k], 4)}
-                </td>
-              ))}
-              <td className={td}>{pct(p.keyConversion, 4)}</td>
-              <td className={td}>{pct(p.ideal?.keyConversion, 4)}</td>
-              {!compact && <td className={td}>{pct(p.ideal?.moleFractions[key])}</td>}
-            </tr>
-          ))}
-        </tbody>
-      </table>
+      <DataTable
+        look="numbers"
+        nowrap
+        testId="fugacity-table"
+        columns={[
+          { key: "t", header: `T (${UNIT_LABELS[unit]})`, cell: (p) => gridValue(p.tK, unit) },
+          { key: "z", header: "Z", cell: (p) => num(p.diagnostics.realGas?.z, 4) },
+          ...gas.map((k) => ({ key: `phi:${k}`, header: `φ ${k}`, cell: (p: EqPoint) => num(p.fugacityCoefficients?.[k], 4) })),
+          { key: "real", header: `${key} conversion real gas`, cell: (p) => pct(p.keyConversion, 4) },
+          { key: "ideal", header: "ideal gas", cell: (p) => pct(p.ideal?.keyConversion, 4) },
+          !compact && { key: "idealx", header: `${key} fraction ideal gas`, cell: (p) => pct(p.ideal?.moleFractions[key]) },
+        ]}
+        rows={rows}
+        rowKey={(p) => p.tK}
+      />
       <p className="mt-1 text-xs text-ink-muted">van der Waals one-fluid mixing with k_ij = 0 unless given; φ solved self-consistently with the outlet composition.</p>
     </div>
   );

@@ -1,6 +1,7 @@
 "use client";
 
 import { CompositionChart, type CompositionSeries } from "@/components/charts/composition-chart";
+import { DataTable } from "@/components/ui/table";
 import type { FamilyOptionDto } from "@/lib/services/equilibrium";
 import type { SourceComparison } from "@/lib/thermo/sources";
 import { colorOf } from "./series";
@@ -9,6 +10,8 @@ export type SourcesDto = { families: FamilyOptionDto[]; comparison: SourceCompar
 
 const num = (x: number | null | undefined, digits = 4) => (x === null || x === undefined ? "—" : String(Number(x.toPrecision(digits))));
 const pct = (x: number | null | undefined, digits = 3) => (x === null || x === undefined ? "—" : `${Number((100 * x).toPrecision(digits))} %`);
+
+type Shown = { s: SourceComparison["spread"][number]; i: number };
 
 /** One case run with every approved data family that covers its species: the spread of ΔrG, log10 K and the key outlet fraction. */
 export function SourceComparisonView({ data, compact = false }: { data: SourcesDto; compact?: boolean }) {
@@ -30,9 +33,6 @@ export function SourceComparisonView({ data, compact = false }: { data: SourcesD
   });
   const stride = Math.max(1, Math.ceil(spread.length / 16));
   const shown = spread.map((s, i) => ({ s, i })).filter(({ i }) => i % stride === 0 || i === spread.length - 1);
-  const pad = compact ? "px-1" : "px-2";
-  const th = `border-b border-ink-line ${pad} py-1 text-right font-medium whitespace-nowrap`;
-  const td = `${pad} py-0.5 text-right tabular whitespace-nowrap`;
   const worstLogK = spread.reduce((a, s) => Math.max(a, s.log10K.range), 0);
   return (
     <section className="space-y-3" data-testid="sources">
@@ -55,46 +55,21 @@ export function SourceComparisonView({ data, compact = false }: { data: SourcesD
       </p>
       {eq && <CompositionChart data={rows} series={series} yLabel="mole fraction" testId="sources-chart" ariaLabel={`${key} outlet fraction per data family`} height={240} />}
       <div className="overflow-x-auto">
-        <table className={`min-w-full ${compact ? "text-[10px]" : "text-xs"}`} data-testid="sources-table">
-          <thead>
-            <tr>
-              <th className={th}>T (K)</th>
-              {variants.map((v) => (
-                <th key={v.label} className={th}>
-                  log10 K {v.label}
-                </th>
-              ))}
-              <th className={th}>spread</th>
-              {eq &&
-                variants.map((v) => (
-                  <th key={`x${v.label}`} className={th}>
-                    {key} {v.label}
-                  </th>
-                ))}
-              {eq && <th className={th}>spread</th>}
-            </tr>
-          </thead>
-          <tbody>
-            {shown.map(({ s, i }) => (
-              <tr key={s.tK}>
-                <td className={td}>{num(s.tK, 6)}</td>
-                {variants.map((v) => (
-                  <td key={v.label} className={td}>
-                    {v.result.points[i].log10K.toFixed(4)}
-                  </td>
-                ))}
-                <td className={td}>{s.log10K.range.toFixed(4)}</td>
-                {eq &&
-                  variants.map((v) => (
-                    <td key={`x${v.label}`} className={td}>
-                      {pct(v.result.equilibrium?.[i].keyFraction)}
-                    </td>
-                  ))}
-                {eq && <td className={td}>{pct(s.keyFraction?.range)}</td>}
-              </tr>
-            ))}
-          </tbody>
-        </table>
+        <DataTable
+          look="numbers"
+          nowrap
+          dense={compact}
+          testId="sources-table"
+          columns={[
+            { key: "t", header: "T (K)", cell: ({ s }) => num(s.tK, 6) },
+            ...variants.map((v) => ({ key: `k:${v.label}`, header: `log10 K ${v.label}`, cell: ({ i }: Shown) => v.result.points[i].log10K.toFixed(4) })),
+            { key: "spread", header: "spread", cell: ({ s }) => s.log10K.range.toFixed(4) },
+            ...(eq ? variants.map((v) => ({ key: `x:${v.label}`, header: `${key} ${v.label}`, cell: ({ i }: Shown) => pct(v.result.equilibrium?.[i].keyFraction) })) : []),
+            !!eq && { key: "xspread", header: "spread", cell: ({ s }) => pct(s.keyFraction?.range) },
+          ]}
+          rows={shown}
+          rowKey={({ s }) => s.tK}
+        />
       </div>
     </section>
   );

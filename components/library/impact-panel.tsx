@@ -5,6 +5,7 @@ import { useState } from "react";
 import useSWR from "swr";
 import { Badge } from "@/components/ui/badge";
 import { Button } from "@/components/ui/button";
+import { DataTable, type Column } from "@/components/ui/table";
 import type { ImpactDto } from "@/lib/services/impact";
 
 type ApiError = { code: string; message: string };
@@ -52,8 +53,6 @@ export function ImpactPanel({ versionId, versionStatus, canStart }: { versionId:
     await mutate(body as ImpactDto, { revalidate: false });
   };
 
-  const th = "border-b border-ink-line px-2 py-1 text-left font-medium whitespace-nowrap";
-  const td = "px-2 py-1 align-top tabular";
   const flagged = data?.cases.filter((c) => c.exceedsTolerance).length ?? 0;
   return (
     <div className="space-y-3 text-sm" data-testid="impact-panel">
@@ -87,50 +86,61 @@ export function ImpactPanel({ versionId, versionStatus, canStart }: { versionId:
       {job?.status === "failed" && <p className="text-flag-700">The run failed: {job.error}</p>}
       {data && data.cases.length > 0 && (
         <div className="overflow-x-auto">
-          <table className="min-w-full text-xs" data-testid="impact-table">
-            <thead>
-              <tr>
-                <th className={th}>Case</th>
-                <th className={th}>Pins</th>
-                <th className={th}>max |ΔΔrG| (kJ/mol)</th>
-                <th className={th}>max |Δlog10 K|</th>
-                <th className={th}>max |Δ key fraction|</th>
-                <th className={th}>Crossovers before → after</th>
-                <th className={th}>Sign case before → after</th>
-              </tr>
-            </thead>
-            <tbody className="divide-y divide-ink-line">
-              {data.cases.map((c) => (
-                <tr key={c.caseId} className={c.exceedsTolerance ? "bg-flag-50" : ""} data-testid="impact-row">
-                  <td className={td}>
-                    <Link href={`/cases/${c.caseId}`} className="text-frost-700 hover:underline">
-                      {c.title}
-                    </Link>{" "}
-                    <span className="text-ink-muted">({c.status})</span>
-                    {c.exceedsTolerance && (
-                      <span className="ml-1 font-semibold text-flag-700" data-testid="impact-flag">
-                        beyond tolerance
-                      </span>
-                    )}
-                    {c.error && <span className="block text-flag-700">{c.error}</span>}
-                  </td>
-                  <td className={td}>v{c.pinnedVersionNumbers.join(", v")}</td>
-                  <td className={td}>{num(c.maxDiffKJ)}</td>
-                  <td className={td}>{num(c.maxDiffLog10K)}</td>
-                  <td className={td}>{c.maxDiffKeyFraction === null ? "—" : `${num(100 * c.maxDiffKeyFraction)} %`}</td>
-                  <td className={`${td} ${c.crossoversBefore.length !== c.crossoversAfter.length ? "font-semibold text-flag-700" : ""}`}>
-                    {temps(c.crossoversBefore)} → {temps(c.crossoversAfter)}
-                  </td>
-                  <td className={`${td} ${c.signCaseBefore !== c.signCaseAfter ? "font-semibold text-flag-700" : ""}`}>
-                    {c.signCaseBefore ? SIGN[c.signCaseBefore] : "—"} → {c.signCaseAfter ? SIGN[c.signCaseAfter] : "—"}
-                  </td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
+          <DataTable
+            look="numbers"
+            align="left"
+            nowrapHeader
+            rules
+            testId="impact-table"
+            rowTestId="impact-row"
+            columns={IMPACT_COLUMNS}
+            rows={data.cases}
+            rowKey={(c) => c.caseId}
+            alignTop
+            rowClassName={(c) => (c.exceedsTolerance ? "bg-flag-50" : undefined)}
+          />
         </div>
       )}
       {job?.status === "done" && data?.cases.length === 0 && <p data-testid="impact-empty">No case of your team pins an older version of this model.</p>}
     </div>
   );
 }
+
+const flagged = (changed: boolean) => (changed ? "font-semibold text-flag-700" : undefined);
+
+const IMPACT_COLUMNS: Column<ImpactDto["cases"][number]>[] = [
+  {
+    key: "case",
+    header: "Case",
+    cell: (c) => (
+      <>
+        <Link href={`/cases/${c.caseId}`} className="text-frost-700 hover:underline">
+          {c.title}
+        </Link>{" "}
+        <span className="text-ink-muted">({c.status})</span>
+        {c.exceedsTolerance && (
+          <span className="ml-1 font-semibold text-flag-700" data-testid="impact-flag">
+            beyond tolerance
+          </span>
+        )}
+        {c.error && <span className="block text-flag-700">{c.error}</span>}
+      </>
+    ),
+  },
+  { key: "pins", header: "Pins", cell: (c) => `v${c.pinnedVersionNumbers.join(", v")}` },
+  { key: "dg", header: "max |ΔΔrG| (kJ/mol)", cell: (c) => num(c.maxDiffKJ) },
+  { key: "logk", header: "max |Δlog10 K|", cell: (c) => num(c.maxDiffLog10K) },
+  { key: "x", header: "max |Δ key fraction|", cell: (c) => (c.maxDiffKeyFraction === null ? "—" : `${num(100 * c.maxDiffKeyFraction)} %`) },
+  {
+    key: "crossovers",
+    header: "Crossovers before → after",
+    className: (c) => flagged(c.crossoversBefore.length !== c.crossoversAfter.length),
+    cell: (c) => `${temps(c.crossoversBefore)} → ${temps(c.crossoversAfter)}`,
+  },
+  {
+    key: "sign",
+    header: "Sign case before → after",
+    className: (c) => flagged(c.signCaseBefore !== c.signCaseAfter),
+    cell: (c) => `${c.signCaseBefore ? SIGN[c.signCaseBefore] : "—"} → ${c.signCaseAfter ? SIGN[c.signCaseAfter] : "—"}`,
+  },
+];

@@ -6,6 +6,7 @@ import { useState } from "react";
 import { PointsChart } from "@/components/charts/residual-chart";
 import { Button } from "@/components/ui/button";
 import { inputClass } from "@/components/ui/field";
+import { DataTable } from "@/components/ui/table";
 import { defaultPhase, PhaseSelect } from "./phase-select";
 import { fileProblems, guessDelimiter, readDatasetRows, type DatasetParse } from "@/lib/datasets/csv";
 import { CP_UNIT_LABELS, CP_UNITS, DATASET_MAX_BYTES, T_UNIT_LABELS, T_UNITS } from "@/lib/validation/library";
@@ -233,17 +234,23 @@ export function UploadWizard({ species }: { species: SpeciesOption[] }) {
             )}
             {parse.rows.length > 0 && (
               <div className="max-h-72 overflow-auto rounded-md border border-ink-line">
-                <table className="w-full text-left text-xs">
-                  <thead className="sticky top-0 bg-paper-deep text-ink-muted"><tr><th className="px-2 py-1">Row</th><th className="px-2">{parse.columns.t}</th><th className="px-2">{parse.columns.cp}</th>{parse.hasSigma && <th className="px-2">{parse.columns.sigma}</th>}<th className="px-2">T (K)</th><th className="px-2">Cp (J/(mol·K))</th><th className="px-2">Problem</th></tr></thead>
-                  <tbody className="divide-y divide-ink-line tabular">
-                    {parse.rows.slice(0, 200).map((r) => (
-                      <tr key={r.row} className={r.error ? "bg-flag-50 text-flag-700" : ""}>
-                        <td className="px-2 py-0.5">{r.row}</td><td className="px-2">{r.t}</td><td className="px-2">{r.cp}</td>{parse.hasSigma && <td className="px-2">{r.sigma}</td>}
-                        <td className="px-2">{r.tK !== undefined ? r.tK.toFixed(2) : ""}</td><td className="px-2">{r.cpJ !== undefined ? r.cpJ.toFixed(3) : ""}</td><td className="px-2">{r.error ?? ""}</td>
-                      </tr>
-                    ))}
-                  </tbody>
-                </table>
+                <DataTable
+                  look="grid"
+                  align="left"
+                  nowrapHeader
+                  columns={[
+                    { key: "row", header: "Row", cell: (r) => r.row },
+                    { key: "t", header: parse.columns.t, cell: (r) => r.t },
+                    { key: "cp", header: parse.columns.cp, cell: (r) => r.cp },
+                    parse.hasSigma && { key: "sigma", header: parse.columns.sigma, cell: (r) => r.sigma },
+                    { key: "tk", header: "T (K)", cell: (r) => (r.tK !== undefined ? r.tK.toFixed(2) : "") },
+                    { key: "cpj", header: "Cp (J/(mol·K))", cell: (r) => (r.cpJ !== undefined ? r.cpJ.toFixed(3) : "") },
+                    { key: "problem", header: "Problem", cell: (r) => r.error ?? "" },
+                  ]}
+                  rows={parse.rows.slice(0, 200)}
+                  rowKey={(r) => r.row}
+                  rowClassName={(r) => (r.error ? "bg-flag-50 text-flag-700" : undefined)}
+                />
               </div>
             )}
             {!dataset && <Button type="button" onClick={() => void upload()} disabled={!!busy || bad.length > 0 || !name.trim()}>{busy === "upload" ? "Uploading…" : "Upload dataset"}</Button>}

@@ -5,8 +5,7 @@ import { useState } from "react";
 import { Button } from "@/components/ui/button";
 import { ConfirmDialog } from "@/components/ui/confirm-dialog";
 import { inputClass } from "@/components/ui/field";
-import { approveVersionAction, rejectVersionAction } from "@/app/(app)/library/versions/[id]/actions";
-import type { ActionState } from "@/lib/actions";
+import type { ActionState, FormAction } from "@/lib/actions";
 
 type Allowed = { edit: boolean; propose: boolean; decide: boolean; newDraft: boolean; copy: boolean; ownWork: boolean; withdraw?: boolean; remove?: boolean };
 
@@ -16,7 +15,8 @@ async function post(url: string, body?: unknown): Promise<{ ok: boolean; data: {
 }
 
 /** The workflow buttons the server said this person may use; the server checks again on every call. */
-export function VersionActions({ versionId, modelId, allowed, label, speciesHref }: { versionId: number; modelId: number; allowed: Allowed; label?: string; speciesHref?: string }) {
+/** `decisions`: the page's approve and reject server actions. */
+export function VersionActions({ versionId, modelId, allowed, label, speciesHref, decisions }: { versionId: number; modelId: number; allowed: Allowed; label?: string; speciesHref?: string; decisions: { approve: FormAction; reject: FormAction } }) {
   const router = useRouter();
   const [busy, setBusy] = useState<string | null>(null);
   const [error, setError] = useState<string | null>(null);
@@ -66,7 +66,7 @@ export function VersionActions({ versionId, modelId, allowed, label, speciesHref
         {allowed.propose && <Button focusableWhenDisabled disabled={!!busy} onClick={() => run("propose", `/api/v1/versions/${versionId}/propose`)}>{busy === "propose" ? "Proposing…" : "Propose for approval"}</Button>}
         {allowed.decide && (
           <>
-            <Button focusableWhenDisabled disabled={!!busy} onClick={() => decide("approve", approveVersionAction, {})}>{busy === "approve" ? "Approving…" : "Approve"}</Button>
+            <Button focusableWhenDisabled disabled={!!busy} onClick={() => decide("approve", decisions.approve, {})}>{busy === "approve" ? "Approving…" : "Approve"}</Button>
             <Button variant="danger" focusableWhenDisabled disabled={!!busy} onClick={() => setRejecting((r) => !r)}>Reject…</Button>
           </>
         )}
@@ -81,7 +81,7 @@ export function VersionActions({ versionId, modelId, allowed, label, speciesHref
           className="space-y-2"
           onSubmit={(e) => {
             e.preventDefault();
-            decide("reject", rejectVersionAction, { reason });
+            decide("reject", decisions.reject, { reason });
           }}
         >
           <label htmlFor="reject-reason" className="block text-sm font-medium text-ink-soft">Reason for the author</label>

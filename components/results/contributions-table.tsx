@@ -1,3 +1,4 @@
+import { DataTable } from "@/components/ui/table";
 import { fixed } from "@/lib/cases/format";
 import type { EvaluateResult } from "@/lib/thermo/evaluate";
 
@@ -12,42 +13,29 @@ export function ContributionsTable({ result, rowIndexes }: { result: EvaluateRes
   }
   const keys = Object.keys(c);
   const sigma = result.contributionsSigma;
-  const th = "border-b border-ink-line px-2 py-1 text-right font-medium";
-  const td = "px-2 py-0.5 text-right tabular";
   return (
     <>
-      <table className="w-full text-xs" data-testid="report-contributions">
-        <thead>
-          <tr>
-            <th className={th}>T (K)</th>
-            {keys.map((k) => (
-              <th key={k} className={th}>
-                {k} (kJ/mol)
-              </th>
-            ))}
-            <th className={th}>sum = corrected − naive (kJ/mol)</th>
-            {sigma && <th className={th}>1σ of ΔrG (kJ/mol)</th>}
-          </tr>
-        </thead>
-        <tbody>
-          {rowIndexes.map((i) => {
-            const p = result.points[i];
-            return (
-              <tr key={p.tK}>
-                <td className={td}>{fixed(p.tK, 2)}</td>
-                {keys.map((k) => (
-                  <td key={k} className={td}>
-                    {fixed(c[k][i], 3)}
-                    {sigma ? <span className="text-ink-muted"> ({fixed(sigma[k][i], 3)})</span> : null}
-                  </td>
-                ))}
-                <td className={td}>{fixed(-p.diffKJ, 3)}</td>
-                {sigma && <td className={td}>{fixed(p.sigmaDGkJ, 3)}</td>}
-              </tr>
-            );
-          })}
-        </tbody>
-      </table>
+      <DataTable
+        look="numbers"
+        testId="report-contributions"
+        columns={[
+          { key: "t", header: "T (K)", cell: (i) => fixed(result.points[i].tK, 2) },
+          ...keys.map((k) => ({
+            key: k,
+            header: `${k} (kJ/mol)`,
+            cell: (i: number) => (
+              <>
+                {fixed(c[k][i], 3)}
+                {sigma ? <span className="text-ink-muted"> ({fixed(sigma[k][i], 3)})</span> : null}
+              </>
+            ),
+          })),
+          { key: "sum", header: "sum = corrected − naive (kJ/mol)", cell: (i) => fixed(-result.points[i].diffKJ, 3) },
+          sigma && { key: "sigma", header: "1σ of ΔrG (kJ/mol)", cell: (i) => fixed(result.points[i].sigmaDGkJ, 3) },
+        ]}
+        rows={rowIndexes}
+        rowKey={(i) => result.points[i].tK}
+      />
       <p className="mt-1 text-xs text-ink-muted">
         Each column is ν·[(H(T) − H(Tref)) − T·(S(T) − S(Tref))] of one species; they add up to corrected − naive ΔrG (the negative of the table summary&apos;s naive − corrected).
         {sigma ? " In brackets: the species' variance share of the 1σ of ΔrG, (ν·σᵢ)²/σ; these add up to the last column." : ""}

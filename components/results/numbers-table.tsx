@@ -2,6 +2,7 @@
 
 import { useState } from "react";
 import { Button } from "@/components/ui/button";
+import { DataTable, type Column } from "@/components/ui/table";
 import { gridValue, UNIT_LABELS, type DisplayUnit } from "@/lib/cases/display-unit";
 import { fixed, sci } from "@/lib/cases/format";
 import type { EvaluateResult } from "@/lib/thermo/evaluate";
@@ -14,6 +15,27 @@ const kOf = (lnK: number) => {
   return Number.isFinite(k) && k > 0 ? k : null;
 };
 
+type Point = EvaluateResult["points"][number];
+
+const rowBg = (p: Point) => (p.exceedsTolerance ? "bg-flag-50" : "bg-white");
+
+const columns = (unit: DisplayUnit): Column<Point>[] => [
+  // The T column stays put when the table scrolls sideways, so it carries the row's background.
+  { key: "t", header: `T (${UNIT_LABELS[unit]})`, headerTestId: "numbers-t-header", sticky: true, className: (p) => `${rowBg(p)} font-medium`, value: (p) => p.tK, cell: (p) => gridValue(p.tK, unit) },
+  { key: "cp", header: "ΔrCp (J/(mol·K))", value: (p) => p.dCpJ, cell: (p) => fixed(p.dCpJ, 3) },
+  { key: "h", header: "ΔrH (kJ/mol)", value: (p) => p.dHkJ, cell: (p) => fixed(p.dHkJ, 3) },
+  { key: "s", header: "ΔrS (J/(mol·K))", value: (p) => p.dSJ, cell: (p) => fixed(p.dSJ, 3) },
+  { key: "g", header: "ΔrG corrected (kJ/mol)", className: "font-medium text-ember-700", value: (p) => p.dGkJ, cell: (p) => fixed(p.dGkJ, 3) },
+  { key: "gn", header: "ΔrG naive (kJ/mol)", className: "text-frost-700", value: (p) => p.naiveDGkJ, cell: (p) => fixed(p.naiveDGkJ, 3) },
+  { key: "diff", header: "naive − corrected (kJ/mol)", value: (p) => p.diffKJ, cell: (p) => fixed(p.diffKJ, 3) },
+  { key: "lnk", header: "ln K", value: (p) => p.lnK, cell: (p) => fixed(p.lnK, 3) },
+  { key: "logk", header: "log10 K", value: (p) => p.log10K, cell: (p) => fixed(p.log10K, 3) },
+  { key: "logkn", header: "naive log10 K", className: "text-frost-700", value: (p) => p.naiveLog10K, cell: (p) => fixed(p.naiveLog10K, 3) },
+  { key: "k", header: "K", value: (p) => p.K, cell: (p) => sci(p.K, 4) },
+  { key: "kn", header: "naive K", className: "text-frost-700", value: (p) => kOf(p.naiveLnK), cell: (p) => sci(kOf(p.naiveLnK), 4) },
+  { key: "beyond", header: "beyond tolerance", cell: (p) => (p.exceedsTolerance ? "yes" : "") },
+];
+
 /**
  * Every point, paginated, temperatures in the display unit; each cell carries the API's number
  * (kelvin, full precision) in data-value. On screen: energies to 0.001 kJ/mol, ln K and log10 K
@@ -24,54 +46,10 @@ export function NumbersTable({ points, unit = "K" }: { points: EvaluateResult["p
   const [page, setPage] = useState(0);
   const pages = Math.max(1, Math.ceil(points.length / PAGE));
   const rows = points.slice(page * PAGE, page * PAGE + PAGE);
-  const th = "sticky top-0 z-10 bg-paper-deep px-2 py-1.5 text-right font-medium whitespace-nowrap";
-  const td = "px-2 py-1 text-right tabular whitespace-nowrap";
-  const first = "sticky left-0 z-[5] border-r border-ink-line/60";
   return (
     <div>
       <div className="max-h-[70vh] overflow-auto rounded-md border border-ink-line/60" data-testid="numbers-scroll" tabIndex={0} role="region" aria-label="Numbers table, scrolls sideways">
-        <table className="min-w-full border-separate border-spacing-0 text-xs" data-testid="numbers-table">
-          <thead className="text-ink-soft">
-            <tr>
-              <th className={`${th} ${first} !z-20`} data-testid="numbers-t-header">T ({UNIT_LABELS[unit]})</th>
-              <th className={th}>ΔrCp (J/(mol·K))</th>
-              <th className={th}>ΔrH (kJ/mol)</th>
-              <th className={th}>ΔrS (J/(mol·K))</th>
-              <th className={th}>ΔrG corrected (kJ/mol)</th>
-              <th className={th}>ΔrG naive (kJ/mol)</th>
-              <th className={th}>naive − corrected (kJ/mol)</th>
-              <th className={th}>ln K</th>
-              <th className={th}>log10 K</th>
-              <th className={th}>naive log10 K</th>
-              <th className={th}>K</th>
-              <th className={th}>naive K</th>
-              <th className={th}>beyond tolerance</th>
-            </tr>
-          </thead>
-          <tbody>
-            {rows.map((p) => {
-              const naiveK = kOf(p.naiveLnK);
-              const bg = p.exceedsTolerance ? "bg-flag-50" : "bg-white";
-              return (
-                <tr key={p.tK} className={`${bg} [&>td]:border-b [&>td]:border-ink-line/40`}>
-                  <td className={`${td} ${first} ${bg} font-medium`} data-value={p.tK}>{gridValue(p.tK, unit)}</td>
-                  <td className={td} data-value={p.dCpJ}>{fixed(p.dCpJ, 3)}</td>
-                  <td className={td} data-value={p.dHkJ}>{fixed(p.dHkJ, 3)}</td>
-                  <td className={td} data-value={p.dSJ}>{fixed(p.dSJ, 3)}</td>
-                  <td className={`${td} font-medium text-ember-700`} data-value={p.dGkJ}>{fixed(p.dGkJ, 3)}</td>
-                  <td className={`${td} text-frost-700`} data-value={p.naiveDGkJ}>{fixed(p.naiveDGkJ, 3)}</td>
-                  <td className={td} data-value={p.diffKJ}>{fixed(p.diffKJ, 3)}</td>
-                  <td className={td} data-value={p.lnK}>{fixed(p.lnK, 3)}</td>
-                  <td className={td} data-value={p.log10K}>{fixed(p.log10K, 3)}</td>
-                  <td className={`${td} text-frost-700`} data-value={p.naiveLog10K}>{fixed(p.naiveLog10K, 3)}</td>
-                  <td className={td} data-value={p.K ?? ""}>{sci(p.K, 4)}</td>
-                  <td className={`${td} text-frost-700`} data-value={naiveK ?? ""}>{sci(naiveK, 4)}</td>
-                  <td className={td}>{p.exceedsTolerance ? "yes" : ""}</td>
-                </tr>
-              );
-            })}
-          </tbody>
-        </table>
+        <DataTable look="grid" nowrap testId="numbers-table" columns={columns(unit)} rows={rows} rowKey={(p) => p.tK} rowClassName={rowBg} />
       </div>
       <div className="no-print mt-2 flex items-center justify-between gap-2 text-xs text-ink-muted">
         <span data-testid="table-range">

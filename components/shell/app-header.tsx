@@ -1,13 +1,12 @@
-import { signOutAction } from "@/app/(app)/actions";
 import { ROLE_LABELS } from "@/lib/auth/permissions";
 import type { Actor } from "@/lib/auth/guards";
 import { MobileMenu } from "./mobile-menu";
 import { NavLinks, type NavItem } from "./nav-links";
 import { Wordmark } from "./wordmark";
 
-function SignOut() {
+function SignOut({ action }: { action: () => Promise<void> }) {
   return (
-    <form action={signOutAction}>
+    <form action={action}>
       <button type="submit" className="rounded-md px-2 py-1 text-paper/80 hover:bg-white/10 hover:text-paper">
         Sign out
       </button>
@@ -19,7 +18,8 @@ function SignOut() {
  * The bar: on a wide screen the navigation, the user's name and team, the role and Sign out; on a
  * phone the role and one Menu button that holds the rest, so the bar never wraps or scrolls.
  */
-export function AppHeader({ actor, items }: { actor: Actor; items: NavItem[] }) {
+/** `signOut`: the layout's server action. */
+export function AppHeader({ actor, items, signOut }: { actor: Actor; items: NavItem[]; signOut: () => Promise<void> }) {
   return (
     <header className="no-print relative bg-ink text-paper">
       <div className="mx-auto flex max-w-6xl items-center gap-x-6 gap-y-2 px-4 py-3">
@@ -36,7 +36,7 @@ export function AppHeader({ actor, items }: { actor: Actor; items: NavItem[] }) 
             {ROLE_LABELS[actor.role]}
           </span>
           <div className="hidden sm:block">
-            <SignOut />
+            <SignOut action={signOut} />
           </div>
           <MobileMenu>
             <NavLinks items={items} vertical />
@@ -45,7 +45,7 @@ export function AppHeader({ actor, items }: { actor: Actor; items: NavItem[] }) 
                 <span className="block font-medium" data-testid="menu-user-name">{actor.name}</span>
                 <span className="block text-xs text-paper/70">{actor.teamName}</span>
               </span>
-              <SignOut />
+              <SignOut action={signOut} />
             </div>
           </MobileMenu>
         </div>

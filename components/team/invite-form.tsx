@@ -2,16 +2,15 @@
 
 import Link from "next/link";
 import { useActionState } from "react";
-import { inviteAction } from "@/app/(app)/team/actions";
 import { Button } from "@/components/ui/button";
 import { Field, Select, TextInput } from "@/components/ui/field";
-import type { ActionState } from "@/lib/actions";
+import type { ActionState, FormAction } from "@/lib/actions";
 import { ROLES, ROLE_LABELS } from "@/lib/auth/permissions";
 
 const initial: ActionState<{ email: string }> = { ok: false };
 
-export function InviteForm({ demo }: { demo: boolean }) {
-  const [state, action, pending] = useActionState(inviteAction, initial);
+export function InviteForm({ demo, invite }: { demo: boolean; invite: FormAction<{ email: string }> }) {
+  const [state, action, pending] = useActionState(invite, initial);
   return (
     <div className="space-y-4">
       <form action={action} className="grid gap-3 sm:grid-cols-[1fr_12rem_auto] sm:items-end" noValidate>

@@ -1,24 +1,35 @@
 "use client";
 
 import { startTransition, useActionState, useState } from "react";
-import { changeRoleAction, removeMemberAction } from "@/app/(app)/team/actions";
 import { Button } from "@/components/ui/button";
 import { inputClass } from "@/components/ui/field";
-import { initialActionState, type ActionState } from "@/lib/actions";
+import { initialActionState, type ActionState, type FormAction } from "@/lib/actions";
 import { ROLES, ROLE_LABELS, type Role } from "@/lib/auth/permissions";
 
-export function MemberControls({ membershipId, role, name }: { membershipId: number; role: Role; name: string }) {
+export function MemberControls({
+  membershipId,
+  role,
+  name,
+  changeRole,
+  removeMember,
+}: {
+  membershipId: number;
+  role: Role;
+  name: string;
+  changeRole: FormAction;
+  removeMember: FormAction;
+}) {
   // The select is controlled and the form is sent without the automatic form reset (which
   // put the select back on the role it was first rendered with): after "Role saved." it
   // shows what was stored, and a second save sends that again.
   const [chosen, setChosen] = useState<Role>(role);
   const [roleState, roleAction, rolePending] = useActionState(async (prev: ActionState, formData: FormData) => {
-    const answer = await changeRoleAction(prev, formData);
+    const answer = await changeRole(prev, formData);
     // Refused: the stored role did not change, so show it again.
     if (!answer.ok) setChosen(role);
     return answer;
   }, initialActionState);
-  const [removeState, removeAction, removePending] = useActionState(removeMemberAction, initialActionState);
+  const [removeState, removeAction, removePending] = useActionState(removeMember, initialActionState);
   const message = removeState.message ?? roleState.message;
   const failed = (removeState.message && !removeState.ok) || (roleState.message && !roleState.ok);
   return (

@@ -1,12 +1,11 @@
 "use client";
 
 import { useActionState } from "react";
-import { revokeInvitationAction } from "@/app/(app)/team/actions";
 import { Button } from "@/components/ui/button";
-import { initialActionState } from "@/lib/actions";
+import { initialActionState, type FormAction } from "@/lib/actions";
 
-export function RevokeInvitationButton({ invitationId }: { invitationId: number }) {
-  const [state, action, pending] = useActionState(revokeInvitationAction, initialActionState);
+export function RevokeInvitationButton({ invitationId, revoke }: { invitationId: number; revoke: FormAction }) {
+  const [state, action, pending] = useActionState(revoke, initialActionState);
   return (
     <form action={action} className="inline-flex items-center gap-2">
       <input type="hidden" name="invitationId" value={invitationId} />

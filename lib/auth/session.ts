@@ -1,6 +1,7 @@
 import "server-only";
 import { getIronSession, type SessionOptions } from "iron-session";
 import { cookies } from "next/headers";
+import { cache } from "react";
 import { isProduction } from "@/lib/env";
 import { resolveSessionSecret } from "@/lib/session-secret";
 import { actorFor, endSessionsOf } from "@/lib/services/auth";
@@ -28,12 +29,16 @@ export async function getSession() {
   return getIronSession<SessionData>(await cookies(), sessionOptions());
 }
 
-/** The signed-in actor, or null (no cookie, or a session ended by sign-out). Services decide what null means. */
-export async function getActor(): Promise<Actor | null> {
+/**
+ * The signed-in actor, or null (no cookie, or a session ended by sign-out). Services decide what null means.
+ * Asked once per server render (React's `cache`), so a page and its layout share one lookup; outside a
+ * render (route handlers, server actions, tests) every call reads the cookie afresh.
+ */
+export const getActor = cache(async (): Promise<Actor | null> => {
   const session = await getSession();
   if (!session.userId) return null;
   return actorFor(session.userId, session.teamId, session.issuedAt ?? 0);
-}
+});
 
 /** A new sealed cookie at every sign-in: nothing of an earlier session carries over. */
 export async function startSession(userId: number, teamId: number): Promise<void> {

@@ -4,10 +4,9 @@
  * Pure and client-safe.
  */
 import { elementBalance } from "./balance";
-import { parseFormula } from "@/lib/thermo/formula";
+import { parseFormula, parseSpeciesKey } from "@/lib/thermo/formula";
 import { FEED_UNITS } from "@/lib/thermo/schema";
 
-const MARKER = /\((cr(?:-[A-Za-z0-9_.]+)?|l|g)\)$/;
 const NUMBER = /^(?:\d+(?:\.\d*)?|\.\d+)(?:e[-+]?\d+)?(?:\/(?:\d+(?:\.\d*)?|\.\d+))?$/i;
 
 /** Units of amount a feed may be given in: the engine's own closed set. */
@@ -19,7 +18,7 @@ export const PRESSURE_PATTERN = /^\s*([-+]?(?:\d+(?:\.\d*)?|\.\d+)(?:e[-+]?\d+)?
 export function checkSpeciesKey(key: string): string | null {
   const k = key.trim();
   if (!k) return "Name a species, e.g. N2(g).";
-  const formula = k.replace(MARKER, "");
+  const { formula } = parseSpeciesKey(k);
   try {
     parseFormula(formula);
   } catch {
@@ -47,7 +46,7 @@ export function checkReactionLine(text: string): string | null {
       const [a, b] = (coef ?? "1").split("/");
       const c = Number(a) / (b === undefined ? 1 : Number(b));
       if (!(c > 0) || !Number.isFinite(c)) return `The coefficient of ${key} must be a positive number.`;
-      terms.push({ formula: key.replace(MARKER, ""), coefficient: i === 0 ? -c : c });
+      terms.push({ formula: parseSpeciesKey(key).formula, coefficient: i === 0 ? -c : c });
     }
   }
   const balance = elementBalance(terms);

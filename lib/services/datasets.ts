@@ -6,12 +6,14 @@ import { parseDatasetCsv, type RowError } from "@/lib/datasets/csv";
 import { db, models } from "@/lib/db";
 import { AppError, notFound } from "@/lib/errors";
 import { fitCp, type FitResult, type SpeciesInput } from "@/lib/thermo";
+import { describeData } from "@/lib/thermo/curve";
 import { datasetUploadSchema, fitParamsSchema, saveFitSchema, type DatasetUploadInput, type FitParams, type SaveFitInput } from "@/lib/validation/library";
 import type { Dataset } from "@/models";
 import type { DatasetPoint } from "@/models/dataset";
 import type { VersionStatus } from "@/models/model-version";
 import { recordAudit } from "./audit";
-import { addContributor, createTeamModel, describeData, findOrCreateSpecies, getVersion, insertDraft, loadModel, type VersionDto } from "./library";
+import type { VersionDto } from "./library";
+import { addContributor, createTeamModel, findOrCreateSpecies, insertDraft, loadModel, presentVersion } from "./library/rows";
 
 export type DatasetSummaryDto = {
   id: number;
@@ -175,7 +177,7 @@ const NEEDS_ANCHOR = "reference: enter H (kJ/mol) and S (J/(mol·K)) at the refe
 export async function saveFitAsDraft(actor: Actor | null, id: number, raw: SaveFitInput): Promise<VersionDto> {
   const me = requirePermission(actor, "models.fit");
   const input = saveFitSchema.parse(raw);
-  const versionId = await db().transaction(async (transaction) => {
+  return db().transaction(async (transaction) => {
     const dataset = await loadDataset(me, id, transaction);
     const fit = runFit(dataset, input.fit);
     if (!fit.data) throw new AppError(422, "invalid-request", NEEDS_ANCHOR, { fields: { reference: NEEDS_ANCHOR } });
@@ -204,9 +206,9 @@ export async function saveFitAsDraft(actor: Actor | null, id: number, raw: SaveF
     );
     // Four-eyes: whoever uploaded the measurements shaped the content, so they may not decide on the fit.
     if (dataset.uploadedById != null && dataset.uploadedById !== me.userId) await addContributor(transaction, version.id, dataset.uploadedById, "uploader");
-    return version.id;
+    version.model = model;
+    return presentVersion(version, transaction);
   });
-  return getVersion(me, versionId);
 }
 
 /**

@@ -3,8 +3,9 @@ import { Op } from "sequelize";
 import { requirePermission, type Actor } from "@/lib/auth/guards";
 import { models } from "@/lib/db";
 import { runEngineTask } from "@/lib/engine-pool";
-import { type EvaluateRequest, type SourceComparison, type SpeciesInput } from "@/lib/thermo";
+import { parseSpeciesKey, type EvaluateRequest, type SourceComparison, type SpeciesInput } from "@/lib/thermo";
 import { speciesOfPin } from "@/lib/cases/equilibrium";
+import { describeData } from "@/lib/thermo/curve";
 
 export { equilibriumCsvColumns, equilibriumRequestOf, pinTerms, speciesOfPin } from "@/lib/cases/equilibrium";
 
@@ -19,8 +20,8 @@ export async function approvedFamilies(actor: Actor | null, keys: string[]): Pro
   const me = requirePermission(actor, "cases.view");
   const { Species, CpModel, ModelVersion } = models();
   const parsed = keys.map((key) => {
-    const m = /^(.*?)(?:\((cr(?:-[A-Za-z0-9_.]+)?|l|g)\))?$/.exec(key)!;
-    return { key, formula: m[1], phase: m[2] ?? null };
+    const { formula, phase } = parseSpeciesKey(key);
+    return { key, formula, phase: phase ?? null };
   });
   const species = await Species.findAll({
     where: { formula: { [Op.in]: [...new Set(parsed.map((p) => p.formula))] }, [Op.or]: [{ teamId: null }, { teamId: me.teamId }] },
@@ -40,7 +41,7 @@ export async function approvedFamilies(actor: Actor | null, keys: string[]): Pro
   for (const v of versions) {
     const m = cpModels.find((c) => c.id === v.modelId)!;
     const formula = formulaOf.get(m.speciesId);
-    const phases = new Set(((v.data as SpeciesInput).segments ?? []).map((s) => s.phase));
+    const phases = new Set(describeData(v.data).phases);
     for (const p of parsed) {
       if (p.formula !== formula) continue;
       if (p.phase ? !phases.has(p.phase) : phases.size === 0) continue;

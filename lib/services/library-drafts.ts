@@ -5,9 +5,8 @@ import { db, models } from "@/lib/db";
 import { AppError, conflict } from "@/lib/errors";
 import type { ModelVersion } from "@/models/model-version";
 import { recordAudit } from "./audit";
-import { loadVersion, versionDto, type VersionDto } from "./library";
-
-const READ_ONLY = "The reference library is read-only: copy this version into a team model to change it.";
+import type { VersionDto } from "./library";
+import { loadVersion, presentVersion, READ_ONLY } from "./library/rows";
 
 /** The author may take back their own draft or proposal; anyone else's needs a steward (models.edit). */
 function requireAuthorOrSteward(me: Actor, version: ModelVersion, doing: string): void {
@@ -32,7 +31,7 @@ export async function withdrawProposal(actor: Actor | null, id: number): Promise
     version.lockVersion += 1;
     await version.save({ transaction });
     await recordAudit(transaction, { action: "model-version.withdrawn", entityType: "model-version", entityId: id, teamId: me.teamId, actorId: me.userId, before: { status: "proposed" }, after: { status: "draft" } });
-    return versionDto(version, transaction);
+    return presentVersion(version, transaction);
   });
 }
 

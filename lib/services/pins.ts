@@ -1,10 +1,11 @@
 import "server-only";
 import { Op, type Transaction } from "sequelize";
 import { requirePermission, type Actor } from "@/lib/auth/guards";
-import { termKey } from "@/lib/cases/balance";
-import { phasePointsOf } from "@/lib/cases/equilibrium";
+import { pinnedVersionOf } from "@/lib/cases/pin";
 import { models } from "@/lib/db";
 import { AppError } from "@/lib/errors";
+import { describeData } from "@/lib/thermo/curve";
+import { parseSpeciesKey } from "@/lib/thermo/formula";
 import type { CaseTerm } from "@/lib/validation/cases";
 import type { PinnedVersion } from "@/models/case-snapshot";
 
@@ -31,19 +32,16 @@ export type PinOptionDto = {
 /** A newer approved version of a model a case pins. */
 export type NewerVersionDto = { key: string; pinnedVersionId: number; pinnedNumber: number; newerVersionId: number; newerNumber: number; modelName: string };
 
-type VersionData = { segments?: { phase: string; tminK: number | string; tmaxK: number | string }[] };
-
 const NOT_APPROVED: Record<string, string> = {
   draft: "Draft version: not approved. Results based on it are for exploring only.",
   proposed: "Proposed version: awaiting approval. Results based on it may change.",
   superseded: "Superseded version: a newer approved version exists.",
 };
 
+/** A version's phases and overall range (K; NaN without segments), its limits read as quantities ("25 degC"). */
 function phasesOf(data: unknown): { phases: string[]; tminK: number; tmaxK: number } {
-  const segs = (data as VersionData)?.segments ?? [];
-  const phases = [...new Set(segs.map((s) => s.phase))];
-  const nums = segs.flatMap((s) => [Number(s.tminK), Number(s.tmaxK)]).filter((n) => Number.isFinite(n));
-  return { phases, tminK: nums.length ? Math.min(...nums) : NaN, tmaxK: nums.length ? Math.max(...nums) : NaN };
+  const { phases, rangeK } = describeData(data);
+  return { phases, tminK: rangeK?.[0] ?? NaN, tmaxK: rangeK?.[1] ?? NaN };
 }
 
 /** Which versions a team sees: the global library's approved ones, and its own approved, proposed and draft ones. */
@@ -126,23 +124,7 @@ export async function loadPins(teamId: number, terms: readonly CaseTerm[], optio
     if (s.formula !== t.formula) throw pinError(i, `That version belongs to ${s.formula}, not ${t.formula}.`);
     const { phases } = phasesOf(v.data);
     if (t.phase && !phases.includes(t.phase)) throw pinError(i, `${m.name} v${v.versionNumber} has no ${t.phase} phase (it has ${phases.join(", ")}).`);
-    return {
-      key: termKey(t),
-      formula: t.formula,
-      phase: t.phase,
-      versionId: v.id,
-      modelId: m.id,
-      speciesName: s.displayName,
-      modelName: m.name,
-      family: m.family,
-      versionNumber: v.versionNumber,
-      status: v.status,
-      citation: v.citation,
-      data: v.data,
-      uncertainty: v.uncertainty ?? null,
-      phasePoints: phasePointsOf(s),
-      ...(s.critical ? { critical: { tcK: s.critical.tcK, pcBar: s.critical.pcBar, omega: s.critical.omega } } : {}),
-    };
+    return pinnedVersionOf(t, v, m, s);
   });
 }
 
@@ -153,7 +135,7 @@ export async function loadPins(teamId: number, terms: readonly CaseTerm[], optio
  */
 export async function inertCriticalConstants(teamId: number, keys: readonly string[], transaction?: Transaction): Promise<Record<string, { tcK: number; pcBar: number; omega: number }>> {
   if (keys.length === 0) return {};
-  const formulaOf = (k: string) => k.replace(/\((cr(-[A-Za-z0-9_.]+)?|l|g)\)$/, "");
+  const formulaOf = (k: string) => parseSpeciesKey(k).formula;
   const rows = await models().Species.findAll({
     where: { formula: { [Op.in]: [...new Set(keys.map(formulaOf))] }, [Op.or]: [{ teamId: null }, { teamId }] },
     transaction,

@@ -10,7 +10,7 @@ import { recordAudit } from "./audit";
 import { caseReaction } from "@/lib/cases/request";
 import { listCases, type CaseDto, type CaseSummaryDto } from "./cases";
 import { caseView } from "./cases/queries";
-import { contributedVersionIds } from "./library";
+import { contributedVersionIds } from "./library/rows";
 import { enqueueMail } from "./mail";
 import { cautionGasOfInputs, cautionText } from "@/lib/cases/caution";
 

@@ -86,7 +86,11 @@ export function parseFormula(formula: string): ParsedFormula {
   return { elements, molarMassGPerMol };
 }
 
-const PHASE_MARKER = /\((cr(?:-[A-Za-z0-9_.]+)?|l|g)\)$/;
+const PHASE = "cr(?:-[A-Za-z0-9_.]+)?|l|g";
+/** A phase name: `cr`, `l`, `g` or a named solid `cr-name`. Every check of a phase uses this one pattern. */
+export const PHASE_NAME = new RegExp(`^(?:${PHASE})$`);
+/** A species key's phase marker at its end: `(g)` in `H2O(g)`; group 1 is the phase. */
+const PHASE_MARKER = new RegExp(`\\((${PHASE})\\)$`);
 
 /** `H2O(g)` → { formula: "H2O", phase: "g" }; `H2O` → { formula: "H2O", phase: undefined }. */
 export function parseSpeciesKey(key: string): { formula: string; phase?: string } {

@@ -4,6 +4,7 @@
  * unit parser (mathjs) or the fitter (numeric).
  */
 import { z } from "zod";
+import { PHASE_NAME } from "./formula";
 
 /** Edit distance (insertions, deletions, substitutions), for "did you mean" suggestions. */
 export function levenshtein(a: string, b: string): number {
@@ -64,7 +65,7 @@ export const quantitySchema = z.union([z.number(), z.string().trim().min(1)], {
 /** `cr`, `l`, `g` or a named solid form `cr-name`. */
 export const phaseSchema = z
   .string()
-  .regex(/^(cr(-[A-Za-z0-9_.]+)?|l|g)$/, { error: 'expected a phase: "cr", "l", "g" or "cr-name"' });
+  .regex(PHASE_NAME, { error: 'expected a phase: "cr", "l", "g" or "cr-name"' });
 
 export const CP_FORMS = [
   "constant",

@@ -2,6 +2,7 @@
 import { z } from "zod";
 import { strictObject } from "@/lib/validation/strict";
 import { elementBalance, termKey } from "@/lib/cases/balance";
+import { PHASE_NAME } from "@/lib/thermo/formula";
 import { splitQuantity, toKelvin, toKelvinDifference, type Quantity } from "@/lib/cases/temperature";
 import { caseEquilibriumSchema, feedKeyIssues } from "./equilibrium";
 import { oneLine, searchText } from "./text";
@@ -22,7 +23,7 @@ export const termSchema = strictObject({
   formula: z.string({ error: "Pick a species." }).trim().min(1, "Pick a species.").max(60, "Use at most 60 characters."),
   phase: z
     .string()
-    .regex(/^(cr(-[A-Za-z0-9_.]+)?|l|g)$/, { error: 'Use a phase of "cr", "l" or "g", or none for the stable phase.' })
+    .regex(PHASE_NAME, { error: 'Use a phase of "cr", "l" or "g", or none for the stable phase.' })
     .nullable(),
   coefficient: z
     .number({ error: "Enter a coefficient." })

@@ -1,6 +1,7 @@
 /** The equilibrium part of a case (feed, pressure, key species, optional simultaneous set), shared by the panel form and the services. zod only. */
 import { z } from "zod";
 import { checkFeedUnit, checkPressure, checkReactionLine, checkSpeciesKey } from "@/lib/cases/equilibrium-form";
+import { PHASE_NAME } from "@/lib/thermo/formula";
 import { strictObject } from "@/lib/validation/strict";
 
 const speciesKey = z.string().trim().min(1, "Name a species.").max(80, "Use at most 80 characters.");
@@ -9,7 +10,7 @@ export const extraTermSchema = strictObject({
   formula: z.string({ error: "Pick a species." }).trim().min(1, "Pick a species.").max(60, "Use at most 60 characters."),
   phase: z
     .string()
-    .regex(/^(cr(-[A-Za-z0-9_.]+)?|l|g)$/, { error: 'Use a phase of "cr", "l" or "g", or none for the stable phase.' })
+    .regex(PHASE_NAME, { error: 'Use a phase of "cr", "l" or "g", or none for the stable phase.' })
     .nullable(),
   versionId: z.number({ error: "Pick a model version." }).int({ error: "Pick a model version." }).positive({ error: "Pick a model version." }),
 });

@@ -20,8 +20,6 @@ export const FAMILY_LABELS: Record<string, string> = {
   custom: "Team model",
 };
 
-export const idParamSchema = z.coerce.number({ error: "Expected a numeric id." }).int().positive("Expected a numeric id.");
-
 const text = (max: number, what: string) =>
   z.string({ error: `Enter ${what}.` }).trim().min(1, `Enter ${what}.`).max(max, `Use at most ${max} characters.`);
 /** A name or title: one line. */

@@ -6,8 +6,6 @@ import { emailSchema, newPasswordSchema } from "./auth";
 
 export const roleSchema = z.enum(ROLES, { error: "Choose one of: engineer, steward, reviewer, admin." });
 
-export const idParamSchema = z.coerce.number({ error: "Expected a numeric id." }).int().positive("Expected a numeric id.");
-
 export const changeRoleSchema = strictObject({ role: roleSchema });
 
 export const inviteSchema = strictObject({ email: emailSchema, role: roleSchema });

@@ -4,6 +4,7 @@ import * as datasets from "@/app/api/v1/datasets/route";
 import * as exportRoute from "@/app/api/v1/library/export/route";
 import * as cpModels from "@/app/api/v1/models/route";
 import * as versionRoute from "@/app/api/v1/versions/[id]/route";
+import * as curveRoute from "@/app/api/v1/versions/[id]/curve/route";
 import { closeDb, models } from "@/lib/db";
 import { signInAs } from "../helpers/actors";
 import { freshDatabase, tableCounts } from "../helpers/db";
@@ -31,6 +32,15 @@ describe("library API", () => {
     const body = (await bodyOf(stale)) as { error: { code: string; message: string; details: { current: { lockVersion: number; changeNote: string } } } };
     expect(body.error.code).toBe("conflict");
     expect(body.error.details.current).toMatchObject({ lockVersion: 1, changeNote: "first" });
+  });
+
+  it("a curve over an empty span answers 422 in the error shape", async () => {
+    await signInAs("engineer");
+    const v = await models().ModelVersion.findOne({ where: { status: "approved" } });
+    const id = String(v!.id);
+    const res = await curveRoute.GET(jsonRequest("GET", `/api/v1/versions/${id}/curve?fromK=500&toK=400`), ctx({ id }));
+    expect(res.status).toBe(422);
+    expect(await bodyOf(res)).toEqual({ error: { code: "invalid-request", message: "toK: the upper temperature must be above the lower one." } });
   });
 
   it("a CSV with bad rows is 422 with every row named, and nothing is saved", async () => {

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { z } from "zod";
-import { readJson, route, toErrorResponse } from "@/lib/http";
+import { readJson, route, toErrorResponse, withId } from "@/lib/http";
 import { AppError } from "@/lib/errors";
 
 const schema = z.object({ n: z.number() });
@@ -90,5 +90,21 @@ describe("origin check on cookie-authenticated writes", () => {
 
   it("leaves reads alone", async () => {
     expect((await call({ cookie: "heatpath_session=abc", origin: "http://evil.example.test" }, "GET")).status).toBe(204);
+  });
+});
+
+describe("withId", () => {
+  const handler = withId(async (_request, id, params) => Response.json({ id, params }));
+  const call = (params: Record<string, string>) => handler(new Request("http://127.0.0.1/api/v1/x/1"), { params: Promise.resolve(params) });
+
+  it("hands the handler the id as a number and every segment as sent", async () => {
+    const r = await call({ id: "12", revision: "3" });
+    expect(await r.json()).toEqual({ id: 12, params: { id: "12", revision: "3" } });
+  });
+
+  it.each(["0", "-1", "1.5", "abc", ""])("refuses the id %j with 422 before the handler runs", async (id) => {
+    const r = await call({ id });
+    expect(r.status).toBe(422);
+    expect(await r.json()).toEqual({ error: { code: "invalid-request", message: "Expected a numeric id.", details: { fields: { _: "Expected a numeric id." } } } });
   });
 });

@@ -10,6 +10,7 @@ import { closeDb } from "@/lib/db";
 import { AppError } from "@/lib/errors";
 import * as ds from "@/lib/services/datasets";
 import * as lib from "@/lib/services/library";
+import { computeCurve } from "@/lib/thermo/curve";
 import { DATASET_MAX_ROWS } from "@/lib/validation/library";
 import { actorOf } from "../helpers/actors";
 import { freshDatabase, tableCounts } from "../helpers/db";
@@ -97,7 +98,7 @@ describe("upload, fit, save as draft", () => {
     const draft = await ds.saveFitAsDraft(sam, dataset.id, { fit: { form: "maier-kelley", phase: "cr", reference: { tK: 298.15, hkJ: -601.6, sJ: 26.95 } }, citation: "Invented test data" });
     expect(draft).toMatchObject({ status: "draft", datasetId: dataset.id, versionNumber: 1, model: { family: "measured", name: "MgO · fitted to Exact run" } });
     expect(draft.data.reference).toEqual({ tK: 298.15, phase: "cr", hkJ: -601.6, sJ: 26.95 });
-    const curve = lib.computeCurve(draft.data, { fromK: 300, toK: 900, points: 7 });
+    const curve = computeCurve(draft.data, { fromK: 300, toK: 900, points: 7 });
     expect(curve.points[2].cpJ).toBeCloseTo(mk(500), 8);
     expect((await lib.versionAudit(sam, draft.id)).map((a) => a.action)).toEqual(["model-version.fitted"]);
   });

@@ -7,6 +7,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb, models, registry } from "@/lib/db";
 import { AppError } from "@/lib/errors";
 import * as lib from "@/lib/services/library";
+import { computeCurve } from "@/lib/thermo/curve";
 import type { ListModelsQuery } from "@/lib/validation/library";
 import { actorOf } from "../helpers/actors";
 import { freshDatabase, tableCounts } from "../helpers/db";
@@ -245,13 +246,15 @@ describe("export and import", () => {
 describe("curves", () => {
   it("mark extrapolated points outside each chain's range", async () => {
     const sam = await actorOf("steward");
-    const c = lib.computeCurve(solid(), { fromK: 200, toK: 1000, points: 9 });
+    const c = computeCurve(solid(), { fromK: 200, toK: 1000, points: 9 });
     expect(c.chains).toEqual([{ phase: "cr", tminK: 250, tmaxK: 900 }]);
     expect(c.points.filter((p) => p.extrapolated).map((p) => p.tK)).toEqual([200, 1000]);
     // Constant Cp: H(T) − H(298.15) = Cp·ΔT (common practice closed form).
     const at = c.points.find((p) => p.tK === 400)!;
     expect(at.hkJ).toBeCloseTo(-1000 + (120 * (400 - 298.15)) / 1000, 9);
     await expect(lib.previewCurve(sam, { data: { segments: [] } })).rejects.toMatchObject({ name: "EngineRefusal" });
+    // An empty span is the engine's refusal too (the route answers it 422), not an HTTP error thrown from the computation.
+    expect(() => computeCurve(solid(), { fromK: 500, toK: 400 })).toThrow(expect.objectContaining({ name: "EngineRefusal", code: "invalid-request", message: "toK: the upper temperature must be above the lower one." }));
   });
 });
 

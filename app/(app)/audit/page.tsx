@@ -3,6 +3,8 @@ import { redirect } from "next/navigation";
 import { buttonClass } from "@/components/ui/button";
 import { Card, PageHeader } from "@/components/ui/card";
 import { inputClass } from "@/components/ui/field";
+import { Pager } from "@/components/ui/pager";
+import { DataTable, type Column } from "@/components/ui/table";
 import { can } from "@/lib/auth/permissions";
 import { requireUser } from "@/lib/auth/guards";
 import { getActor } from "@/lib/auth/session";
@@ -52,6 +54,29 @@ function change(e: AuditEventDto): string[] {
   if (one) return [...one].slice(0, 6).map(([p, v]) => `${p}: ${short(v)}`);
   return ["—"];
 }
+
+const COLUMNS: Column<AuditEventDto>[] = [
+  { key: "at", header: "When (UTC)", className: "whitespace-nowrap tabular text-xs", cell: (e) => e.at.slice(0, 19).replace("T", " ") },
+  { key: "actor", header: "Actor", className: "whitespace-nowrap", cell: (e) => e.actorName ?? "system" },
+  { key: "action", header: "Action", className: "whitespace-nowrap font-mono text-xs", cell: (e) => e.action },
+  {
+    key: "record",
+    header: "Record",
+    className: "whitespace-nowrap",
+    cell: (e) => {
+      const href = recordHref(e);
+      return (
+        <>
+          {href ? <Link className="underline" href={href}>{e.entityType} {e.entityId}</Link> : `${e.entityType} ${e.entityId}`}{" "}
+          <Link className="text-xs text-frost-700 underline" href={`/audit?entityType=${encodeURIComponent(e.entityType)}&entityId=${encodeURIComponent(e.entityId)}`} aria-label={`Only ${e.entityType} ${e.entityId}`}>
+            only this
+          </Link>
+        </>
+      );
+    },
+  },
+  { key: "change", header: "Change", className: "max-w-md break-all font-mono text-xs text-ink-soft", cell: (e) => change(e).map((line, i) => <span key={i} className="block">{line}</span>) },
+];
 
 export default async function AuditPage({ searchParams }: { searchParams: Search }) {
   const actor = requireUser(await getActor());
@@ -105,45 +130,10 @@ export default async function AuditPage({ searchParams }: { searchParams: Search
           <p className="text-sm text-ink-muted">No events match these filters.</p>
         ) : (
           <div className="overflow-x-auto">
-            <table className="min-w-full text-left text-sm" data-testid="audit-table">
-              <thead className="text-xs text-ink-muted">
-                <tr>
-                  <th className="py-1 pr-3 font-medium">When (UTC)</th>
-                  <th className="py-1 pr-3 font-medium">Actor</th>
-                  <th className="py-1 pr-3 font-medium">Action</th>
-                  <th className="py-1 pr-3 font-medium">Record</th>
-                  <th className="py-1 font-medium">Change</th>
-                </tr>
-              </thead>
-              <tbody className="divide-y divide-ink-line align-top">
-                {events.map((e) => {
-                  const href = recordHref(e);
-                  return (
-                    <tr key={e.id} data-testid="audit-row">
-                      <td className="whitespace-nowrap py-1.5 pr-3 tabular text-xs">{e.at.slice(0, 19).replace("T", " ")}</td>
-                      <td className="whitespace-nowrap py-1.5 pr-3">{e.actorName ?? "system"}</td>
-                      <td className="whitespace-nowrap py-1.5 pr-3 font-mono text-xs">{e.action}</td>
-                      <td className="whitespace-nowrap py-1.5 pr-3">
-                        {href ? <Link className="underline" href={href}>{e.entityType} {e.entityId}</Link> : `${e.entityType} ${e.entityId}`}{" "}
-                        <Link className="text-xs text-frost-700 underline" href={`/audit?entityType=${encodeURIComponent(e.entityType)}&entityId=${encodeURIComponent(e.entityId)}`} aria-label={`Only ${e.entityType} ${e.entityId}`}>
-                          only this
-                        </Link>
-                      </td>
-                      <td className="max-w-md break-all py-1.5 font-mono text-xs text-ink-soft">
-                        {change(e).map((line, i) => <span key={i} className="block">{line}</span>)}
-                      </td>
-                    </tr>
-                  );
-                })}
-              </tbody>
-            </table>
+            <DataTable alignTop testId="audit-table" rowTestId="audit-row" columns={COLUMNS} rows={events} rowKey={(e) => e.id} />
           </div>
         )}
-        {older && (
-          <p className="mt-3 text-sm">
-            <Link className="underline" href={older}>Older events</Link>
-          </p>
-        )}
+        <Pager className="mt-3" nextHref={older} nextLabel="Older events →" />
       </Card>
     </>
   );

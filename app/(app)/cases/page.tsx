@@ -2,6 +2,7 @@ import Link from "next/link";
 import { StatusBadge } from "@/components/cases/status-badge";
 import { buttonClass } from "@/components/ui/button";
 import { Card, PageHeader } from "@/components/ui/card";
+import { DataTable, type Column } from "@/components/ui/table";
 import { can } from "@/lib/auth/permissions";
 import { requireUser } from "@/lib/auth/guards";
 import { getActor } from "@/lib/auth/session";
@@ -17,6 +18,33 @@ const FILTERS: { key: CaseStatus | "all" | "mine"; label: string }[] = [
   { key: "submitted", label: "Awaiting review" },
   { key: "returned", label: "Returned" },
   { key: "approved", label: "Approved" },
+];
+
+const COLUMNS: Column<Awaited<ReturnType<typeof listCases>>[number]>[] = [
+  {
+    key: "title",
+    header: "Case",
+    className: "font-medium",
+    cell: (c) => (
+      <Link className="underline decoration-ink-line underline-offset-2 hover:decoration-ink" href={`/cases/${c.id}`}>
+        {c.title}
+      </Link>
+    ),
+  },
+  { key: "reaction", header: "Reaction", className: "whitespace-nowrap", cell: (c) => c.reaction },
+  { key: "span", header: "Span", className: "text-xs text-ink-muted", cell: (c) => c.span },
+  {
+    key: "status",
+    header: "Status",
+    cell: (c) => (
+      <>
+        <StatusBadge status={c.status} />
+        {c.latestRevision ? <span className="ml-1 text-xs text-ink-muted">r{c.latestRevision}</span> : null}
+      </>
+    ),
+  },
+  { key: "author", header: "Author", className: "text-ink-soft", cell: (c) => c.authorName },
+  { key: "updated", header: "Updated", className: "text-xs text-ink-muted", cell: (c) => c.updatedAt.slice(0, 10) },
 ];
 
 export default async function CasesPage({ searchParams }: { searchParams: Promise<{ show?: string }> }) {
@@ -54,37 +82,7 @@ export default async function CasesPage({ searchParams }: { searchParams: Promis
           <p className="text-sm text-ink-muted">No cases here yet.</p>
         ) : (
           <div className="overflow-x-auto">
-            <table className="min-w-full text-sm" data-testid="case-list">
-              <thead className="text-left text-xs text-ink-muted">
-                <tr>
-                  <th className="py-2 pr-3 font-medium">Case</th>
-                  <th className="py-2 pr-3 font-medium">Reaction</th>
-                  <th className="py-2 pr-3 font-medium">Span</th>
-                  <th className="py-2 pr-3 font-medium">Status</th>
-                  <th className="py-2 pr-3 font-medium">Author</th>
-                  <th className="py-2 font-medium">Updated</th>
-                </tr>
-              </thead>
-              <tbody className="divide-y divide-ink-line/60">
-                {cases.map((c) => (
-                  <tr key={c.id}>
-                    <td className="py-2 pr-3 font-medium">
-                      <Link className="underline decoration-ink-line underline-offset-2 hover:decoration-ink" href={`/cases/${c.id}`}>
-                        {c.title}
-                      </Link>
-                    </td>
-                    <td className="py-2 pr-3 whitespace-nowrap">{c.reaction}</td>
-                    <td className="py-2 pr-3 text-xs text-ink-muted">{c.span}</td>
-                    <td className="py-2 pr-3">
-                      <StatusBadge status={c.status} />
-                      {c.latestRevision ? <span className="ml-1 text-xs text-ink-muted">r{c.latestRevision}</span> : null}
-                    </td>
-                    <td className="py-2 pr-3 text-ink-soft">{c.authorName}</td>
-                    <td className="py-2 text-xs text-ink-muted">{c.updatedAt.slice(0, 10)}</td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
+            <DataTable testId="case-list" columns={COLUMNS} rows={cases} rowKey={(c) => c.id} />
           </div>
         )}
       </Card>

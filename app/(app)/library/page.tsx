@@ -4,6 +4,7 @@ import { ScopeBadge, StatusBadge } from "@/components/library/status-badge";
 import { buttonClass } from "@/components/ui/button";
 import { Card, PageHeader } from "@/components/ui/card";
 import { inputClass } from "@/components/ui/field";
+import { Pager } from "@/components/ui/pager";
 import { can } from "@/lib/auth/permissions";
 import { requireUser } from "@/lib/auth/guards";
 import { getActor } from "@/lib/auth/session";
@@ -134,13 +135,11 @@ export default async function LibraryPage({ searchParams }: { searchParams: Sear
                 </li>
               ))}
             </ul>
-            {result.pages > 1 && (
-              <nav aria-label="Pages" className="mt-4 flex items-center justify-between text-sm">
-                {result.page > 1 ? <Link className={buttonClass("secondary")} href={pageHref(result.page - 1)}>← Previous</Link> : <span />}
-                <span className="text-ink-muted">Page {result.page} of {result.pages}</span>
-                {result.page < result.pages ? <Link className={buttonClass("secondary")} href={pageHref(result.page + 1)}>Next →</Link> : <span />}
-              </nav>
-            )}
+            <Pager
+              previousHref={result.page > 1 ? pageHref(result.page - 1) : null}
+              nextHref={result.page < result.pages ? pageHref(result.page + 1) : null}
+              status={`Page ${result.page} of ${result.pages}`}
+            />
           </>
         )}
       </div>

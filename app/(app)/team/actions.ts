@@ -8,7 +8,8 @@ import { getActor } from "@/lib/auth/session";
 import { parseWith } from "@/lib/http";
 import * as team from "@/lib/services/team";
 import { strictObject } from "@/lib/validation/strict";
-import { changeRoleSchema, idParamSchema, inviteSchema } from "@/lib/validation/team";
+import { idParamSchema } from "@/lib/validation/params";
+import { changeRoleSchema, inviteSchema } from "@/lib/validation/team";
 
 // The forms' own fields; the framework's $ACTION_* keys are dropped by formObject, anything else is refused.
 const membershipForm = strictObject({ membershipId: z.string({ error: "Expected a numeric id." }) });

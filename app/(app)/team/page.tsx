@@ -3,15 +3,25 @@ import { MemberControls } from "@/components/team/member-row";
 import { RevokeInvitationButton } from "@/components/team/revoke-button";
 import { Badge } from "@/components/ui/badge";
 import { Card, PageHeader } from "@/components/ui/card";
+import { DataTable, type Column } from "@/components/ui/table";
 import { ROLE_LABELS, can } from "@/lib/auth/permissions";
 import { requireUser } from "@/lib/auth/guards";
 import { getActor } from "@/lib/auth/session";
 import { isProduction } from "@/lib/env";
 import { listInvitations, listMembers } from "@/lib/services/team";
+import { changeRoleAction, inviteAction, removeMemberAction, revokeInvitationAction } from "./actions";
 
 export const metadata = { title: "Team" };
 
 const statusTone = { pending: "frost", accepted: "moss", revoked: "neutral", expired: "neutral" } as const;
+
+const INVITATION_COLUMNS: Column<Awaited<ReturnType<typeof listInvitations>>[number]>[] = [
+  { key: "email", header: "E-mail", cell: (i) => i.email },
+  { key: "role", header: "Role", cell: (i) => ROLE_LABELS[i.role] },
+  { key: "status", header: "Status", cell: (i) => <Badge tone={statusTone[i.status]}>{i.status}</Badge> },
+  { key: "expires", header: "Expires", className: "tabular text-ink-muted", cell: (i) => i.expiresAt.slice(0, 10) },
+  { key: "revoke", header: null, align: "right", cell: (i) => i.status === "pending" && <RevokeInvitationButton invitationId={i.id} revoke={revokeInvitationAction} /> },
+];
 
 export default async function TeamPage() {
   const actor = requireUser(await getActor());
@@ -29,32 +39,16 @@ export default async function TeamPage() {
                   <p className="text-sm font-medium">{m.name}{m.userId === actor.userId && <span className="text-ink-muted"> (you)</span>}</p>
                   <p className="text-xs text-ink-muted">{m.email}</p>
                 </div>
-                {manage ? <MemberControls membershipId={m.id} role={m.role} name={m.name} /> : <Badge>{ROLE_LABELS[m.role]}</Badge>}
+                {manage ? <MemberControls membershipId={m.id} role={m.role} name={m.name} changeRole={changeRoleAction} removeMember={removeMemberAction} /> : <Badge>{ROLE_LABELS[m.role]}</Badge>}
               </li>
             ))}
           </ul>
         </Card>
         {manage && (
           <Card title="Invite someone">
-            <InviteForm demo={!isProduction} />
+            <InviteForm demo={!isProduction} invite={inviteAction} />
             {invitations.length > 0 && (
-              <table className="mt-6 w-full text-left text-sm">
-                <caption className="mb-2 text-left text-xs font-semibold uppercase tracking-wide text-ink-muted">Invitations</caption>
-                <thead className="text-xs text-ink-muted">
-                  <tr><th className="py-1 font-medium">E-mail</th><th className="font-medium">Role</th><th className="font-medium">Status</th><th className="font-medium">Expires</th><th /></tr>
-                </thead>
-                <tbody className="divide-y divide-ink-line">
-                  {invitations.map((i) => (
-                    <tr key={i.id}>
-                      <td className="py-2">{i.email}</td>
-                      <td>{ROLE_LABELS[i.role]}</td>
-                      <td><Badge tone={statusTone[i.status]}>{i.status}</Badge></td>
-                      <td className="tabular text-ink-muted">{i.expiresAt.slice(0, 10)}</td>
-                      <td className="text-right">{i.status === "pending" && <RevokeInvitationButton invitationId={i.id} />}</td>
-                    </tr>
-                  ))}
-                </tbody>
-              </table>
+              <DataTable className="mt-6" caption="Invitations" columns={INVITATION_COLUMNS} rows={invitations} rowKey={(i) => i.id} />
             )}
           </Card>
         )}

@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import { SignInForm } from "@/components/auth/sign-in-form";
 import { isProduction } from "@/lib/env";
+import { signInAction } from "./actions";
 
 export const metadata: Metadata = { title: "Sign in" };
 
@@ -9,7 +10,7 @@ export default async function SignInPage({ searchParams }: { searchParams: Promi
   return (
     <>
       <h1 className="mb-4 text-lg font-semibold">Sign in</h1>
-      <SignInForm next={next} />
+      <SignInForm next={next} signIn={signInAction} />
       {!isProduction && (
         <p className="mt-4 text-xs text-ink-muted">
           Demo mode: accounts such as <span className="font-medium">erin.engineer@example.test</span> are listed in the README.

@@ -1,5 +1,4 @@
 import Link from "next/link";
-import { notFound as notFoundPage } from "next/navigation";
 import { CaseActions } from "@/components/cases/case-actions";
 import { CommentForm } from "@/components/cases/comment-form";
 import { InputsCard, PinsCard } from "@/components/cases/inputs-card";
@@ -11,31 +10,24 @@ import { ResultsView } from "@/components/results/results-view";
 import { buttonClass } from "@/components/ui/button";
 import { Card, PageHeader } from "@/components/ui/card";
 import { getActor } from "@/lib/auth/session";
+import { orNotFound, pageId } from "@/lib/pages";
 import { termKey } from "@/lib/cases/balance";
 import { enteredUnit } from "@/lib/cases/display-unit";
-import { AppError } from "@/lib/errors";
 import { getCase, type CaseDto } from "@/lib/services/cases";
 
 export const metadata = { title: "Case" };
 
 type Props = { params: Promise<{ id: string }>; searchParams: Promise<{ revision?: string }> };
 
-async function load(id: string): Promise<CaseDto> {
-  const n = Number(id);
-  if (!Number.isInteger(n) || n <= 0) notFoundPage();
-  try {
-    return await getCase(await getActor(), n);
-  } catch (e) {
-    if (e instanceof AppError && e.status === 404) notFoundPage();
-    throw e;
-  }
+async function load(params: Props["params"]): Promise<CaseDto> {
+  return orNotFound(getCase(await getActor(), await pageId(params)));
 }
 
 const when = (iso: string) => new Date(iso).toISOString().slice(0, 16).replace("T", " ") + " UTC";
 
 export default async function CasePage({ params, searchParams }: Props) {
   const { id } = await params;
-  const c = await load(id);
+  const c = await load(params);
   const sp = await searchParams;
   const latest = c.snapshots[c.snapshots.length - 1] ?? null;
   const chosen = sp.revision && c.snapshots.some((s) => String(s.revision) === sp.revision) ? Number(sp.revision) : undefined;

@@ -1,6 +1,7 @@
 import Link from "next/link";
 import { buttonClass } from "@/components/ui/button";
 import { Card, PageHeader } from "@/components/ui/card";
+import { DataTable, type Column } from "@/components/ui/table";
 import { can } from "@/lib/auth/permissions";
 import { requireUser } from "@/lib/auth/guards";
 import { getActor } from "@/lib/auth/session";
@@ -12,6 +13,15 @@ const phaseText = (p: string) => PHASE[p] ?? p;
 export const metadata = { title: "Datasets" };
 
 const kelvin = (x: number) => Number(x.toFixed(2)).toString();
+
+const COLUMNS: Column<Awaited<ReturnType<typeof listDatasets>>[number]>[] = [
+  { key: "name", header: "Name", cell: (d) => <Link className="font-medium underline" href={`/library/datasets/${d.id}`}>{d.name}</Link> },
+  { key: "species", header: "Species", cell: (d) => (d.species ? `${d.species.formula} · ${d.species.displayName}` : "—") },
+  { key: "phase", header: "Phase", cell: (d) => (d.phase ? phaseText(d.phase) : <span className="text-ink-muted">not stated</span>) },
+  { key: "points", header: "Points", align: "right", cell: (d) => d.pointCount },
+  { key: "range", header: "Range (K)", className: "whitespace-nowrap tabular", cell: (d) => (d.rangeK ? `${kelvin(d.rangeK[0])}–${kelvin(d.rangeK[1])}` : "—") },
+  { key: "uploaded", header: "Uploaded", className: "whitespace-nowrap text-xs text-ink-muted", cell: (d) => `${d.createdAt.slice(0, 10)}${d.uploadedByName ? ` · ${d.uploadedByName}` : ""}` },
+];
 
 export default async function DatasetsPage() {
   const actor = requireUser(await getActor());
@@ -29,30 +39,7 @@ export default async function DatasetsPage() {
           <p className="text-sm text-ink-muted">No datasets yet.</p>
         ) : (
           <div className="overflow-x-auto">
-            <table className="min-w-full text-left text-sm" data-testid="dataset-list">
-              <thead className="text-xs text-ink-muted">
-                <tr>
-                  <th className="py-1 pr-3 font-medium">Name</th>
-                  <th className="py-1 pr-3 font-medium">Species</th>
-                  <th className="py-1 pr-3 font-medium">Phase</th>
-                  <th className="py-1 pr-3 text-right font-medium">Points</th>
-                  <th className="py-1 pr-3 font-medium">Range (K)</th>
-                  <th className="py-1 pr-3 font-medium">Uploaded</th>
-                </tr>
-              </thead>
-              <tbody className="divide-y divide-ink-line">
-                {datasets.map((d) => (
-                  <tr key={d.id}>
-                    <td className="py-1.5 pr-3"><Link className="font-medium underline" href={`/library/datasets/${d.id}`}>{d.name}</Link></td>
-                    <td className="py-1.5 pr-3">{d.species ? `${d.species.formula} · ${d.species.displayName}` : "—"}</td>
-                    <td className="py-1.5 pr-3">{d.phase ? phaseText(d.phase) : <span className="text-ink-muted">not stated</span>}</td>
-                    <td className="py-1.5 pr-3 text-right tabular">{d.pointCount}</td>
-                    <td className="whitespace-nowrap py-1.5 pr-3 tabular">{d.rangeK ? `${kelvin(d.rangeK[0])}–${kelvin(d.rangeK[1])}` : "—"}</td>
-                    <td className="whitespace-nowrap py-1.5 pr-3 text-xs text-ink-muted">{d.createdAt.slice(0, 10)}{d.uploadedByName ? ` · ${d.uploadedByName}` : ""}</td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
+            <DataTable testId="dataset-list" columns={COLUMNS} rows={datasets} rowKey={(d) => d.id} />
           </div>
         )}
       </Card>

@@ -3,6 +3,7 @@ import { AcceptInvitationForm } from "@/components/auth/accept-invitation-form";
 import { ROLE_LABELS } from "@/lib/auth/permissions";
 import { AppError } from "@/lib/errors";
 import { previewInvitation, type InvitationPreview } from "@/lib/services/team";
+import { acceptInvitationAction } from "./actions";
 
 export const metadata = { title: "Join a team" };
 
@@ -29,7 +30,7 @@ export default async function InvitePage({ params }: { params: Promise<{ token: 
     <>
       <h1 className="mb-1 text-lg font-semibold">Join {preview.teamName}</h1>
       <p className="mb-4 text-sm text-ink-muted">You are invited as {ROLE_LABELS[preview.role].toLowerCase()}.</p>
-      <AcceptInvitationForm token={token} email={preview.email} />
+      <AcceptInvitationForm token={token} email={preview.email} accept={acceptInvitationAction} />
     </>
   );
 }

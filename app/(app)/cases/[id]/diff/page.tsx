@@ -1,9 +1,10 @@
 import Link from "next/link";
-import { notFound } from "next/navigation";
 import { Caution } from "@/components/results/caution";
 import { Card, PageHeader } from "@/components/ui/card";
+import { DataTable } from "@/components/ui/table";
 import { requireUser } from "@/lib/auth/guards";
 import { getActor } from "@/lib/auth/session";
+import { orNotFound, pageId } from "@/lib/pages";
 import { fixed, kelvin } from "@/lib/cases/format";
 import { AppError } from "@/lib/errors";
 import { diffSnapshots, getCase } from "@/lib/services/cases";
@@ -17,17 +18,13 @@ const num = (s: string | undefined) => (s && /^\d+$/.test(s) ? Number(s) : undef
 
 export default async function DiffPage({ params, searchParams }: Props) {
   const actor = requireUser(await getActor());
-  const id = Number((await params).id);
+  const id = await pageId(params);
   const sp = await searchParams;
-  if (!Number.isInteger(id) || id <= 0) notFound();
-  const fail = (e: unknown): never => {
-    if (e instanceof AppError && e.status === 404) notFound();
-    throw e;
-  };
-  const c = await getCase(actor, id).catch(fail);
-  const diff = await diffSnapshots(actor, id, num(sp.from), num(sp.to)).catch((e) => {
+  const c = await orNotFound(getCase(actor, id));
+  // A case with one snapshot has nothing to compare (409): the page says so.
+  const diff = await orNotFound(diffSnapshots(actor, id, num(sp.from), num(sp.to))).catch((e) => {
     if (e instanceof AppError && e.status === 409) return null;
-    return fail(e);
+    throw e;
   });
   return (
     <>
@@ -55,16 +52,15 @@ export default async function DiffPage({ params, searchParams }: Props) {
             {diff.inputs.length === 0 ? (
               <p className="text-sm text-ink-muted">No input changed.</p>
             ) : (
-              <table className="min-w-full text-sm">
-                <thead className="text-left text-xs text-ink-muted">
-                  <tr><th className="py-1 pr-3 font-medium">Field</th><th className="py-1 pr-3 font-medium">Revision {diff.from.revision}</th><th className="py-1 font-medium">Revision {diff.to.revision}</th></tr>
-                </thead>
-                <tbody className="divide-y divide-ink-line/60">
-                  {diff.inputs.map((ch) => (
-                    <tr key={ch.path}><td className="py-1 pr-3 font-mono text-xs">{ch.path}</td><td className="py-1 pr-3 text-ink-muted">{show(ch.from)}</td><td className="py-1 font-medium">{show(ch.to)}</td></tr>
-                  ))}
-                </tbody>
-              </table>
+              <DataTable
+                columns={[
+                  { key: "path", header: "Field", className: "font-mono text-xs", cell: (ch) => ch.path },
+                  { key: "from", header: `Revision ${diff.from.revision}`, className: "text-ink-muted", cell: (ch) => show(ch.from) },
+                  { key: "to", header: `Revision ${diff.to.revision}`, className: "font-medium", cell: (ch) => show(ch.to) },
+                ]}
+                rows={diff.inputs}
+                rowKey={(ch) => ch.path}
+              />
             )}
           </Card>
           <Card title={`Changed pins (${diff.pins.length})`}>
@@ -100,16 +96,17 @@ export default async function DiffPage({ params, searchParams }: Props) {
                       {diff.equilibrium.pressureBar[0] !== diff.equilibrium.pressureBar[1] ? ` Pressure ${diff.equilibrium.pressureBar[0]} → ${diff.equilibrium.pressureBar[1]} bar.` : ""}
                     </p>
                     {diff.equilibrium.rows.length > 0 && (
-                      <table className="mt-3 min-w-full text-xs">
-                        <thead className="text-right text-ink-muted">
-                          <tr><th className="py-1 pr-2 font-medium">T (K)</th><th className="py-1 pr-2 font-medium">conversion r{diff.from.revision} (%)</th><th className="py-1 font-medium">conversion r{diff.to.revision} (%)</th></tr>
-                        </thead>
-                        <tbody className="text-right tabular">
-                          {diff.equilibrium.rows.map((p) => (
-                            <tr key={p.tK}><td className="pr-2">{fixed(p.tK, 2)}</td><td className="pr-2">{fixed(p.fromConversion * 100, 3)}</td><td>{fixed(p.toConversion * 100, 3)}</td></tr>
-                          ))}
-                        </tbody>
-                      </table>
+                      <DataTable
+                        look="compact"
+                        className="mt-3"
+                        columns={[
+                          { key: "t", header: "T (K)", cell: (p) => fixed(p.tK, 2) },
+                          { key: "from", header: `conversion r${diff.from.revision} (%)`, cell: (p) => fixed(p.fromConversion * 100, 3) },
+                          { key: "to", header: `conversion r${diff.to.revision} (%)`, cell: (p) => fixed(p.toConversion * 100, 3) },
+                        ]}
+                        rows={diff.equilibrium.rows}
+                        rowKey={(p) => p.tK}
+                      />
                     )}
                   </>
                 )}
@@ -140,16 +137,19 @@ export default async function DiffPage({ params, searchParams }: Props) {
               </div>
             </dl>
             {diff.points.rows.length > 0 && (
-              <table className="mt-3 min-w-full text-xs">
-                <thead className="text-right text-ink-muted">
-                  <tr><th className="py-1 pr-2 font-medium">T (K)</th><th className="py-1 pr-2 font-medium">ΔrG r{diff.from.revision} (kJ/mol)</th><th className="py-1 pr-2 font-medium">ΔrG r{diff.to.revision} (kJ/mol)</th><th className="py-1 pr-2 font-medium">log10 K r{diff.from.revision}</th><th className="py-1 font-medium">log10 K r{diff.to.revision}</th></tr>
-                </thead>
-                <tbody className="text-right tabular">
-                  {diff.points.rows.map((p) => (
-                    <tr key={p.tK}><td className="pr-2">{fixed(p.tK, 2)}</td><td className="pr-2">{fixed(p.fromDGkJ, 3)}</td><td className="pr-2">{fixed(p.toDGkJ, 3)}</td><td className="pr-2">{fixed(p.fromLog10K, 4)}</td><td>{fixed(p.toLog10K, 4)}</td></tr>
-                  ))}
-                </tbody>
-              </table>
+              <DataTable
+                look="compact"
+                className="mt-3"
+                columns={[
+                  { key: "t", header: "T (K)", cell: (p) => fixed(p.tK, 2) },
+                  { key: "g0", header: `ΔrG r${diff.from.revision} (kJ/mol)`, cell: (p) => fixed(p.fromDGkJ, 3) },
+                  { key: "g1", header: `ΔrG r${diff.to.revision} (kJ/mol)`, cell: (p) => fixed(p.toDGkJ, 3) },
+                  { key: "k0", header: `log10 K r${diff.from.revision}`, cell: (p) => fixed(p.fromLog10K, 4) },
+                  { key: "k1", header: `log10 K r${diff.to.revision}`, cell: (p) => fixed(p.toLog10K, 4) },
+                ]}
+                rows={diff.points.rows}
+                rowKey={(p) => p.tK}
+              />
             )}
           </Card>
         </div>

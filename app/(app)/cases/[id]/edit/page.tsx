@@ -1,5 +1,5 @@
-import { orNotFound, pagePermission } from "@/lib/pages";
-import { notFound, redirect } from "next/navigation";
+import { orNotFound, pageId, pagePermission } from "@/lib/pages";
+import { redirect } from "next/navigation";
 import { CaseBuilder } from "@/components/cases/case-builder";
 import { PageHeader } from "@/components/ui/card";
 import { getActor } from "@/lib/auth/session";
@@ -10,8 +10,7 @@ export const metadata = { title: "Edit case" };
 
 export default async function EditCasePage({ params }: { params: Promise<{ id: string }> }) {
   const actor = pagePermission(await getActor(), "cases.create");
-  const id = Number((await params).id);
-  if (!Number.isInteger(id) || id <= 0) notFound();
+  const id = await pageId(params);
   const c = await orNotFound(getCase(actor, id));
   if (!c.can.edit) redirect(`/cases/${id}`);
   const options = await listPinOptions(actor);

@@ -1,5 +1,4 @@
-import { orNotFound } from "@/lib/pages";
-import { notFound } from "next/navigation";
+import { orNotFound, pageId } from "@/lib/pages";
 import { temperaturesText } from "@/components/cases/inputs-card";
 import { EquilibriumReport } from "@/components/equilibrium/equilibrium-report";
 import { Caution } from "@/components/results/caution";
@@ -9,6 +8,7 @@ import { ResultCharts } from "@/components/results/result-charts";
 import { ContributionsChart } from "@/components/results/contributions-chart";
 import { ContributionsTable } from "@/components/results/contributions-table";
 import { ResultSummary, WarningList } from "@/components/results/result-summary";
+import { DataTable } from "@/components/ui/table";
 import { requireUser } from "@/lib/auth/guards";
 import { getActor } from "@/lib/auth/session";
 import { DISPLAY_UNITS, enteredUnit, formatTemperature, gridValue, isDisplayUnit, UNIT_LABELS } from "@/lib/cases/display-unit";
@@ -28,11 +28,10 @@ const SUMMARY_ROWS = 16;
 
 export default async function ReportPage({ params, searchParams }: Props) {
   const actor = requireUser(await getActor());
-  const id = Number((await params).id);
+  const id = await pageId(params);
   const sp = await searchParams;
   const rev = sp.revision;
   const revision = rev && /^\d+$/.test(rev) ? Number(rev) : undefined;
-  if (!Number.isInteger(id) || id <= 0) notFound();
   const data = await orNotFound(getResults(actor, id, revision));
   const r = data.result;
   const gas = cautionGasOf(r);
@@ -47,8 +46,6 @@ export default async function ReportPage({ params, searchParams }: Props) {
   const worst = pts.reduce((a, p) => (Math.abs(p.diffKJ) > Math.abs(a.diffKJ) ? p : a), pts[0]);
   const beyond = pts.filter((p) => p.exceedsTolerance).length;
   const coeff = new Map(data.inputs.terms.map((t) => [t.phase ? `${t.formula}(${t.phase})` : t.formula, t.coefficient]));
-  const th = "border-b border-ink-line px-2 py-1 text-right font-medium";
-  const td = "px-2 py-0.5 text-right tabular";
   return (
     <article className="mx-auto max-w-4xl space-y-5 bg-white p-6 text-sm shadow-card print:max-w-none print:p-0 print:shadow-none" data-testid="report">
       <style>{`@page { size: A4; margin: 14mm; } @media print { main { padding: 0 !important; max-width: none !important; } }`}</style>
@@ -105,30 +102,28 @@ export default async function ReportPage({ params, searchParams }: Props) {
 
       <section>
         <h2 className="mb-1 text-sm font-semibold">Pinned model versions</h2>
-        <table className="w-full text-xs">
-          <thead>
-            <tr className="text-left">
-              <th className="border-b border-ink-line py-1 pr-2 font-medium">ν</th>
-              <th className="border-b border-ink-line py-1 pr-2 font-medium">Species</th>
-              <th className="border-b border-ink-line py-1 pr-2 font-medium">Model and version</th>
-              {record && <th className="border-b border-ink-line py-1 pr-2 font-medium">Approved by</th>}
-              <th className="border-b border-ink-line py-1 font-medium">Citation</th>
-            </tr>
-          </thead>
-          <tbody>
-            {data.pins.map((p) => (
-              <tr key={p.key} className="align-top">
-                <td className="py-1 pr-2 tabular">{coeff.get(p.key)}</td>
-                <td className="py-1 pr-2 font-medium">{p.key}</td>
-                <td className="py-1 pr-2">
+        <DataTable
+          look="numbers"
+          align="left"
+          columns={[
+            { key: "nu", header: "ν", cell: (p) => coeff.get(p.key) },
+            { key: "species", header: "Species", className: "font-medium", cell: (p) => p.key },
+            {
+              key: "model",
+              header: "Model and version",
+              cell: (p) => (
+                <>
                   {p.modelName} · v{p.versionNumber} · <span className={p.status === "approved" ? "" : "font-semibold text-flag-700"}>{p.status}</span>
-                </td>
-                {record && <td className="py-1 pr-2" data-testid="pin-approver">{approverText(record.pins.find((x) => x.key === p.key))}</td>}
-                <td className="py-1 text-ink-soft">{p.citation}</td>
-              </tr>
-            ))}
-          </tbody>
-        </table>
+                </>
+              ),
+            },
+            record && { key: "approver", header: "Approved by", cellTestId: "pin-approver", cell: (p) => approverText(record.pins.find((x) => x.key === p.key)) },
+            { key: "citation", header: "Citation", className: "text-ink-soft", cell: (p) => p.citation },
+          ]}
+          rows={data.pins}
+          rowKey={(p) => p.key}
+          alignTop
+        />
       </section>
 
       <Caution gas={gas} />
@@ -147,32 +142,22 @@ export default async function ReportPage({ params, searchParams }: Props) {
 
       <section className="break-inside-avoid">
         <h2 className="mb-1 text-sm font-semibold">Table summary{rows.length < pts.length ? ` (every ${stride}th point and the last; the CSV export has all ${pts.length})` : ""}</h2>
-        <table className="w-full text-xs" data-testid="report-table">
-          <thead>
-            <tr>
-              <th className={th}>T ({UNIT_LABELS[unit]})</th>
-              <th className={th}>ΔrH (kJ/mol)</th>
-              <th className={th}>ΔrS (J/(mol·K))</th>
-              <th className={th}>ΔrG corrected (kJ/mol)</th>
-              <th className={th}>ΔrG naive (kJ/mol)</th>
-              <th className={th}>naive − corrected (kJ/mol)</th>
-              <th className={th}>K</th>
-            </tr>
-          </thead>
-          <tbody>
-            {rows.map((p) => (
-              <tr key={p.tK} className={p.exceedsTolerance ? "font-semibold" : undefined}>
-                <td className={td}>{gridValue(p.tK, unit)}</td>
-                <td className={td}>{fixed(p.dHkJ, 3)}</td>
-                <td className={td}>{fixed(p.dSJ, 3)}</td>
-                <td className={td}>{fixed(p.dGkJ, 3)}</td>
-                <td className={td}>{fixed(p.naiveDGkJ, 3)}</td>
-                <td className={td}>{fixed(p.diffKJ, 3)}{p.exceedsTolerance ? " *" : ""}</td>
-                <td className={td}>{sci(p.K, 4)}</td>
-              </tr>
-            ))}
-          </tbody>
-        </table>
+        <DataTable
+          look="numbers"
+          testId="report-table"
+          columns={[
+            { key: "t", header: `T (${UNIT_LABELS[unit]})`, cell: (p) => gridValue(p.tK, unit) },
+            { key: "h", header: "ΔrH (kJ/mol)", cell: (p) => fixed(p.dHkJ, 3) },
+            { key: "s", header: "ΔrS (J/(mol·K))", cell: (p) => fixed(p.dSJ, 3) },
+            { key: "g", header: "ΔrG corrected (kJ/mol)", cell: (p) => fixed(p.dGkJ, 3) },
+            { key: "gn", header: "ΔrG naive (kJ/mol)", cell: (p) => fixed(p.naiveDGkJ, 3) },
+            { key: "diff", header: "naive − corrected (kJ/mol)", cell: (p) => `${fixed(p.diffKJ, 3)}${p.exceedsTolerance ? " *" : ""}` },
+            { key: "k", header: "K", cell: (p) => sci(p.K, 4) },
+          ]}
+          rows={rows}
+          rowKey={(p) => p.tK}
+          rowClassName={(p) => (p.exceedsTolerance ? "font-semibold" : undefined)}
+        />
         <p className="mt-1 text-xs text-ink-muted">* beyond tolerance. H on the formation basis; G = H − TS of each species is not ΔfG°(T).</p>
       </section>
 

@@ -1,11 +1,11 @@
 import Link from "next/link";
-import { notFound } from "next/navigation";
 import { PointsChart } from "@/components/charts/residual-chart";
 import { StatusBadge } from "@/components/library/status-badge";
 import { Card, PageHeader } from "@/components/ui/card";
+import { DataTable } from "@/components/ui/table";
 import { requireUser } from "@/lib/auth/guards";
 import { getActor } from "@/lib/auth/session";
-import { orNotFound } from "@/lib/pages";
+import { orNotFound, pageId } from "@/lib/pages";
 import { datasetVersions, getDataset } from "@/lib/services/datasets";
 import { CP_UNIT_LABELS, T_UNIT_LABELS } from "@/lib/validation/library";
 
@@ -18,8 +18,7 @@ const unitLabel = (labels: Record<string, string>, u: string) => labels[u] ?? u;
 
 export default async function DatasetPage({ params }: { params: Promise<{ id: string }> }) {
   const actor = requireUser(await getActor());
-  const id = Number((await params).id);
-  if (!Number.isInteger(id) || id <= 0) notFound();
+  const id = await pageId(params);
   const d = await orNotFound(getDataset(actor, id));
   const versions = await datasetVersions(actor, id);
   const hasSigma = d.points.some((p) => p.sigmaJ !== undefined);
@@ -34,16 +33,19 @@ export default async function DatasetPage({ params }: { params: Promise<{ id: st
           </Card>
           <Card title="Points (SI, as stored)">
             <div className="max-h-96 overflow-auto">
-              <table className="min-w-full text-right text-xs" data-testid="dataset-points">
-                <thead className="sticky top-0 bg-white text-ink-muted">
-                  <tr><th className="py-1 pr-3 font-medium">#</th><th className="py-1 pr-3 font-medium">T (K)</th><th className="py-1 pr-3 font-medium">Cp (J/(mol·K))</th>{hasSigma && <th className="py-1 font-medium">σ (J/(mol·K))</th>}</tr>
-                </thead>
-                <tbody className="tabular">
-                  {d.points.map((p, i) => (
-                    <tr key={i}><td className="pr-3 text-ink-muted">{i + 1}</td><td className="pr-3">{Number(p.tK.toFixed(4))}</td><td className="pr-3">{Number(p.cpJ.toFixed(4))}</td>{hasSigma && <td>{p.sigmaJ ?? ""}</td>}</tr>
-                  ))}
-                </tbody>
-              </table>
+              <DataTable
+                look="compact"
+                stickyHeader
+                testId="dataset-points"
+                columns={[
+                  { key: "n", header: "#", className: "text-ink-muted", cell: (_, i) => i + 1 },
+                  { key: "t", header: "T (K)", cell: (p) => Number(p.tK.toFixed(4)) },
+                  { key: "cp", header: "Cp (J/(mol·K))", cell: (p) => Number(p.cpJ.toFixed(4)) },
+                  hasSigma && { key: "sigma", header: "σ (J/(mol·K))", cell: (p) => p.sigmaJ ?? "" },
+                ]}
+                rows={d.points}
+                rowKey={(_, i) => i}
+              />
             </div>
           </Card>
         </div>

@@ -5,7 +5,7 @@ import { actionFailure, formObject, type ActionState } from "@/lib/actions";
 import { getActor } from "@/lib/auth/session";
 import { parseWith } from "@/lib/http";
 import { setSpeciesCritical } from "@/lib/services/species-critical";
-import { idParamSchema } from "@/lib/validation/library";
+import { idParamSchema } from "@/lib/validation/params";
 import { criticalFormSchema, criticalRemoveFormSchema } from "@/lib/validation/species-critical";
 
 /** The species page's critical-constants form; the service checks role and team, as for the API. */

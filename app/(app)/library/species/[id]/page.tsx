@@ -1,4 +1,4 @@
-import { orNotFound } from "@/lib/pages";
+import { orNotFound, pageId } from "@/lib/pages";
 import Link from "next/link";
 import { CriticalConstants } from "@/components/library/critical-constants";
 import { PropertyCharts } from "@/components/library/property-charts";
@@ -9,8 +9,9 @@ import { Card, PageHeader } from "@/components/ui/card";
 import { inputClass } from "@/components/ui/field";
 import { requireUser } from "@/lib/auth/guards";
 import { getActor } from "@/lib/auth/session";
-import { defaultRange, getSpecies, getVersion, versionCurve } from "@/lib/services/library";
+import { getSpecies, getVersion, versionCurve } from "@/lib/services/library";
 import { getSpeciesCritical } from "@/lib/services/species-critical";
+import { defaultRange } from "@/lib/thermo/curve";
 import { removeCriticalAction, saveCriticalAction } from "./actions";
 import { FAMILY_LABELS } from "@/lib/validation/library";
 
@@ -22,7 +23,7 @@ const num = (s: string | undefined) => (s && Number.isFinite(Number(s)) && Numbe
 
 export default async function SpeciesPage({ params, searchParams }: Props) {
   const actor = requireUser(await getActor());
-  const id = Number((await params).id);
+  const id = await pageId(params);
   const sp = await searchParams;
   const species = await orNotFound(getSpecies(actor, id));
   const critical = await getSpeciesCritical(actor, id);

@@ -6,7 +6,8 @@ import { getActor } from "@/lib/auth/session";
 import { parseWith } from "@/lib/http";
 import { approveVersion, rejectVersion } from "@/lib/services/library";
 import { z } from "zod";
-import { approveSchema, idParamSchema, rejectSchema } from "@/lib/validation/library";
+import { approveSchema, rejectSchema } from "@/lib/validation/library";
+import { idParamSchema } from "@/lib/validation/params";
 
 /** The forms' fields: the version id beside the decision's own; anything else is refused. */
 const versionField = { versionId: z.string({ error: "Expected a numeric id." }) };

@@ -1,4 +1,4 @@
-import { orNotFound } from "@/lib/pages";
+import { orNotFound, pageId } from "@/lib/pages";
 import Link from "next/link";
 import { PropertyCharts } from "@/components/library/property-charts";
 import { phaseLabel } from "@/components/library/curve-rows";
@@ -7,11 +7,13 @@ import { VersionActions } from "@/components/library/version-actions";
 import { ImpactPanel } from "@/components/library/impact-panel";
 import { Caution } from "@/components/results/caution";
 import { Card, PageHeader } from "@/components/ui/card";
+import { DataTable } from "@/components/ui/table";
 import { can } from "@/lib/auth/permissions";
 import { requireUser } from "@/lib/auth/guards";
 import { getActor } from "@/lib/auth/session";
 import { getVersion, versionAudit, versionCurve } from "@/lib/services/library";
 import { FAMILY_LABELS } from "@/lib/validation/library";
+import { approveVersionAction, rejectVersionAction } from "./actions";
 
 type Props = { params: Promise<{ id: string }> };
 
@@ -43,7 +45,7 @@ function coeffText(coeffs: unknown): string {
 
 export default async function VersionPage({ params }: Props) {
   const actor = requireUser(await getActor());
-  const id = Number((await params).id);
+  const id = await pageId(params);
   const v = await orNotFound(getVersion(actor, id));
   const [audit, curve] = await Promise.all([versionAudit(actor, id), versionCurve(actor, id).catch((e: Error) => e)]);
   const team = v.scope === "team";
@@ -91,19 +93,19 @@ export default async function VersionPage({ params }: Props) {
           )}
           <Card title="Segments">
             <div className="overflow-x-auto">
-              <table className="w-full min-w-[36rem] text-left text-sm" data-testid="segments-table">
-                <thead className="text-xs text-ink-muted"><tr><th className="py-1 font-medium">Phase</th><th className="font-medium">Form</th><th className="font-medium">Range (K)</th><th className="font-medium">Coefficients</th></tr></thead>
-                <tbody className="divide-y divide-ink-line">
-                  {v.data.segments.map((s, i) => (
-                    <tr key={i} className="align-top">
-                      <td className="py-2 pr-3">{phaseLabel(s.phase)}</td>
-                      <td className="pr-3">{s.form}</td>
-                      <td className="tabular whitespace-nowrap pr-3">{String(s.tminK)}–{String(s.tmaxK)}</td>
-                      <td className="break-all font-mono text-xs">{coeffText(s.coeffs)}</td>
-                    </tr>
-                  ))}
-                </tbody>
-              </table>
+              <DataTable
+                className="min-w-[36rem]"
+                alignTop
+                testId="segments-table"
+                columns={[
+                  { key: "phase", header: "Phase", cell: (s) => phaseLabel(s.phase) },
+                  { key: "form", header: "Form", cell: (s) => s.form },
+                  { key: "range", header: "Range (K)", className: "tabular whitespace-nowrap", cell: (s) => `${String(s.tminK)}–${String(s.tmaxK)}` },
+                  { key: "coeffs", header: "Coefficients", className: "break-all font-mono text-xs", cell: (s) => coeffText(s.coeffs) },
+                ]}
+                rows={v.data.segments}
+                rowKey={(_, i) => i}
+              />
             </div>
             {v.data.transitions?.length ? <p className="mt-3 text-sm">Transitions: {v.data.transitions.map((t) => `${t.from} → ${t.to} at ${t.tK} K, ΔH ${t.dHkJ} kJ/mol`).join("; ")}</p> : null}
             {v.data.reference && <p className="mt-2 text-sm">Anchor: {phaseLabel(v.data.reference.phase)} at {String(v.data.reference.tK)} K, H = {String(v.data.reference.hkJ)} kJ/mol, S = {String(v.data.reference.sJ)} J/(mol·K)</p>}
@@ -112,7 +114,7 @@ export default async function VersionPage({ params }: Props) {
         </div>
         <div className="space-y-6">
           <Card title="Workflow">
-            <VersionActions versionId={v.id} modelId={v.modelId} allowed={allowed} label={`${v.model.name}, version ${v.versionNumber}`} speciesHref={`/library/species/${v.species.id}`} />
+            <VersionActions versionId={v.id} modelId={v.modelId} allowed={allowed} label={`${v.model.name}, version ${v.versionNumber}`} speciesHref={`/library/species/${v.species.id}`} decisions={{ approve: approveVersionAction, reject: rejectVersionAction }} />
             <dl className="mt-4 space-y-1 text-sm">
               <div className="flex justify-between gap-2"><dt className="text-ink-muted">Author</dt><dd>{v.authorName ?? (v.scope === "reference" ? "Published source" : "—")}</dd></div>
               {v.contributors.length > 0 && (

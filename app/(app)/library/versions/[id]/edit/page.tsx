@@ -1,4 +1,4 @@
-import { orNotFound } from "@/lib/pages";
+import { orNotFound, pageId } from "@/lib/pages";
 import Link from "next/link";
 import { redirect } from "next/navigation";
 import { VersionEditor } from "@/components/library/version-editor";
@@ -12,7 +12,7 @@ export const metadata = { title: "Edit draft" };
 
 export default async function EditVersionPage({ params }: { params: Promise<{ id: string }> }) {
   const actor = requireUser(await getActor());
-  const id = Number((await params).id);
+  const id = await pageId(params);
   const v = await orNotFound(getVersion(actor, id));
   const mayEdit = v.scope === "team" && v.status === "draft" && (v.authorId === actor.userId ? can(actor.role, "models.draft") : can(actor.role, "models.edit"));
   if (!mayEdit) redirect(`/library/versions/${id}`);

@@ -1,10 +1,5 @@
 import { getActor } from "@/lib/auth/session";
-import { json, parseWith, route } from "@/lib/http";
+import { json, withId } from "@/lib/http";
 import { listSnapshots } from "@/lib/services/cases";
-import { idParamSchema } from "@/lib/validation/team";
 
-type Context = { params: Promise<{ id: string }> };
-
-export const GET = route<Context>(async (_request, { params }) =>
-  json({ snapshots: await listSnapshots(await getActor(), parseWith(idParamSchema, (await params).id)) }),
-);
+export const GET = withId(async (_request, id) => json({ snapshots: await listSnapshots(await getActor(), id) }));

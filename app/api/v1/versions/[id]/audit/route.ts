@@ -1,8 +1,5 @@
 import { getActor } from "@/lib/auth/session";
-import { json, parseWith, route } from "@/lib/http";
+import { json, withId } from "@/lib/http";
 import { versionAudit } from "@/lib/services/library";
-import { idParamSchema } from "@/lib/validation/library";
 
-type Context = { params: Promise<{ id: string }> };
-
-export const GET = route<Context>(async (_request, { params }) => json({ events: await versionAudit(await getActor(), parseWith(idParamSchema, (await params).id)) }));
+export const GET = withId(async (_request, id) => json({ events: await versionAudit(await getActor(), id) }));

@@ -1,11 +1,8 @@
 import { z } from "zod";
 import { strictObject } from "@/lib/validation/strict";
 import { getActor } from "@/lib/auth/session";
-import { json, parseWith, queryObject, route } from "@/lib/http";
+import { json, parseWith, queryObject, withId } from "@/lib/http";
 import { versionCurve } from "@/lib/services/library";
-import { idParamSchema } from "@/lib/validation/library";
-
-type Context = { params: Promise<{ id: string }> };
 
 const query = strictObject({
   fromK: z.coerce.number().positive("Temperatures must be above 0 K.").optional(),
@@ -14,8 +11,7 @@ const query = strictObject({
 });
 
 /** Cp, H, S and G of a saved version on a grid, with its chains' validity ranges. */
-export const GET = route<Context>(async (request, { params }) => {
+export const GET = withId(async (request, id) => {
   const actor = await getActor();
-  const id = parseWith(idParamSchema, (await params).id);
   return json(await versionCurve(actor, id, parseWith(query, queryObject(request))));
 });

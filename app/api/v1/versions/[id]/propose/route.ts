@@ -1,8 +1,5 @@
 import { getActor } from "@/lib/auth/session";
-import { json, parseWith, route } from "@/lib/http";
+import { json, withId } from "@/lib/http";
 import { proposeVersion } from "@/lib/services/library";
-import { idParamSchema } from "@/lib/validation/library";
 
-type Context = { params: Promise<{ id: string }> };
-
-export const POST = route<Context>(async (_request, { params }) => json({ version: await proposeVersion(await getActor(), parseWith(idParamSchema, (await params).id)) }));
+export const POST = withId(async (_request, id) => json({ version: await proposeVersion(await getActor(), id) }));

@@ -1,12 +1,6 @@
 import { getActor } from "@/lib/auth/session";
-import { json, parseWith, route } from "@/lib/http";
+import { json, parseWith, withId } from "@/lib/http";
 import { getSnapshot } from "@/lib/services/cases";
 import { revisionParamSchema } from "@/lib/validation/cases";
-import { idParamSchema } from "@/lib/validation/team";
 
-type Context = { params: Promise<{ id: string; revision: string }> };
-
-export const GET = route<Context>(async (_request, { params }) => {
-  const p = await params;
-  return json({ snapshot: await getSnapshot(await getActor(), parseWith(idParamSchema, p.id), parseWith(revisionParamSchema, p.revision)) });
-});
+export const GET = withId(async (_request, id, { revision }) => json({ snapshot: await getSnapshot(await getActor(), id, parseWith(revisionParamSchema, revision)) }));
