@@ -9,7 +9,7 @@ import { toColumnar } from "@/lib/thermo/columns";
 import { speciesEntry } from "./reference-data";
 
 // Shomate sets fitted to NIST-JANAF (Chase 1998), ../shared/reference/.
-const sh = (sp: string) => speciesEntry("shomate", sp, "g");
+const sh = (sp: string) => speciesEntry("shomate-janaf", sp, "g");
 // Standard uncertainties: synthetic, invented for this test.
 const withU = (e: SpeciesInput): SpeciesInput => ({ ...e, uncertainty: { dfHkJ: 0.3, sJ: 0.2, cpRelative: 0.01 } });
 const shift = (u: boolean) => {
