@@ -9,7 +9,7 @@ import { Badge } from "@/components/ui/badge";
 import { Button } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
 import { Field, Select, TextInput, inputClass } from "@/components/ui/field";
-import { EQUILIBRIUM_CAUTION_TEXT } from "@/lib/cases/caution";
+import { cautionGasOf, equilibriumCautionText } from "@/lib/cases/caution";
 import { checkEquilibriumForm, checkReactionLine, checkSpeciesKey, FEED_UNIT_HINT } from "@/lib/cases/equilibrium-form";
 import { warningMeaning } from "@/lib/cases/warnings";
 import type { ResultsDto } from "@/lib/services/cases";
@@ -408,9 +408,9 @@ export function EquilibriumPanel({
         )}
         {sources && <SourceComparisonView data={sources} />}
         <p className="rounded-md border border-ember-100 bg-ember-50 px-3 py-2 text-xs leading-relaxed text-ember-700" data-testid="equilibrium-caution">
-          {EQUILIBRIUM_CAUTION_TEXT}
+          {equilibriumCautionText(cautionGasOf(shown))}
         </p>
-        <Caution />
+        <Caution gas={cautionGasOf(shown)} />
       </div>
     </Card>
   );

@@ -5,10 +5,12 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb, models } from "@/lib/db";
-import { createCase, exportCsv, getResults } from "@/lib/services/cases";
+import { cautionText } from "@/lib/cases/caution";
+import { createCase, exportCsv, getResults, submitCase } from "@/lib/services/cases";
+import { decideCase } from "@/lib/services/reviews";
 import { compareFamilies } from "@/lib/services/equilibrium";
 import { previewCaseEquilibrium } from "@/lib/services/case-equilibrium";
-import { caseInputSchema } from "@/lib/validation/cases";
+import { caseInputSchema, decisionSchema } from "@/lib/validation/cases";
 import { CRITICAL_CONSTANTS } from "@/seeders/critical-constants";
 import { actorOf } from "../helpers/actors";
 import { shiftCase } from "../helpers/cases";
@@ -119,6 +121,22 @@ describe("seeded demo drafts (invented Larkspur scenario)", () => {
       expect(a.bracketK[0]).toBeLessThanOrEqual(a.outletK);
       expect(a.bracketK[1]).toBeGreaterThanOrEqual(a.outletK);
       expect(Number.isFinite(a.naiveOutletK)).toBe(true);
+    }
+  });
+});
+
+describe("the caution of a Peng–Robinson case's mails", () => {
+  it("the review request and the decision say fugacity coefficients, not ideal-gas activities", async () => {
+    const erin = await actorOf("engineer");
+    const c = await createCase(erin, caseInputSchema.parse(shiftCase(pins, { title: "Shift at 30 bar, real gas (caution mail)", equilibrium: { ...eq, gas: "peng-robinson" } })));
+    await submitCase(erin, c.id, c.lockVersion);
+    await decideCase(await actorOf("reviewer"), c.id, decisionSchema.parse({ decision: "returned", reason: "Add the start-up span." }));
+    const mails = await models().MailMessage.findAll({ where: { kind: ["review-requested", "review-decided"] } });
+    const ours = mails.filter((m) => m.subject.includes("Shift at 30 bar, real gas (caution mail)"));
+    expect([...new Set(ours.map((m) => m.kind))].sort()).toEqual(["review-decided", "review-requested"]);
+    for (const m of ours) {
+      expect(m.body).toContain(cautionText("peng-robinson"));
+      expect(m.body).not.toContain("ideal-gas activities");
     }
   });
 });

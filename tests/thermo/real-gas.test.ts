@@ -35,6 +35,8 @@ describe("Peng–Robinson compressibility factor of pure gases", () => {
   // recalled (from memory), rounded. PR with its generalised constants is a few per cent off
   // in gas densities (common practice), so 0.03 in Z; the 1 bar CO2 point, where Z − 1 is the
   // second virial coefficient (B(300 K) ≈ −122 cm³/mol, from memory), is held to 0.002.
+  // A search of public pages (2026-12-04) found no table of these Z values to cite (the WebBook's
+  // fluid pages compute them on request and are not looked up), so the rows stay recalled.
   const rows: { species: string; tK: number; pBar: number; z: number; tol: number }[] = [
     { species: "N2", tK: 300, pBar: 100, z: 1.004, tol: 0.03 },
     { species: "N2", tK: 300, pBar: 200, z: 1.037, tol: 0.03 },
@@ -137,7 +139,9 @@ describe("ammonia synthesis at high pressure against Larson & Dodge (1923)", () 
   // A. T. Larson and R. L. Dodge, "The ammonia equilibrium", J. Am. Chem. Soc. 45 (1923) 2918,
   // with Larson, J. Am. Chem. Soc. 46 (1924) 367 for 600 and 1000 atm: mole per cent NH3 at
   // equilibrium from a 3:1 H2:N2 feed. Values recalled (from memory), as they are reproduced in
-  // textbook tables. K from the Shomate sets (NIST-JANAF fits); PR with kij = 0.
+  // textbook tables. K from the Shomate sets (NIST-JANAF fits); PR with kij = 0. A search of
+  // public pages (2026-12-04) found only the paper's abstract-level citations and rounded school
+  // tables, no reproduction of the measured table to cite, so the rows stay recalled.
   const measured: { c: number; atm: number; nh3: number }[] = [
     { c: 400, atm: 10, nh3: 3.85 }, { c: 400, atm: 30, nh3: 10.09 }, { c: 400, atm: 50, nh3: 15.27 }, { c: 400, atm: 100, nh3: 25.12 },
     { c: 400, atm: 300, nh3: 47.0 }, { c: 400, atm: 600, nh3: 65.2 }, { c: 400, atm: 1000, nh3: 79.82 },
