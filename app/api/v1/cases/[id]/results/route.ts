@@ -7,8 +7,8 @@ import { resultsQuerySchema } from "@/lib/validation/cases";
 
 /** A submitted or approved case answers with its stored snapshot; a draft is evaluated now. */
 export const GET = withId(async (request, id) => {
-  const { revision, format } = parseWith(resultsQuerySchema, queryObject(request));
+  const { revision, ...view } = parseWith(resultsQuerySchema, queryObject(request));
   const results = await getResults(await getActor(), id, revision);
-  // A frozen snapshot's result is serialised once per view and process (lib/services/results-cache.ts).
-  return jsonBody(resultsJson(results, format ?? "rows", () => inFormat(results.result, format)));
+  // A frozen snapshot's result is serialised once per view (every query field but the revision) and process (lib/services/results-cache.ts).
+  return jsonBody(resultsJson(results, JSON.stringify(view), () => inFormat(results.result, view.format)));
 });
