@@ -23,6 +23,13 @@ export function json(data: unknown, status = 200, headers?: HeadersInit): Respon
   return Response.json(data, { status, headers: noStore(headers) });
 }
 
+/** An answer already serialised (JSON text, or its UTF-8 bytes from the engine pool), sent as `json` would send it. */
+export function jsonBody(body: string | Uint8Array<ArrayBuffer>, status = 200, headers?: HeadersInit): Response {
+  const h = noStore(headers);
+  h.set("content-type", "application/json");
+  return new Response(body, { status, headers: h });
+}
+
 /** zod issues as `{ path: message }`, the shape forms and API clients both read. */
 export function fieldErrors(error: ZodError): Record<string, string> {
   const out: Record<string, string> = {};

@@ -6,7 +6,7 @@ import { useCaseResults } from "@/components/results/use-case-results";
 import { Badge } from "@/components/ui/badge";
 import { Button } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
-import { EQUILIBRIUM_CAUTION_TEXT } from "@/lib/cases/caution";
+import { cautionGasOf, equilibriumCautionText } from "@/lib/cases/caution";
 import { warningMeaning } from "@/lib/cases/warnings";
 import type { EvaluateResult } from "@/lib/thermo/evaluate";
 import type { CaseEquilibrium } from "@/lib/validation/equilibrium";
@@ -98,9 +98,9 @@ export function EquilibriumPanel({
         )}
         {sources && <SourceComparisonView data={sources} />}
         <p className="rounded-md border border-ember-100 bg-ember-50 px-3 py-2 text-xs leading-relaxed text-ember-700" data-testid="equilibrium-caution">
-          {EQUILIBRIUM_CAUTION_TEXT}
+          {equilibriumCautionText(cautionGasOf(shown))}
         </p>
-        <Caution />
+        <Caution gas={cautionGasOf(shown)} />
       </div>
     </Card>
   );

@@ -1,3 +1,4 @@
+import { cautionGasOf, equilibriumCautionText } from "@/lib/cases/caution";
 import type { DisplayUnit } from "@/lib/cases/display-unit";
 import type { EvaluateResult } from "@/lib/thermo/evaluate";
 import { EquilibriumResults } from "./equilibrium-results";
@@ -14,6 +15,7 @@ export function EquilibriumReport({ result, sources, unit = "K" }: { result: Eva
         {info.reactions.length > 1 ? ` · reactions: ${info.reactions.join("; ")}` : ""}.
       </p>
       <EquilibriumResults result={result} compact unit={unit} />
+      <p className="text-xs text-ink-soft" data-testid="equilibrium-caution">{equilibriumCautionText(cautionGasOf(result))}</p>
       {sources && (
         <div className="break-inside-avoid">
           <SourceComparisonView data={sources} compact />

@@ -1,3 +1,4 @@
+import { noWarningsText, type CautionGas } from "@/lib/cases/caution";
 import { formatTemperature, type DisplayUnit } from "@/lib/cases/display-unit";
 import { fixed } from "@/lib/cases/format";
 import { signCaseSentence } from "@/lib/cases/sign-case";
@@ -45,8 +46,8 @@ export function ResultSummary({ result, unit = "K" }: { result: EvaluateResult; 
   );
 }
 
-export function WarningList({ warnings }: { warnings: EvaluateResult["warnings"] }) {
-  if (warnings.length === 0) return <p className="text-sm text-moss-700" data-testid="no-warnings">No warnings: every model is used inside its range, within the ideal-state assumptions (1 bar standard states, ideal-gas activities).</p>;
+export function WarningList({ warnings, gas = "ideal" }: { warnings: EvaluateResult["warnings"]; gas?: CautionGas }) {
+  if (warnings.length === 0) return <p className="text-sm text-moss-700" data-testid="no-warnings">{noWarningsText(gas)}</p>;
   return (
     <ul className="space-y-2" data-testid="warnings">
       {warnings.map((w, i) => (

@@ -5,6 +5,7 @@ import Link from "next/link";
 import { Badge } from "@/components/ui/badge";
 import { buttonClass } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
+import { cautionGasOf } from "@/lib/cases/caution";
 import type { DisplayUnit } from "@/lib/cases/display-unit";
 import { Caution } from "./caution";
 import { NumbersTable } from "./numbers-table";
@@ -47,6 +48,8 @@ export function ResultsView({ caseId, revision, stamp, initialUnit = "K" }: { ca
     );
   }
   const r = data.result;
+  // Peng–Robinson results say so in the caution; every other result keeps the ideal-gas wording.
+  const gas = cautionGasOf(r);
   return (
     <div className="space-y-4" data-testid="results">
       <div className="flex flex-wrap items-center justify-between gap-3">
@@ -76,19 +79,19 @@ export function ResultsView({ caseId, revision, stamp, initialUnit = "K" }: { ca
           </Link>
         </div>
       </div>
-      <Caution />
+      <Caution gas={gas} />
       <Card title="What the numbers say">
         <ResultSummary result={r} unit={unit} />
       </Card>
       <ResultCharts result={r} totalPoints={data.sample.total} toleranceKJ={data.inputs.toleranceKJ} toleranceKFactor={data.inputs.toleranceKFactor} unit={unit} />
       <ContributionsChart result={r} unit={unit} />
       <Card title={`Warnings (${r.warnings.length})`}>
-        <WarningList warnings={r.warnings} />
+        <WarningList warnings={r.warnings} gas={gas} />
       </Card>
       <Card title="Numbers">
         <NumbersTable caseId={caseId} revision={revision} firstPage={data.page} unit={unit} />
       </Card>
-      <Caution />
+      <Caution gas={gas} />
     </div>
   );
 }

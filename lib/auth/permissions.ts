@@ -40,7 +40,3 @@ export type Action = keyof typeof PERMISSIONS;
 export function can(role: Role | null | undefined, action: Action): boolean {
   return !!role && (PERMISSIONS[action] as readonly Role[]).includes(role);
 }
-
-export function isRole(value: unknown): value is Role {
-  return typeof value === "string" && (ROLES as readonly string[]).includes(value);
-}

@@ -1,11 +1,12 @@
 import "server-only";
-import { getIronSession, type SessionOptions } from "iron-session";
+import { getIronSession, unsealData, type SessionOptions } from "iron-session";
 import { cookies } from "next/headers";
 import { cache } from "react";
 import { isProduction } from "@/lib/env";
 import { resolveSessionSecret } from "@/lib/session-secret";
 import { actorFor, endSessionsOf } from "@/lib/services/auth";
 import type { Actor } from "./guards";
+import { unsealOnce } from "./session-cache";
 
 /** What the sealed cookie holds. `issuedAt` (ms) lets sign-out end sessions that were copied. */
 export type SessionData = { userId?: number; teamId?: number; issuedAt?: number };
@@ -29,13 +30,21 @@ export async function getSession() {
   return getIronSession<SessionData>(await cookies(), sessionOptions());
 }
 
+/** The session's data, read only: a cookie unsealed before is not unsealed again until it expires (lib/auth/session-cache.ts). */
+async function readSession(): Promise<SessionData> {
+  const seal = (await cookies()).get(SESSION_COOKIE)?.value;
+  if (!seal) return {};
+  const { password, ttl } = sessionOptions();
+  return unsealOnce(seal, (s) => unsealData<SessionData>(s, { password, ttl }));
+}
+
 /**
  * The signed-in actor, or null (no cookie, or a session ended by sign-out). Services decide what null means.
  * Asked once per server render (React's `cache`), so a page and its layout share one lookup; outside a
  * render (route handlers, server actions, tests) every call reads the cookie afresh.
  */
 export const getActor = cache(async (): Promise<Actor | null> => {
-  const session = await getSession();
+  const session = await readSession();
   if (!session.userId) return null;
   return actorFor(session.userId, session.teamId, session.issuedAt ?? 0);
 });

@@ -2,6 +2,7 @@
  * Temperatures shown in the unit the reader chose (K, °C, °F). The API and the engine stay in
  * kelvin; only labels, axes, tables and the CSV export convert. Pure and client-safe.
  */
+import { kelvinDifferenceTo, kelvinTo } from "@/lib/thermo/scales";
 import { splitQuantity, TEMPERATURE_UNITS, UNIT_LABELS, type Quantity, type TemperatureUnit } from "./temperature";
 
 export { TEMPERATURE_UNITS as DISPLAY_UNITS, UNIT_LABELS };
@@ -13,14 +14,12 @@ export function isDisplayUnit(u: unknown): u is DisplayUnit {
 
 /** An absolute temperature in kelvin → the display unit. */
 export function fromKelvin(tK: number, unit: DisplayUnit): number {
-  if (unit === "degC") return tK - 273.15;
-  if (unit === "degF") return ((tK - 273.15) * 9) / 5 + 32;
-  return tK;
+  return kelvinTo(tK, unit);
 }
 
 /** A temperature difference in kelvin → the display unit (1 K = 1 °C = 1.8 °F). */
 export function differenceFromKelvin(dK: number, unit: DisplayUnit): number {
-  return unit === "degF" ? dK * 1.8 : dK;
+  return kelvinDifferenceTo(dK, unit);
 }
 
 /** The unit a case was entered in: that of its first temperature (K when it has none). */

@@ -1,10 +1,13 @@
 /**
  * Temperatures as a case stores them: a number in kelvin, or a string with its unit
- * as entered ("25 degC", "77 degF"). Pure and client-safe; the engine parses the same
- * strings with its own unit parser.
+ * as entered ("25 degC", "77 degF"). Pure and client-safe; the conversions are those of
+ * lib/thermo/scales.ts (the one source), and the engine parses the same strings with its own
+ * unit parser.
  */
-export const TEMPERATURE_UNITS = ["K", "degC", "degF"] as const;
-export type TemperatureUnit = (typeof TEMPERATURE_UNITS)[number];
+import { kelvinDifferenceFrom, kelvinDifferenceTo, kelvinFrom, kelvinTo, TEMPERATURE_SCALES, type TemperatureScale } from "@/lib/thermo/scales";
+
+export const TEMPERATURE_UNITS = TEMPERATURE_SCALES;
+export type TemperatureUnit = TemperatureScale;
 export const UNIT_LABELS: Record<TemperatureUnit, string> = { K: "K", degC: "°C", degF: "°F" };
 
 export type Quantity = number | string;
@@ -28,17 +31,13 @@ export function joinQuantity(value: number, unit: TemperatureUnit): Quantity {
 /** An absolute temperature in K. */
 export function toKelvin(q: Quantity): number {
   const s = splitQuantity(q);
-  if (!s) return NaN;
-  if (s.unit === "degC") return s.value + 273.15;
-  if (s.unit === "degF") return ((s.value - 32) * 5) / 9 + 273.15;
-  return s.value;
+  return s ? kelvinFrom(s.value, s.unit) : NaN;
 }
 
 /** A temperature difference in K (a step of 10 degC is 10 K). */
 export function toKelvinDifference(q: Quantity): number {
   const s = splitQuantity(q);
-  if (!s) return NaN;
-  return s.unit === "degF" ? (s.value * 5) / 9 : s.value;
+  return s ? kelvinDifferenceFrom(s.value, s.unit) : NaN;
 }
 
 /** "480 K", "25 °C". */
@@ -50,9 +49,7 @@ export function formatQuantity(q: Quantity): string {
 
 /** A temperature in K shown in `unit`. */
 export function fromKelvin(k: number, unit: TemperatureUnit): number {
-  if (unit === "degC") return k - 273.15;
-  if (unit === "degF") return ((k - 273.15) * 9) / 5 + 32;
-  return k;
+  return kelvinTo(k, unit);
 }
 
 /** Rounded so that 300 K reads 26.85 °C, not 26.850000000000023. */
@@ -66,8 +63,7 @@ export function convertTemperature(value: number, from: TemperatureUnit, to: Tem
 /** A temperature difference moved from one unit to another (a step of 10 K is 10 °C and 18 °F). */
 export function convertDifference(value: number, from: TemperatureUnit, to: TemperatureUnit): number {
   if (from === to) return value;
-  const k = from === "degF" ? (value * 5) / 9 : value;
-  return tidy(to === "degF" ? (k * 9) / 5 : k);
+  return tidy(kelvinDifferenceTo(kelvinDifferenceFrom(value, from), to));
 }
 
 /**

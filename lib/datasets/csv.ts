@@ -3,6 +3,7 @@
  * the upload page previews with the same rules the server applies before it saves anything.
  */
 import Papa from "papaparse";
+import { isAboveZeroK, joulesPerMolKFrom, kelvinFrom } from "@/lib/thermo/scales";
 import { CP_UNITS, DATASET_MAX_BYTES, DATASET_MAX_ROWS, T_UNITS } from "@/lib/validation/library";
 
 export type TUnit = (typeof T_UNITS)[number];
@@ -28,18 +29,13 @@ export type DatasetParse = {
 
 export type ParseOptions = { tUnit?: TUnit | ""; cpUnit?: CpUnit | ""; maxRows?: number };
 
-const CAL = 4.184; // thermochemical calorie, J
-
+/** Conversions and the calorie come from lib/thermo/scales.ts, the one source. */
 export function toKelvin(value: number, unit: TUnit): number {
-  if (unit === "degC") return value + 273.15;
-  if (unit === "degF") return ((value - 32) * 5) / 9 + 273.15;
-  return value;
+  return kelvinFrom(value, unit);
 }
 
 export function toJPerMolK(value: number, unit: CpUnit): number {
-  if (unit === "kJ/(mol*K)") return value * 1000;
-  if (unit === "cal/(mol*K)") return value * CAL;
-  return value;
+  return joulesPerMolKFrom(value, unit);
 }
 
 const T_NAME = /^\s*(t|temp|temperature)\b/i;
@@ -178,7 +174,7 @@ export function readDatasetRows(table: string[][], options: ParseOptions = {}): 
         row.cpJ = toJPerMolK(toNumber(cp), cpUnit);
         // A cell of hundreds of digits reads as Infinity, which no fit can use (and JSON stores as null).
         if (!Number.isFinite(row.tK)) fail(names.t, `Row ${line}, column "${names.t}": "${shown(t)}" is too large to be a temperature.`);
-        else if (!(row.tK > 0)) fail(names.t, `Row ${line}, column "${names.t}": ${t.trim()} ${tUnit === "K" ? "K" : tUnit === "degC" ? "°C" : "°F"} is at or below 0 K.`);
+        else if (!isAboveZeroK(row.tK)) fail(names.t, `Row ${line}, column "${names.t}": ${t.trim()} ${tUnit === "K" ? "K" : tUnit === "degC" ? "°C" : "°F"} is at or below 0 K.`);
         if (!Number.isFinite(row.cpJ)) fail(names.cp, `Row ${line}, column "${names.cp}": "${shown(cp)}" is too large to be a heat capacity.`);
         else if (!(row.cpJ > 0)) fail(names.cp, `Row ${line}, column "${names.cp}": a heat capacity must be positive (got ${shown(cp)}).`);
       }

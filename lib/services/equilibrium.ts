@@ -7,8 +7,6 @@ import { parseSpeciesKey, type EvaluateRequest, type SourceComparison, type Spec
 import { speciesOfPin } from "@/lib/cases/equilibrium";
 import { describeData } from "@/lib/thermo/curve";
 
-export { equilibriumCsvColumns, equilibriumRequestOf, pinTerms, speciesOfPin } from "@/lib/cases/equilibrium";
-
 export type FamilyOptionDto = { family: string; versions: { key: string; versionId: number; modelName: string; versionNumber: number; citation: string }[] };
 
 /**

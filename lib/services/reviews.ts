@@ -12,7 +12,7 @@ import { listCases, type CaseDto, type CaseSummaryDto } from "./cases";
 import { caseView } from "./cases/queries";
 import { contributedVersionIds } from "./library/rows";
 import { enqueueMail } from "./mail";
-import { CAUTION_TEXT } from "@/lib/cases/caution";
+import { cautionGasOfInputs, cautionText } from "@/lib/cases/caution";
 
 export type ReviewDto = { id: number; revision: number; decision: "approved" | "returned"; reason: string | null; reviewerName: string; at: string };
 export type DecisionSummaryDto = ReviewDto & { caseId: number; caseTitle: string; authorName: string };
@@ -89,7 +89,7 @@ export async function decideCase(actor: Actor | null, caseId: number, input: Dec
           ``,
           `Open the case: ${env.APP_URL.replace(/\/$/, "")}/cases/${row.id}`,
           ``,
-          CAUTION_TEXT,
+          cautionText(cautionGasOfInputs(row.inputs)),
         ].join("\n"),
       });
     }

@@ -15,6 +15,7 @@
  * outlet composition carries the fugacity coefficients but the residual enthalpy is neglected.
  */
 import { refuse } from "./errors";
+import { requireAboveZeroK } from "./grid";
 import type { Composition, EquilibriumContext } from "./equilibrium";
 import { brent } from "./roots";
 import { fmt, termAt, type EngineWarning, type SpeciesModel } from "./species";
@@ -112,7 +113,7 @@ export function adiabaticOutlet(input: AdiabaticInput): { result: AdiabaticResul
     refuse("adiabatic-needs-equilibrium", "adiabatic: an adiabatic outlet needs an equilibrium feed; add equilibrium { feed, pressureBar }");
   }
   const inletK = parseTemperatureK(input.adiabatic.inletK, "adiabatic.inletK");
-  if (!(inletK > 0)) refuse("nonpositive-temperature", `adiabatic.inletK: temperatures must be above 0 K (got ${fmt(inletK)} K)`);
+  requireAboveZeroK(inletK, "adiabatic.inletK", undefined, fmt(inletK));
 
   const S = ctx.list.length;
   const models: SpeciesModel[] = ctx.list.map((sp) => {

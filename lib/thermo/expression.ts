@@ -8,7 +8,7 @@ import { refuse } from "./errors";
 
 const math = create(all, {});
 
-export const ALLOWED_FUNCTIONS = new Set([
+export const ALLOWED_FUNCTIONS: ReadonlySet<string> = new Set([
   "exp", "log", "log10", "log2", "sqrt", "cbrt", "abs", "pow",
   "sin", "cos", "tan", "sinh", "cosh", "tanh", "min", "max",
 ]);

@@ -7,6 +7,7 @@
 import numeric from "numeric";
 import { R, T298 } from "./constants";
 import { refuse } from "./errors";
+import { ABOVE_ZERO_K, isAboveZeroK } from "./scales";
 import { describeIssue, fitRequestSchema, missingIsRequired, type FitRequest, type SegmentInput } from "./schema";
 
 export interface FitResult {
@@ -101,8 +102,8 @@ export function fitCp(request: FitRequest): FitResult {
     if (!Number.isFinite(pt.tK) || !Number.isFinite(pt.cpJ) || (pt.sigmaJ !== undefined && !Number.isFinite(pt.sigmaJ))) {
       refuse("fit-nonfinite", `fit: point ${i + 1} has a non-finite value`, { point: i + 1 });
     }
-    if (pt.tK <= 0) {
-      refuse("fit-nonpositive-temperature", `fit: point ${i + 1} is at ${pt.tK} K; temperatures must be above 0 K`, { point: i + 1 });
+    if (!isAboveZeroK(pt.tK)) {
+      refuse("fit-nonpositive-temperature", `fit: point ${i + 1} is at ${pt.tK} K; ${ABOVE_ZERO_K}`, { point: i + 1 });
     }
     if (pt.sigmaJ !== undefined && pt.sigmaJ <= 0) {
       refuse("fit-invalid-sigma", `fit: point ${i + 1} has sigmaJ ${pt.sigmaJ}; an uncertainty must be positive`, { point: i + 1 });

@@ -2,9 +2,10 @@
  * Cp forms. Each compiles to a Cp(T) function in J/(mol·K) over its stated range; the
  * forms that publish integration constants (shomate, nasa7, nasa9) also give H and S from
  * those constants, which the engine uses only to anchor a segment at one temperature.
- * To add a form: extend `segmentSchema` in schema.ts, add a case here, and (if it carries
- * constants) a `constants` pair; `cpBatch` is optional (a loop over `cp` is the default) —
- * the integrator needs nothing else.
+ * To add a form: extend `segmentSchema` (and `CP_FORMS`) in schema.ts, add a case to
+ * `compileForm` here, and (if it carries constants) a `constants` pair — a segment with
+ * constants anchors itself (species-model.ts); `cpBatch` is optional (a loop over `cp` is the
+ * default, `batchOf` in integrate-batch.ts) — the integrator needs nothing else.
  */
 import { R as GAS_CONSTANT } from "./constants";
 
@@ -13,7 +14,8 @@ import { R as GAS_CONSTANT } from "./constants";
 const R = GAS_CONSTANT + 0;
 import { refuse } from "./errors";
 import { compileCpExpression } from "./expression";
-import { batchOf, type CpBatch } from "./integrate";
+import { requireAboveZeroK } from "./grid";
+import { batchOf, type CpBatch } from "./integrate-batch";
 import type { CpForm, ParsedSegment } from "./schema";
 import { makeTableInterpolant } from "./table";
 import { parseMolarEntropyJ, parseTemperatureK } from "./units";
@@ -37,8 +39,6 @@ export interface CompiledSegment {
   constants?: { hJ: (tK: number) => number; sJ: (tK: number) => number };
 }
 
-export const FORMS_WITH_CONSTANTS: ReadonlySet<CpForm> = new Set(["shomate", "nasa7", "nasa9"]);
-
 /** Compile one validated segment; `label` names it in messages (e.g. `species "CO(g)" segment 1`). */
 export function compileSegment(seg: ParsedSegment, label: string): CompiledSegment {
   const compiled = compileForm(seg, label);
@@ -48,7 +48,7 @@ export function compileSegment(seg: ParsedSegment, label: string): CompiledSegme
 function compileForm(seg: ParsedSegment, label: string): Omit<CompiledSegment, "cpBatch"> & { cpBatch?: CpBatch } {
   const tminK = parseTemperatureK(seg.tminK, `${label}.tminK`);
   const tmaxK = parseTemperatureK(seg.tmaxK, `${label}.tmaxK`);
-  if (!(tminK > 0)) refuse("nonpositive-temperature", `${label}.tminK: temperatures must be above 0 K (got ${tminK} K)`);
+  requireAboveZeroK(tminK, `${label}.tminK`);
   if (!(tmaxK > tminK)) refuse("invalid-segment", `${label}: tmaxK (${tmaxK} K) must be above tminK (${tminK} K)`);
   const base = { phase: seg.phase, form: seg.form, tminK, tmaxK };
   switch (seg.form) {
@@ -173,7 +173,7 @@ function compileForm(seg: ParsedSegment, label: string): Omit<CompiledSegment, "
           refuse("invalid-table", `${label}.coeffs.points: temperatures must increase strictly (point ${i + 1}: ${pts[i][0]} K after ${pts[i - 1][0]} K)`);
         }
       }
-      if (pts[0][0] <= 0) refuse("nonpositive-temperature", `${label}.coeffs.points: temperatures must be above 0 K (got ${pts[0][0]} K)`);
+      requireAboveZeroK(pts[0][0], `${label}.coeffs.points`);
       const first = pts[0][0];
       const last = pts[pts.length - 1][0];
       if (tminK < first - 1e-9 || tmaxK > last + 1e-9) {

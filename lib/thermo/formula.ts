@@ -6,7 +6,7 @@ import { refuse } from "./errors";
  * table). Elements without a standard atomic weight carry the mass number of their
  * longest-lived isotope, as the IUPAC table does in brackets. D is deuterium.
  */
-export const ATOMIC_WEIGHTS: Readonly<Record<string, number>> = {
+export const ATOMIC_WEIGHTS: Readonly<Record<string, number>> = Object.freeze({
   H: 1.008, D: 2.0141, He: 4.0026, Li: 6.94, Be: 9.0122, B: 10.81, C: 12.011, N: 14.007, O: 15.999,
   F: 18.998, Ne: 20.18, Na: 22.99, Mg: 24.305, Al: 26.982, Si: 28.085, P: 30.974, S: 32.06,
   Cl: 35.45, Ar: 39.95, K: 39.098, Ca: 40.078, Sc: 44.956, Ti: 47.867, V: 50.942, Cr: 51.996,
@@ -19,7 +19,7 @@ export const ATOMIC_WEIGHTS: Readonly<Record<string, number>> = {
   Ta: 180.95, W: 183.84, Re: 186.21, Os: 190.23, Ir: 192.22, Pt: 195.08, Au: 196.97, Hg: 200.59,
   Tl: 204.38, Pb: 207.2, Bi: 208.98, Po: 209, At: 210, Rn: 222, Fr: 223, Ra: 226, Ac: 227,
   Th: 232.04, Pa: 231.04, U: 238.03, Np: 237, Pu: 244,
-};
+});
 
 export interface ParsedFormula {
   elements: Record<string, number>;

@@ -2,11 +2,26 @@
 import { MAX_POINTS, MAX_TEMPERATURE_K, MIN_TEMPERATURE_K } from "./constants";
 import { refuse } from "./errors";
 import type { EvaluateRequest } from "./schema";
+import { ABOVE_ZERO_K, isAboveZeroK } from "./scales";
 import { parseTemperatureDifferenceK, parseTemperatureK } from "./units";
 
+/**
+ * The engine's one check of an absolute temperature: refuses T ≤ 0 K (and NaN) as
+ * `nonpositive-temperature`, `${field}: temperatures must be above 0 K (got … K)`; `shown`
+ * is how the value is written in the message.
+ */
+export function requireAboveZeroK(tK: number, field: string, details?: unknown, shown: string = String(tK)): number {
+  if (!isAboveZeroK(tK)) refuse("nonpositive-temperature", `${field}: ${ABOVE_ZERO_K} (got ${shown} K)`, details);
+  return tK;
+}
+
+/** Above 0 K and inside the supported 1 K to 100 000 K: a grid temperature, referenceK, a reference or transition temperature. */
+export function requireTemperatureK(tK: number, field: string, details?: unknown): number {
+  return inSupportedRange(requireAboveZeroK(tK, field, details), field);
+}
+
 function positive(tK: number, field: string): number {
-  if (!(tK > 0)) refuse("nonpositive-temperature", `${field}: temperatures must be above 0 K (got ${tK} K)`, { field });
-  return inSupportedRange(tK, field);
+  return requireTemperatureK(tK, field, { field });
 }
 
 /** Refuses a temperature outside the supported 1 K to 100 000 K (`temperature-out-of-range`). */

@@ -4,10 +4,11 @@
  */
 import { all, create, type Unit } from "mathjs";
 import { refuse } from "./errors";
+import { CALORIE_J } from "./scales";
 
 const math = create(all, {});
-// mathjs has no calorie; the thermochemical calorie is defined here, once.
-math.createUnit("cal", { definition: "4.184 J", prefixes: "short", aliases: ["calorie", "calories"] });
+// mathjs has no calorie; the thermochemical calorie comes from scales.ts (the one definition).
+math.createUnit("cal", { definition: `${CALORIE_J} J`, prefixes: "short", aliases: ["calorie", "calories"] });
 
 interface Dimension {
   /** Unit a bare number in this field is taken to be in, and the unit results are given in. */
@@ -16,11 +17,11 @@ interface Dimension {
   expected: string;
 }
 
-export const TEMPERATURE: Dimension = { unit: "K", expected: "a temperature (K, degC or degF)" };
-export const MOLAR_ENERGY_KJ: Dimension = { unit: "kJ/mol", expected: "an energy per amount (J/mol, kJ/mol, cal/mol, kcal/mol)" };
-export const MOLAR_ENTROPY_J: Dimension = { unit: "J/(mol K)", expected: "an entropy or heat capacity per amount (J/(mol K), cal/(mol K))" };
-export const PRESSURE_PA: Dimension = { unit: "Pa", expected: "a pressure (Pa, kPa, bar, atm, psi)" };
-export const PRESSURE_BAR: Dimension = { unit: "bar", expected: "a pressure (bar, Pa, kPa, MPa, atm, psi)" };
+export const TEMPERATURE: Readonly<Dimension> = Object.freeze({ unit: "K", expected: "a temperature (K, degC or degF)" });
+export const MOLAR_ENERGY_KJ: Readonly<Dimension> = Object.freeze({ unit: "kJ/mol", expected: "an energy per amount (J/mol, kJ/mol, cal/mol, kcal/mol)" });
+export const MOLAR_ENTROPY_J: Readonly<Dimension> = Object.freeze({ unit: "J/(mol K)", expected: "an entropy or heat capacity per amount (J/(mol K), cal/(mol K))" });
+export const PRESSURE_PA: Readonly<Dimension> = Object.freeze({ unit: "Pa", expected: "a pressure (Pa, kPa, bar, atm, psi)" });
+export const PRESSURE_BAR: Readonly<Dimension> = Object.freeze({ unit: "bar", expected: "a pressure (bar, Pa, kPa, MPa, atm, psi)" });
 
 const PLAIN_NUMBER = /^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/;
 

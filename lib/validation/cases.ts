@@ -1,6 +1,7 @@
 /** Case, review and comment shapes, shared by the builder form, the route handlers and the services. zod only. */
 import { z } from "zod";
 import { strictObject } from "@/lib/validation/strict";
+import { aboveZeroKSentence, isAboveZeroK } from "@/lib/thermo/scales";
 import { elementBalance, termKey } from "@/lib/cases/balance";
 import { PHASE_NAME } from "@/lib/thermo/formula";
 import { splitQuantity, toKelvin, toKelvinDifference, type Quantity } from "@/lib/cases/temperature";
@@ -40,7 +41,7 @@ export type CaseTerm = z.infer<typeof termSchema>;
 const absolute = quantity.superRefine((q, ctx) => {
   if (splitQuantity(q as Quantity) === null) return;
   const k = toKelvin(q as Quantity);
-  if (!(k > 0)) ctx.addIssue({ code: "custom", message: `Temperatures must be above 0 K (this is ${Number(k.toFixed(6))} K).` });
+  if (!isAboveZeroK(k)) ctx.addIssue({ code: "custom", message: aboveZeroKSentence(k) });
 });
 const difference = quantity.superRefine((q, ctx) => {
   if (splitQuantity(q as Quantity) === null) return;
@@ -58,7 +59,6 @@ const spanSchema = strictObject({ fromK: absolute, toK: absolute, stepK: differe
 });
 const listSchema = strictObject({ listK: z.array(absolute).min(1, "Enter at least one temperature.").max(MAX_CASE_POINTS, `Use at most ${MAX_CASE_POINTS} temperatures.`) });
 export const caseTemperaturesSchema = z.union([spanSchema, listSchema], { error: "Give a span (from, to, step) or a list of temperatures." });
-export type CaseTemperatures = z.infer<typeof caseTemperaturesSchema>;
 
 /** Each field of a case once, without defaults: a create fills the defaults in, a PATCH names only what changes. */
 const caseFields = {

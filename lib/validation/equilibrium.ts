@@ -3,6 +3,7 @@ import { z } from "zod";
 import { checkFeedUnit, checkPressure, checkReactionLine, checkSpeciesKey } from "@/lib/cases/equilibrium-form";
 import { PHASE_NAME } from "@/lib/thermo/formula";
 import { strictObject } from "@/lib/validation/strict";
+import { aboveZeroKSentence } from "@/lib/thermo/scales";
 
 const speciesKey = z.string().trim().min(1, "Name a species.").max(80, "Use at most 80 characters.");
 
@@ -30,7 +31,7 @@ export const caseEquilibriumSchema = strictObject({
     /** Gas-phase model: ideal-gas activities (absent or "ideal"), or Peng–Robinson fugacity coefficients. */
     gas: z.enum(["ideal", "peng-robinson"], { error: "Pick ideal gas or Peng–Robinson." }).optional(),
     /** Adiabatic outlet: the feed's inlet temperature (K, or with a unit); null for none. */
-    adiabaticInletK: z.union([z.number({ error: "Enter a temperature." }).positive("Use a temperature above 0 K."), z.string().trim().min(1, "Enter a temperature.").max(40)]).nullable().optional(),
+    adiabaticInletK: z.union([z.number({ error: "Enter a temperature." }).positive(aboveZeroKSentence()), z.string().trim().min(1, "Enter a temperature.").max(40)]).nullable().optional(),
     /** Feed species that take no part in any reaction and only ride along (N2(g) in a reformer). */
     inert: z.array(speciesKey).max(20, "Use at most 20 inert species.").default([]),
   })

@@ -4,14 +4,13 @@
  */
 import { z } from "zod";
 import { strictObject } from "@/lib/validation/strict";
+import { aboveZeroKSentence } from "@/lib/thermo/scales";
 import { CP_FORMS, FIT_FORMS, phaseSchema, speciesSchema } from "@/lib/thermo/schema";
 import { hasControl, ONE_LINE, oneLine, searchText } from "./text";
 
 export const VERSION_STATUS_FILTERS = ["current", "approved", "proposed", "draft", "rejected", "superseded", "all"] as const;
-export type VersionStatusFilter = (typeof VERSION_STATUS_FILTERS)[number];
 
 /** Data families of the seeded reference library, and the team's own. */
-export const MODEL_FAMILIES = ["nasa7-2015", "nasa7-gri30", "shomate-janaf", "measured", "custom"] as const;
 export const FAMILY_LABELS: Record<string, string> = {
   "nasa7-2015": "NASA-7, third-millennium (2015)",
   "nasa7-gri30": "NASA-7, GRI-Mech 3.0",
@@ -102,8 +101,8 @@ export const PREVIEW_MAX_POINTS = 400;
 export const previewSchema = strictObject({
   /** Validated by the engine, which names the field that is wrong. */
   data: z.unknown(),
-  fromK: z.number().positive("Temperatures must be above 0 K.").optional(),
-  toK: z.number().positive("Temperatures must be above 0 K.").optional(),
+  fromK: z.number().positive(aboveZeroKSentence()).optional(),
+  toK: z.number().positive(aboveZeroKSentence()).optional(),
   points: z.number().int().min(2).max(PREVIEW_MAX_POINTS).optional(),
   phase: phaseSchema.optional(),
 });
@@ -137,7 +136,7 @@ export const datasetUploadSchema = strictObject({
 });
 export type DatasetUploadInput = z.input<typeof datasetUploadSchema>;
 
-const positiveK = z.number({ error: "Enter a temperature in K." }).positive("Temperatures must be above 0 K.");
+const positiveK = z.number({ error: "Enter a temperature in K." }).positive(aboveZeroKSentence());
 
 export const fitParamsSchema = strictObject({
     form: z.enum(FIT_FORMS, { error: `Choose a form to fit: ${FIT_FORMS.join(", ")}.` }),

@@ -14,4 +14,3 @@ export type ActionRow = {
 };
 
 export const everyone = (o: Outcome): ActionExpect => ({ anonymous: o, engineer: o, steward: o, reviewer: o, admin: o, other: o });
-export const membersOnly = (o: Outcome): ActionExpect => ({ anonymous: 401, engineer: o, steward: o, reviewer: o, admin: o, other: o });

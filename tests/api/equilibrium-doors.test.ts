@@ -15,7 +15,7 @@ beforeAll(() => freshDatabase());
 
 // Shomate fits to NIST-JANAF (Chase 1998), from ../shared/reference/cp-coefficients.json; CODATA
 // Key Values uncertainties for CO (from memory).
-const sp = (n: string): SpeciesInput => speciesEntry("shomate", n, "g");
+const sp = (n: string): SpeciesInput => speciesEntry("shomate-janaf", n, "g");
 const request = {
   reaction: "CH4(g) + H2O(g) -> CO(g) + 3 H2(g)",
   species: {

@@ -132,6 +132,7 @@ const NESTED: { row: string; edit: (body: Record<string, unknown>) => Record<str
   { row: "equilibrium save", edit: (b) => ({ ...b, equilibrium: { ...(b.equilibrium as object), feedUnits: "mol" } }), typo: "feedUnits", meant: "feedUnit" },
   { row: "save fit as draft", edit: (b) => ({ ...b, fit: { ...(b.fit as object), tmin: 300 } }), typo: "tmin", meant: "tminK" },
   { row: "fit", edit: (b) => ({ ...b, reference: { ...(b.reference as object), hKj: 1 } }), typo: "hKj", meant: "hkJ" },
+  { row: "species critical constants", edit: (b) => ({ critical: { ...(b.critical as object), omgea: 0.1 } }), typo: "omgea", meant: "omega" },
   {
     row: "import",
     edit: (b) => ({ ...b, models: (b.models as { versions: object[] }[]).map((m) => ({ ...m, versions: m.versions.map((v) => ({ ...v, chngeNote: "x" })) })) }),

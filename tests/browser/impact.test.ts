@@ -3,7 +3,7 @@
  * proposes a v2 whose ΔfH° is 1.5 kJ/mol higher (synthetic, invented for this test); Stella
  * opens the version page, watches the background run finish and sees the case flagged beyond
  * its 1 kJ/mol tolerance, approves, and the run after approval appears. Also the real-gas and
- * adiabatic demo draft's equilibrium panel. Screenshots: test-results/screens/impact-*.png,
+ * adiabatic demo draft's equilibrium panel and its cautions' wording. Screenshots: test-results/screens/impact-*.png,
  * equilibrium-real-gas-*.png.
  */
 import type { Page } from "playwright-core";
@@ -99,6 +99,15 @@ describe("real gas and adiabatic outlet in the equilibrium panel", () => {
     expect(await panel.getByLabel("Gas model").inputValue()).toBe("peng-robinson");
     const outlet = await panel.getByTestId("adiabatic-outlet").innerText();
     expect(Number(outlet.split(" ")[0])).toBeGreaterThan(750);
+    // The cautions name the gas model: Peng–Robinson fugacity coefficients, not ideal-gas activities.
+    const caution = panel.getByTestId("caution");
+    expect(await caution.getAttribute("data-gas")).toBe("peng-robinson");
+    expect(await caution.innerText()).toContain("Peng–Robinson fugacity coefficients");
+    expect(await caution.innerText()).not.toContain("ideal-gas activities");
+    expect(await panel.getByTestId("equilibrium-caution").innerText()).toContain("beyond what the Peng–Robinson equation captures");
+    const resultsCaution = page.getByTestId("results").getByTestId("caution").first();
+    await resultsCaution.waitFor();
+    expect(await resultsCaution.getAttribute("data-gas")).toBe("peng-robinson");
     await panel.getByTestId("adiabatic-summary").scrollIntoViewIfNeeded();
     await shot(page, "equilibrium-real-gas-ammonia-bed");
     // Back to ideal gas for a trial: the fugacity table goes, the adiabatic outlet stays.
@@ -107,6 +116,8 @@ describe("real gas and adiabatic outlet in the equilibrium panel", () => {
     await panel.getByText("Trial run, not saved").waitFor();
     expect(await panel.getByTestId("fugacity-table").count()).toBe(0);
     await panel.getByTestId("adiabatic-summary").waitFor();
+    expect(await caution.getAttribute("data-gas")).toBe("ideal");
+    expect(await caution.innerText()).toContain("ideal-gas activities");
     await signOut(page);
   });
 });

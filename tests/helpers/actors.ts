@@ -2,7 +2,6 @@ import type { Actor } from "@/lib/auth/guards";
 import { startSession } from "@/lib/auth/session";
 import { actorFor } from "@/lib/services/auth";
 import { models } from "@/lib/db";
-import { DEMO_ACCOUNTS } from "@/seeders/demo-accounts";
 import { cookieJar } from "./cookies";
 
 export type Who = "anonymous" | "engineer" | "steward" | "steward2" | "reviewer" | "admin" | "other";
@@ -32,5 +31,3 @@ export async function signInAs(who: Who): Promise<Actor | null> {
   await startSession(actor.userId, actor.teamId);
   return actor;
 }
-
-export { DEMO_ACCOUNTS };

@@ -1,11 +1,11 @@
 /**
  * Approved global reference versions for case tests, built from the published
- * NASA-7 sets in ../shared/reference/cp-coefficients.json (Goos, Burcat & Ruscic 2015
- * update). Reuses what the library seeders loaded when they ran; creates the rest.
+ * nasa7-2015 sets in ../shared/reference/cp-coefficients.json (NASA-7, third-millennium
+ * database, 2015 update). Reuses what the library seeders loaded when they ran; creates the rest.
  */
 import { models } from "@/lib/db";
 import { parseFormula, type SegmentInput } from "@/lib/thermo";
-import { records, type CoefficientRecord } from "../thermo/reference-data";
+import { familyOf, records, type CoefficientRecord } from "../thermo/reference-data";
 
 export const FAMILY = "nasa7-2015";
 const FORMULAS = ["H2", "O2", "N2", "H2O", "CO", "CO2", "CH4", "NH3"] as const;
@@ -24,7 +24,7 @@ function segments(r: CoefficientRecord): SegmentInput[] {
 /** formula → id of an approved global version of that species' nasa7-2015 model. */
 export async function ensureReferenceLibrary(): Promise<Record<RefFormula, number>> {
   const { Species, CpModel, ModelVersion } = models();
-  const burcat = records().filter((r) => r.form === "nasa7" && r.source.startsWith("Goos"));
+  const sets = records().filter((r) => familyOf(r) === FAMILY);
   const out = {} as Record<RefFormula, number>;
   for (const formula of FORMULAS) {
     const [species] = await Species.findOrCreate({
@@ -38,7 +38,7 @@ export async function ensureReferenceLibrary(): Promise<Record<RefFormula, numbe
       out[formula] = approved.id;
       continue;
     }
-    const mine = burcat.filter((r) => r.species === formula);
+    const mine = sets.filter((r) => r.species === formula);
     const seen = new Set<string>();
     const segs = mine.filter((r) => !seen.has(r.phase) && seen.add(r.phase)).flatMap(segments);
     const v = await ModelVersion.create({

@@ -7,7 +7,7 @@ import { speciesEntry } from "../thermo/reference-data";
 // Water–gas shift on the third-millennium NASA-7 sets (2015 update), ../shared/reference/cp-coefficients.json.
 const request = (include: ("contributions" | "species")[]) => ({
   reaction: "CO(g) + H2O(g) -> CO2(g) + H2(g)",
-  species: Object.fromEntries(["CO", "H2O", "CO2", "H2"].map((f) => [`${f}(g)`, speciesEntry("burcat", f, "g")])),
+  species: Object.fromEntries(["CO", "H2O", "CO2", "H2"].map((f) => [`${f}(g)`, speciesEntry("nasa7-2015", f, "g")])),
   temperatures: { fromK: 300, toK: 1500, stepK: 1 },
   include,
 });

@@ -1,36 +1,24 @@
 /**
  * Measured-data uploads: CSV rules (exact messages, nothing saved on refusal), units,
  * limits, checksum, fitting through the engine and saving the fit as a linked draft.
- * The data points are invented for the tests.
+ * The data points are synthetic, invented for this test (tests/helpers/library.ts); the fits are
+ * anchored on the MgO(cr) values of CODATA (from memory, see MGO_ANCHOR there).
  */
 import crypto from "node:crypto";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { parseDatasetCsv } from "@/lib/datasets/csv";
 import { closeDb } from "@/lib/db";
-import { AppError } from "@/lib/errors";
 import * as ds from "@/lib/services/datasets";
 import * as lib from "@/lib/services/library";
 import { computeCurve } from "@/lib/thermo/curve";
 import { DATASET_MAX_ROWS } from "@/lib/validation/library";
 import { actorOf } from "../helpers/actors";
 import { freshDatabase, tableCounts } from "../helpers/db";
+import { MAGNESIA, MGO_ANCHOR, syntheticCp as mk, syntheticCpCsv as exact } from "../helpers/library";
+import { refusal } from "../helpers/refusal";
 
 beforeAll(() => freshDatabase());
 afterAll(() => closeDb());
-
-async function refusal(p: Promise<unknown>): Promise<AppError> {
-  try {
-    await p;
-  } catch (e) {
-    if (e instanceof AppError) return e;
-    throw e;
-  }
-  throw new Error("expected a refusal");
-}
-
-// Invented: Cp = 40 + 0.02 T − 2e5/T² on a 25 K grid, exactly (no noise).
-const mk = (t: number) => 40 + 0.02 * t - 2e5 / t ** 2;
-const exact = ["T (K),Cp (J/mol/K)", ...Array.from({ length: 13 }, (_, i) => 300 + 50 * i).map((t) => `${t},${mk(t)}`)].join("\n");
 
 describe("CSV rules", () => {
   it("refuses bad rows with row and column, and saves nothing", async () => {
@@ -78,11 +66,12 @@ describe("upload, fit, save as draft", () => {
   it("stores SI points with a SHA-256, fits Maier–Kelley back exactly, saves a linked draft", async () => {
     const sam = await actorOf("steward");
     const erin = await actorOf("engineer");
-    const dataset = await ds.uploadDataset(erin, { name: "Exact run", filename: "exact.csv", text: exact, species: { formula: "MgO", displayName: "Magnesia (test)" } });
+    const dataset = await ds.uploadDataset(erin, { name: "Exact run", filename: "exact.csv", text: exact, species: MAGNESIA });
     expect(dataset).toMatchObject({ pointCount: 13, rangeK: [300, 900], tUnit: "K", sizeBytes: Buffer.byteLength(exact), sha256: crypto.createHash("sha256").update(exact).digest("hex") });
     // Engineers upload; fitting is steward work.
     expect((await refusal(ds.fitDataset(erin, dataset.id, { form: "maier-kelley" }))).status).toBe(403);
-    const fit = await ds.fitDataset(sam, dataset.id, { form: "maier-kelley", phase: "cr", reference: { tK: 298.15, hkJ: -601.6, sJ: 26.95 } });
+    const fit = await ds.fitDataset(sam, dataset.id, { form: "maier-kelley", phase: "cr", reference: MGO_ANCHOR });
+    // The synthetic curve's own coefficients, back from noise-free data (round-off allowance, common practice).
     expect(fit.coefficients.a).toBeCloseTo(40, 8);
     expect(fit.coefficients.b).toBeCloseTo(0.02, 10);
     expect(fit.coefficients.c / -2e5).toBeCloseTo(1, 8);
@@ -93,10 +82,11 @@ describe("upload, fit, save as draft", () => {
     const ranged = await ds.fitDataset(sam, dataset.id, { form: "maier-kelley", phase: "cr", tminK: 400, tmaxK: 800 });
     expect([ranged.points, ranged.tminK, ranged.tmaxK, ranged.data]).toEqual([9, 400, 800, null]);
 
-    const e = await refusal(ds.saveFitAsDraft(sam, dataset.id, { fit: { form: "nasa7", phase: "cr" }, citation: "Invented test data" }));
+    const e = await refusal(ds.saveFitAsDraft(sam, dataset.id, { fit: { form: "nasa7", phase: "cr" }, citation: "Synthetic, invented for this test" }));
     expect(e.message).toBe("reference: enter H (kJ/mol) and S (J/(mol·K)) at the reference temperature, so the fitted model can give H and S as well as Cp.");
-    const draft = await ds.saveFitAsDraft(sam, dataset.id, { fit: { form: "maier-kelley", phase: "cr", reference: { tK: 298.15, hkJ: -601.6, sJ: 26.95 } }, citation: "Invented test data" });
+    const draft = await ds.saveFitAsDraft(sam, dataset.id, { fit: { form: "maier-kelley", phase: "cr", reference: MGO_ANCHOR }, citation: "Synthetic, invented for this test" });
     expect(draft).toMatchObject({ status: "draft", datasetId: dataset.id, versionNumber: 1, model: { family: "measured", name: "MgO · fitted to Exact run" } });
+    // MGO_ANCHOR, stored with the phase of the fit.
     expect(draft.data.reference).toEqual({ tK: 298.15, phase: "cr", hkJ: -601.6, sJ: 26.95 });
     const curve = computeCurve(draft.data, { fromK: 300, toK: 900, points: 7 });
     expect(curve.points[2].cpJ).toBeCloseTo(mk(500), 8);
@@ -105,9 +95,9 @@ describe("upload, fit, save as draft", () => {
 
   it("a dataset uploaded with its phase is fitted in that phase when the fit does not say", async () => {
     const sam = await actorOf("steward");
-    const dataset = await ds.uploadDataset(sam, { name: "Gas run", text: exact, species: { formula: "MgO", displayName: "Magnesia (test)" }, phase: "g" });
+    const dataset = await ds.uploadDataset(sam, { name: "Gas run", text: exact, species: MAGNESIA, phase: "g" });
     expect(dataset.phase).toBe("g");
-    const draft = await ds.saveFitAsDraft(sam, dataset.id, { fit: { form: "maier-kelley", reference: { tK: 298.15, hkJ: -601.6, sJ: 26.95 } }, citation: "Invented test data" });
+    const draft = await ds.saveFitAsDraft(sam, dataset.id, { fit: { form: "maier-kelley", reference: MGO_ANCHOR }, citation: "Synthetic, invented for this test" });
     expect(draft.data.segments[0].phase).toBe("g");
     expect(draft.data.reference?.phase).toBe("g");
   });

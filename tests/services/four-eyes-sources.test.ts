@@ -6,37 +6,25 @@
 import { Op } from "sequelize";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb, models } from "@/lib/db";
-import { AppError } from "@/lib/errors";
 import * as ds from "@/lib/services/datasets";
 import * as lib from "@/lib/services/library";
 import { actorOf } from "../helpers/actors";
 import { freshDatabase } from "../helpers/db";
+import { createDraft, MAGNESIA, MGO_ANCHOR, solidData as solid, syntheticCpCsv as csv } from "../helpers/library";
+import { refusal } from "../helpers/refusal";
 
 beforeAll(() => freshDatabase());
 afterAll(() => closeDb());
 
-async function refusal(p: Promise<unknown>): Promise<AppError> {
-  try {
-    await p;
-  } catch (e) {
-    if (e instanceof AppError) return e;
-    throw e;
-  }
-  throw new Error("expected a refusal");
-}
-
-// Synthetic, invented for this test: Cp = 40 + 0.02 T − 2e5/T² on a 50 K grid.
-const mk = (t: number) => 40 + 0.02 * t - 2e5 / t ** 2;
-const csv = ["T (K),Cp (J/mol/K)", ...Array.from({ length: 13 }, (_, i) => 300 + 50 * i).map((t) => `${t},${mk(t)}`)].join("\n");
-const fit = { form: "maier-kelley" as const, phase: "cr" as const, reference: { tK: 298.15, hkJ: -601.6, sJ: 26.95 } };
-const solid = (cpJ = 120) => ({ segments: [{ phase: "cr", form: "constant" as const, tminK: 250, tmaxK: 900, coeffs: { cpJ } }], reference: { tK: 298.15, phase: "cr", hkJ: -1000, sJ: 80 } });
+// The synthetic Cp data (tests/helpers/library.ts), fitted with the MgO anchor.
+const fit = { form: "maier-kelley" as const, phase: "cr" as const, reference: MGO_ANCHOR };
 
 let n = 0;
 /** A dataset uploaded by `who`, fitted and saved as a draft by Sam. */
 async function fittedBySam(uploader: "steward2" | "steward" | "engineer") {
   const up = await actorOf(uploader);
-  const dataset = await ds.uploadDataset(up, { name: `Four-eyes run ${++n}`, text: csv, species: { formula: "MgO", displayName: "Magnesia (test)" } });
-  return ds.saveFitAsDraft(await actorOf("steward"), dataset.id, { fit, citation: "Invented test data" });
+  const dataset = await ds.uploadDataset(up, { name: `Four-eyes run ${++n}`, text: csv, species: MAGNESIA });
+  return ds.saveFitAsDraft(await actorOf("steward"), dataset.id, { fit, citation: "Synthetic, invented for this test" });
 }
 
 /** Who the "proposed" mail queued by `propose` goes to (one queue row per recipient or several). */
@@ -81,7 +69,7 @@ describe("the proposed mail goes to the stewards who may decide", () => {
   it("an editing steward does not hear of the proposal; the other steward does", async () => {
     const erin = await actorOf("engineer");
     const sam = await actorOf("steward");
-    const { version } = await lib.createModel(erin, { species: { formula: "ZrO2", displayName: "Zirconia" }, name: `Mail ${++n}`, version: { data: solid(), citation: "Invented for the test" } });
+    const { version } = await createDraft("engineer", `Mail ${++n}`);
     await lib.editVersion(sam, version.id, { lockVersion: 0, data: solid(130) });
     expect(await proposedMailOf(() => lib.proposeVersion(erin, version.id))).toEqual(["stella.steward@example.test"]);
   });
@@ -89,7 +77,7 @@ describe("the proposed mail goes to the stewards who may decide", () => {
   it("a proposing steward does not mail themself; the uploader is left out too", async () => {
     const sam = await actorOf("steward");
     const stella = await actorOf("steward2");
-    const { version } = await lib.createModel(await actorOf("engineer"), { species: { formula: "ZrO2", displayName: "Zirconia" }, name: `Mail ${++n}`, version: { data: solid(), citation: "Invented for the test" } });
+    const { version } = await createDraft("engineer", `Mail ${++n}`);
     expect(await proposedMailOf(() => lib.proposeVersion(stella, version.id))).toEqual(["sam.steward@example.test"]);
 
     // Stella uploaded, Sam fitted and proposed: no steward may decide, so the admin hears of it.

@@ -5,35 +5,23 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb, models } from "@/lib/db";
-import { AppError } from "@/lib/errors";
 import * as lib from "@/lib/services/library";
 import { homeCounts } from "@/lib/services/reviews";
 import { createCase, updateCase } from "@/lib/services/cases";
 import { actorOf } from "../helpers/actors";
 import { freshDatabase } from "../helpers/db";
 import { shiftCase } from "../helpers/cases";
+import { createDraft, solidData as solid } from "../helpers/library";
 import { ensureReferenceLibrary } from "../helpers/reference-library";
+import { refusal } from "../helpers/refusal";
 import { caseInputSchema } from "@/lib/validation/cases";
 
 beforeAll(() => freshDatabase());
 afterAll(() => closeDb());
 
-const solid = (cpJ = 120) => ({ segments: [{ phase: "cr", form: "constant" as const, tminK: 250, tmaxK: 900, coeffs: { cpJ } }], reference: { tK: 298.15, phase: "cr", hkJ: -1000, sJ: 80 } });
-
-async function refusal(p: Promise<unknown>): Promise<AppError> {
-  try {
-    await p;
-  } catch (e) {
-    if (e instanceof AppError) return e;
-    throw e;
-  }
-  throw new Error("expected a refusal");
-}
-
 let n = 0;
 async function erinsDraft() {
-  const erin = await actorOf("engineer");
-  return (await lib.createModel(erin, { species: { formula: "ZrO2", displayName: "Zirconia" }, name: `Four-eyes ${++n}`, version: { data: solid(), citation: "Invented for the test" } })).version;
+  return (await createDraft("engineer", `Four-eyes ${++n}`)).version;
 }
 
 describe("nobody who changed or proposed a version decides on it", () => {

@@ -5,7 +5,6 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb, models } from "@/lib/db";
-import { AppError } from "@/lib/errors";
 import * as lib from "@/lib/services/library";
 import { deleteVersion, withdrawProposal } from "@/lib/services/library-drafts";
 import { createCase } from "@/lib/services/cases";
@@ -13,27 +12,14 @@ import { caseInputSchema } from "@/lib/validation/cases";
 import { actorOf } from "../helpers/actors";
 import { shiftCase } from "../helpers/cases";
 import { freshDatabase } from "../helpers/db";
+import { createDraft, uniqueName } from "../helpers/library";
 import { ensureReferenceLibrary } from "../helpers/reference-library";
+import { refusal } from "../helpers/refusal";
 
 beforeAll(() => freshDatabase());
 afterAll(() => closeDb());
 
-// Constant-Cp solid with an anchor; synthetic, invented for this test.
-const solid = { segments: [{ phase: "cr", form: "constant" as const, tminK: 250, tmaxK: 900, coeffs: { cpJ: 120 } }], reference: { tK: 298.15, phase: "cr", hkJ: -1000, sJ: 80 } };
-
-async function refusal(p: Promise<unknown>): Promise<AppError> {
-  try {
-    await p;
-  } catch (e) {
-    if (e instanceof AppError) return e;
-    throw e;
-  }
-  throw new Error("expected a refusal");
-}
-
-async function draftBy(who: "steward" | "engineer") {
-  return lib.createModel(await actorOf(who), { species: { formula: "ZrO2", displayName: "Zirconia" }, name: `Take-back ${Math.random().toString(36).slice(2, 7)}`, version: { data: solid, citation: "Invented for the test" } });
-}
+const draftBy = (who: "steward" | "engineer") => createDraft(who, uniqueName("Take-back"));
 
 describe("withdraw and delete", () => {
   it("the author withdraws a proposal back to a draft; it leaves the queue and the trail says so", async () => {

@@ -5,33 +5,18 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb, models, registry } from "@/lib/db";
-import { AppError } from "@/lib/errors";
 import * as lib from "@/lib/services/library";
 import { computeCurve } from "@/lib/thermo/curve";
 import type { ListModelsQuery } from "@/lib/validation/library";
 import { actorOf } from "../helpers/actors";
 import { freshDatabase, tableCounts } from "../helpers/db";
+import { createDraft, solidData as solid, uniqueName } from "../helpers/library";
+import { refusal } from "../helpers/refusal";
 
 beforeAll(() => freshDatabase());
 afterAll(() => closeDb());
 
-// Constant-Cp solid with an anchor; numbers invented for the test.
-const solid = (cpJ = 120) => ({ segments: [{ phase: "cr", form: "constant" as const, tminK: 250, tmaxK: 900, coeffs: { cpJ } }], reference: { tK: 298.15, phase: "cr", hkJ: -1000, sJ: 80 } });
-
-async function refusal(p: Promise<unknown>): Promise<AppError> {
-  try {
-    await p;
-  } catch (e) {
-    if (e instanceof AppError) return e;
-    throw e;
-  }
-  throw new Error("expected a refusal");
-}
-
-async function newDraft(who: "steward" | "engineer" = "steward", name = `Test model ${Math.random().toString(36).slice(2, 7)}`) {
-  const actor = await actorOf(who);
-  return lib.createModel(actor, { species: { formula: "ZrO2", displayName: "Zirconia" }, name, version: { data: solid(), citation: "Invented for the test" } });
-}
+const newDraft = (who: "steward" | "engineer" = "steward", name = uniqueName("Test model")) => createDraft(who, name);
 
 describe("drafts and optimistic locking", () => {
   it("an edit with the current lockVersion saves and bumps it; a stale one is 409 with the current version", async () => {
@@ -112,7 +97,7 @@ describe("proposal, four-eyes decision and supersession", () => {
     const { version } = await lib.createModel(sam, {
       species: { formula: "ZrO2", displayName: "Zirconia" },
       name: "No anchor",
-      version: { data: { segments: [{ phase: "cr", form: "constant", tminK: 250, tmaxK: 900, coeffs: { cpJ: 100 } }] }, citation: "Invented for the test" },
+      version: { data: { segments: [{ phase: "cr", form: "constant", tminK: 250, tmaxK: 900, coeffs: { cpJ: 100 } }] }, citation: "Synthetic, invented for this test" },
     });
     await expect(lib.proposeVersion(sam, version.id)).rejects.toMatchObject({ name: "EngineRefusal" });
     expect((await lib.getVersion(sam, version.id)).status).toBe("draft");

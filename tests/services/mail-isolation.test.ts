@@ -4,24 +4,22 @@
  * for Larkspur's invitation link and review mail. Addresses and names are the invented demo teams.
  */
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import type { SMTPServer } from "smtp-server";
 import { closeDb, db, models } from "@/lib/db";
-import { env } from "@/lib/env";
 import { createMailTransport } from "@/lib/mail";
-import { startMailCatcher } from "@/lib/mail-catcher";
 import { deliverDueMail, enqueueMail, listOutbox } from "@/lib/services/mail";
 import { acceptInvitation, invite } from "@/lib/services/team";
 import { actorOf } from "../helpers/actors";
 import { freshDatabase } from "../helpers/db";
+import { startTestMailCatcher } from "../helpers/mail";
 
-let catcher: SMTPServer;
+let stopCatcher: () => Promise<void>;
 
 beforeAll(async () => {
   await freshDatabase();
-  catcher = await startMailCatcher(env.MAIL_CATCHER_PORT);
+  stopCatcher = await startTestMailCatcher();
 });
 afterAll(async () => {
-  await new Promise<void>((r) => catcher.close(() => r()));
+  await stopCatcher();
   await closeDb();
 });
 

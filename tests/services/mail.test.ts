@@ -1,23 +1,21 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import nodemailer from "nodemailer";
-import type { SMTPServer } from "smtp-server";
 import { closeDb, db, models } from "@/lib/db";
 import { createMailTransport } from "@/lib/mail";
-import { startMailCatcher } from "@/lib/mail-catcher";
 import { claimDueMail, deliverDueMail, enqueueMail, listOutbox } from "@/lib/services/mail";
 import { invite, previewInvitation } from "@/lib/services/team";
-import { env } from "@/lib/env";
 import { actorOf } from "../helpers/actors";
 import { freshDatabase } from "../helpers/db";
+import { startTestMailCatcher } from "../helpers/mail";
 
-let catcher: SMTPServer;
+let stopCatcher: () => Promise<void>;
 
 beforeAll(async () => {
   await freshDatabase();
-  catcher = await startMailCatcher(env.MAIL_CATCHER_PORT);
+  stopCatcher = await startTestMailCatcher();
 });
 afterAll(async () => {
-  await new Promise<void>((r) => catcher.close(() => r()));
+  await stopCatcher();
   await closeDb();
 });
 

@@ -5,10 +5,12 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb, models } from "@/lib/db";
-import { createCase, exportCsv, getResults } from "@/lib/services/cases";
+import { cautionText } from "@/lib/cases/caution";
+import { createCase, exportCsv, getResults, submitCase } from "@/lib/services/cases";
+import { decideCase } from "@/lib/services/reviews";
 import { compareFamilies } from "@/lib/services/equilibrium";
 import { previewCaseEquilibrium } from "@/lib/services/case-equilibrium";
-import { caseInputSchema } from "@/lib/validation/cases";
+import { caseInputSchema, decisionSchema } from "@/lib/validation/cases";
 import { CRITICAL_CONSTANTS } from "@/seeders/critical-constants";
 import { actorOf } from "../helpers/actors";
 import { shiftCase } from "../helpers/cases";
@@ -56,6 +58,7 @@ describe("the request a case builds", () => {
     expect(r.request.equilibrium!.critical).toEqual({ "CH4(g)": { tcK: 190.56, pcBar: 45.99, omega: 0.011 } });
     expect(r.result.equilibriumInfo!.gas).toBe("peng-robinson");
     const p = r.result.equilibrium![0];
+    // Common practice: dilute methane at a shift converter's temperature and pressure is close to ideal (φ near 1).
     expect(p.fugacityCoefficients["CH4(g)"]).toBeGreaterThan(0.9);
     expect(p.ideal).toBeDefined();
     expect(r.result.warnings.map((w) => w.code)).not.toContain("high-pressure");
@@ -72,6 +75,7 @@ describe("the request a case builds", () => {
     const withPin = { ...eq, adiabaticInletK: "326.85 degC", extraTerms: [{ formula: "CH4", phase: "g", versionId: pins.CH4 }], inert: [] };
     const result = await previewCaseEquilibrium(erin, async () => ({ caseId: c.id, equilibrium: withPin }));
     expect(result.adiabatic!.inletK).toBeCloseTo(600, 9);
+    // Derived as in tests/thermo/adiabatic.test.ts (the same converter feed heats by about 100 K from 600 K).
     expect(result.adiabatic!.outletK).toBeGreaterThan(650);
   });
 });
@@ -112,10 +116,27 @@ describe("seeded demo drafts (invented Larkspur scenario)", () => {
       expect(r.source).toBe("live");
       expect(r.result.equilibriumInfo!.gas).toBe("peng-robinson");
       const a = r.result.adiabatic!;
+      // Common practice: both exothermic beds heat by well over 50 K on the demo feeds; the sign is the point.
       expect(a.riseK).toBeGreaterThan(50);
       expect(a.bracketK[0]).toBeLessThanOrEqual(a.outletK);
       expect(a.bracketK[1]).toBeGreaterThanOrEqual(a.outletK);
       expect(Number.isFinite(a.naiveOutletK)).toBe(true);
+    }
+  });
+});
+
+describe("the caution of a Peng–Robinson case's mails", () => {
+  it("the review request and the decision say fugacity coefficients, not ideal-gas activities", async () => {
+    const erin = await actorOf("engineer");
+    const c = await createCase(erin, caseInputSchema.parse(shiftCase(pins, { title: "Shift at 30 bar, real gas (caution mail)", equilibrium: { ...eq, gas: "peng-robinson" } })));
+    await submitCase(erin, c.id, c.lockVersion);
+    await decideCase(await actorOf("reviewer"), c.id, decisionSchema.parse({ decision: "returned", reason: "Add the start-up span." }));
+    const mails = await models().MailMessage.findAll({ where: { kind: ["review-requested", "review-decided"] } });
+    const ours = mails.filter((m) => m.subject.includes("Shift at 30 bar, real gas (caution mail)"));
+    expect([...new Set(ours.map((m) => m.kind))].sort()).toEqual(["review-decided", "review-requested"]);
+    for (const m of ours) {
+      expect(m.body).toContain(cautionText("peng-robinson"));
+      expect(m.body).not.toContain("ideal-gas activities");
     }
   });
 });

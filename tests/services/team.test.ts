@@ -30,6 +30,7 @@ describe("sign-in", () => {
   it("stores bcrypt hashes of cost 10 or more", async () => {
     const user = await models().User.findOne({ where: { email: "erin.engineer@example.test" } });
     const cost = Number(user!.passwordHash.split("$")[2]);
+    // Common practice: bcrypt cost 10 is the usual minimum.
     expect(cost).toBeGreaterThanOrEqual(10);
   });
 });

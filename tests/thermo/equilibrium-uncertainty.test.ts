@@ -42,7 +42,7 @@ function perturbed(entry: SpeciesInput, dh: number, ds: number, e: number): Spec
   return { ...entry, segments: [seg, ...rest] };
 }
 
-const base = (name: string) => speciesEntry("shomate", name, "g");
+const base = (name: string) => speciesEntry("shomate-janaf", name, "g");
 const request = (species: Record<string, SpeciesInput>): EvaluateRequest => ({
   reaction: SHIFT,
   species,
@@ -115,11 +115,11 @@ describe("sources side by side", () => {
   const setOf = (family: Family) => Object.fromEntries(names.map((n) => [`${n}(g)`, speciesEntry(family, n, "g")]));
   const req: EvaluateRequest = {
     reaction: SHIFT,
-    species: setOf("shomate"),
+    species: setOf("shomate-janaf"),
     temperatures: { listK: [900, 1000, 1100] },
     equilibrium: { feed: { "CH4(g)": 1, "H2O(g)": 3 }, pressureBar: 25, reactions: [REFORM, SHIFT], key: "CH4(g)" },
   };
-  const families: Family[] = ["shomate", "burcat", "gri"];
+  const families: Family[] = ["shomate-janaf", "nasa7-2015", "nasa7-gri30"];
   const cmp = compareSources(
     req,
     families.map((f) => ({ label: f, species: setOf(f) })),
@@ -144,7 +144,7 @@ describe("sources side by side", () => {
     });
   });
   it("refuses a single variant", () => {
-    expect(() => compareSources(req, [{ label: "only", species: setOf("shomate") }])).toThrow(
+    expect(() => compareSources(req, [{ label: "only", species: setOf("shomate-janaf") }])).toThrow(
       "compareSources: give at least two variants to compare",
     );
   });

@@ -8,9 +8,6 @@
  */
 import type { SpeciesInput } from "@/lib/thermo";
 
-export const NASA9_WATER_LIQUID_SOURCE =
-  "McBride, Zehe & Gordon, NASA TP-2002-211556 (2002), NASA Glenn coefficients, H2O(L) 273.150–373.150 K";
-
 export const NASA9_WATER_LIQUID_COEFFS = [
   1.326371304e9, -2.448295388e7, 1.879428776e5, -7.67899505e2, 1.761556813, -2.151167128e-3, 1.092570813e-6,
   1.101760476e8, -9.77970097e5,
@@ -25,8 +22,6 @@ export const nasa9WaterLiquid = (): SpeciesInput => ({
  * ranges 200–1000–6000–20000 K, from the same publication (McBride, Zehe & Gordon 2002).
  * Its 6000–20000 K range has a1 of order 1e9: the other case that ran away.
  */
-export const NASA9_N2_SOURCE = "McBride, Zehe & Gordon, NASA TP-2002-211556 (2002), NASA Glenn coefficients, N2 200–20000 K";
-
 export const NASA9_N2_RANGES: { tminK: number; tmaxK: number; coeffs: number[] }[] = [
   {
     tminK: 200, tmaxK: 1000,

@@ -1,10 +1,14 @@
-/** Reaction properties: corrected vs naive, crossovers, sign cases, phases and warnings. */
+/**
+ * Reaction properties: corrected vs naive, crossovers, sign cases, phases and warnings.
+ * Bounds of 1e-6 and tighter compare two computations of one number (closed form, independent
+ * solver, unit round trip): round-off allowances, common practice.
+ */
 import { describe, expect, it } from "vitest";
 import { evaluate, speciesProperties, type SpeciesInput } from "@/lib/thermo";
-import { speciesEntry } from "./reference-data";
+import { janafRows, speciesEntry } from "./reference-data";
 
-const shomate = (sp: string, phase = "g") => speciesEntry("shomate", sp, phase);
-const burcat = (sp: string, phase = "g") => speciesEntry("burcat", sp, phase);
+const shomate = (sp: string, phase = "g") => speciesEntry("shomate-janaf", sp, phase);
+const nasa2015 = (sp: string, phase = "g") => speciesEntry("nasa7-2015", sp, phase);
 const keysOf = (map: Record<string, SpeciesInput>) => map;
 
 /**
@@ -34,8 +38,9 @@ describe("supercooled water, liquid → ice at 263.15 K (README, common practice
       temperatures: { listK: [263.15] },
       referenceK: 273.15,
     });
-    expect(Math.abs(r.points[0].dGkJ * 1000 - -213.1)).toBeLessThanOrEqual(0.5);
-    expect(Math.abs(r.points[0].naiveDGkJ * 1000 - -220.0)).toBeLessThanOrEqual(0.5);
+    // README: −213.1 corrected, −220.0 naive; held to ±0.05 J/mol (half a unit in the value's last digit).
+    expect(Math.abs(r.points[0].dGkJ * 1000 - -213.1)).toBeLessThanOrEqual(0.05);
+    expect(Math.abs(r.points[0].naiveDGkJ * 1000 - -220.0)).toBeLessThanOrEqual(0.05);
     const codes = r.warnings.map((w) => `${w.code}:${w.species}`);
     expect(codes).toContain("extrapolation:H2O(l)");
     expect(codes).toContain("metastable-phase:H2O(l)");
@@ -45,8 +50,9 @@ describe("supercooled water, liquid → ice at 263.15 K (README, common practice
 
   it("with 298.15 K as the reference the naive value differs and the ice chain is extrapolated to the reference", () => {
     const r = evaluate({ reaction: "H2O(l) -> H2O(cr)", species: { "H2O(l)": water, "H2O(cr)": water }, temperatures: { listK: [263.15] } });
+    // Derived: the naive shortcut from 298.15 K uses ΔrH and ΔrS there, off the 273.15 K value by far more than its ±0.05.
     expect(Math.abs(r.points[0].naiveDGkJ * 1000 - -220.0)).toBeGreaterThan(0.5);
-    expect(Math.abs(r.points[0].dGkJ * 1000 - -213.1)).toBeLessThanOrEqual(0.5);
+    expect(Math.abs(r.points[0].dGkJ * 1000 - -213.1)).toBeLessThanOrEqual(0.05);
     expect(r.warnings.some((w) => w.code === "reference-extrapolation" && w.species === "H2O(cr)")).toBe(true);
   });
 });
@@ -85,6 +91,7 @@ describe("crossover temperatures", () => {
     const r = evaluate({ reaction, species, temperatures: { fromK: 600, toK: 1200, stepK: 100 } });
     expect(r.crossover.correctedK).toHaveLength(1);
     const root = r.crossover.correctedK[0];
+    // Common practice: steam reforming turns favourable near 900 K at 1 bar (ΔrG° changes sign between 800 and 1000 K).
     expect(root).toBeGreaterThan(800);
     expect(root).toBeLessThan(r.crossover.naiveK!);
     const around = evaluate({ reaction, species, temperatures: { listK: [root - 1e-9, root + 1e-9] } });
@@ -93,7 +100,7 @@ describe("crossover temperatures", () => {
   });
 
   it("finds two roots inside one grid step through the ΔrS = 0 extremum", () => {
-    // Invented demo model (Larkspur Hydrogen Works demo data, not measurements): ΔrCp = 0.1·T,
+    // Synthetic, invented for this test (not measurements): ΔrCp = 0.1·T,
     // ΔrS(500 K) = 0 and ΔrG(500 K) = +0.05 J/mol, so ΔrG = 0.05 − 0.05 (T − 500)² exactly.
     const a: SpeciesInput = { segments: [{ phase: "g", form: "constant", tminK: 300, tmaxK: 700, coeffs: { cpJ: 50 } }], reference: { tK: 500, phase: "g", hkJ: 0, sJ: 200 } };
     const b: SpeciesInput = {
@@ -112,7 +119,7 @@ describe("a phase transition crossed inside the span", () => {
   it("H2 + ½ O2 → H2O (no phase marker) switches ice → liquid at 273.15 K", () => {
     const r = evaluate({
       reaction: "H2(g) + 0.5 O2(g) -> H2O",
-      species: { "H2(g)": burcat("H2"), "O2(g)": burcat("O2"), H2O: water },
+      species: { "H2(g)": nasa2015("H2"), "O2(g)": nasa2015("O2"), H2O: water },
       temperatures: { fromK: 260, toK: 290, stepK: 1 },
       include: ["species"],
     });
@@ -148,14 +155,15 @@ describe("warnings", () => {
     const inside = evaluate({ ...shift, temperatures: { fromK: 1000, toK: 1400, stepK: 50 }, referenceK: 1000 });
     const jump = inside.warnings.find((w) => w.code === "segment-jump" && w.species === "CO2(g)")!;
     expect(jump.tK).toBe(1200);
+    // Derived: the jump must be visible above the 1e-9 floor of a continuous chain; 1 J/mol is far above it.
     expect(Math.abs(jump.dHkJ as number)).toBeGreaterThan(1e-3);
     const outside = evaluate({ ...shift, temperatures: { fromK: 600, toK: 1000, stepK: 50 }, referenceK: 700 });
     expect(outside.warnings.some((w) => w.code === "segment-jump" && w.species === "CO2(g)")).toBe(false);
   });
 
   it("transition-mismatch: a stated transition is checked against the G crossing of two phases with constants", () => {
-    // Goos–Burcat–Ruscic (2015) NASA-7 ice and liquid water; ΔfusH 6.01 kJ/mol at 273.15 K (common practice)
-    const segments = [...burcat("H2O", "cr").segments, ...burcat("H2O", "l").segments];
+    // NASA-7 ice and liquid water (third-millennium database, 2015 update; nasa7-2015); ΔfusH 6.01 kJ/mol at 273.15 K (common practice)
+    const segments = [...nasa2015("H2O", "cr").segments, ...nasa2015("H2O", "l").segments];
     const ok = speciesProperties({ segments, transitions: [{ tK: 273.15, from: "cr", to: "l", dHkJ: 6.01 }] }, [250, 300]);
     expect(ok.warnings.some((w) => w.code === "transition-mismatch")).toBe(false);
     const off = speciesProperties({ segments, transitions: [{ tK: 280, from: "cr", to: "l", dHkJ: 6.01 }] }, [250, 300]);
@@ -165,17 +173,20 @@ describe("warnings", () => {
   });
 
   it("reference-mismatch when a stated reference disagrees with a set's own constants", () => {
-    // NIST-JANAF H-064, H2O(g) at 298.15 K: ΔfH° −241.826 kJ/mol, S° 188.834 J/(mol·K)
-    const agree = speciesProperties({ ...burcat("H2O"), reference: { tK: 298.15, phase: "g", hkJ: -241.826, sJ: 188.834 } }, [500]);
+    // NIST-JANAF Tables, 4th ed. (Chase 1998), H2O(g), table H-064, 298.15 K: ΔfH° and S°
+    const row = janafRows().find((r) => r.species === "H2O" && r.phase === "g" && r.T === 298.15)!;
+    expect(row.janafTable).toBe("H-064");
+    const agree = speciesProperties({ ...nasa2015("H2O"), reference: { tK: 298.15, phase: "g", hkJ: row.dfH!, sJ: row.S } }, [500]);
     expect(agree.warnings.some((w) => w.code === "reference-mismatch")).toBe(false);
-    const off = speciesProperties({ ...burcat("H2O"), reference: { tK: 298.15, phase: "g", hkJ: -241.826, sJ: 189.834 } }, [500]);
+    // The same anchor with S° 1 J/(mol·K) too high (synthetic, invented for this test).
+    const off = speciesProperties({ ...nasa2015("H2O"), reference: { tK: 298.15, phase: "g", hkJ: row.dfH!, sJ: row.S + 1 } }, [500]);
     expect(off.warnings.find((w) => w.code === "reference-mismatch")).toMatchObject({ species: "species", tK: 298.15 });
   });
 
   it("nonphysical-cp where a model's Cp is not positive", () => {
-    // Invented demo model (Larkspur demo data): Cp = 30 − 0.1 T crosses zero at 300 K.
-    const demo: SpeciesInput = { segments: [{ phase: "g", form: "expression", tminK: 200, tmaxK: 400, coeffs: { cp: "30 - 0.1*T" } }], reference: { tK: 250, phase: "g", hkJ: 0, sJ: 100 } };
-    const out = speciesProperties(demo, [250, 290, 310, 350]);
+    // Synthetic, invented for this test: Cp = 30 − 0.1 T crosses zero at 300 K.
+    const made: SpeciesInput = { segments: [{ phase: "g", form: "expression", tminK: 200, tmaxK: 400, coeffs: { cp: "30 - 0.1*T" } }], reference: { tK: 250, phase: "g", hkJ: 0, sJ: 100 } };
+    const out = speciesProperties(made, [250, 290, 310, 350]);
     expect(out.warnings.find((w) => w.code === "nonphysical-cp")).toMatchObject({ tK: 310 });
   });
 

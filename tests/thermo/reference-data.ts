@@ -46,17 +46,19 @@ export interface JanafRow {
   logKf?: number;
 }
 
-export type Family = "burcat" | "gri" | "shomate";
+/** Data families, keyed as the app keys them (seeders/reference-sets.ts, lib/validation/library.ts). */
+export type Family = "nasa7-2015" | "nasa7-gri30" | "shomate-janaf";
 
 export function familyOf(r: CoefficientRecord): Family {
-  if (r.form === "shomate") return "shomate";
-  return r.source.startsWith("Smith, Golden, Frenklach") ? "gri" : "burcat";
+  if (r.form === "shomate") return "shomate-janaf";
+  return r.source.startsWith("Smith, Golden, Frenklach") ? "nasa7-gri30" : "nasa7-2015";
 }
 
+/** Each family's data set by its name (the records' `source` field carries the full citation). */
 export const FAMILY_SOURCE: Record<Family, string> = {
-  burcat: "Goos, Burcat, Ruscic, Extended Third Millennium Thermochemical Database (2015), NASA-7",
-  gri: "GRI-Mech 3.0 thermodynamic data (1999), NASA-7",
-  shomate: "Shomate fits to NIST-JANAF Tables, 4th ed. (Chase 1998)",
+  "nasa7-2015": "NASA-7, Extended Third Millennium Thermochemical Database (2015 update)",
+  "nasa7-gri30": "NASA-7, GRI-Mech 3.0 thermodynamic data (1999)",
+  "shomate-janaf": "Shomate fits to NIST-JANAF Tables, 4th ed. (1998)",
 };
 
 export const records = (): CoefficientRecord[] => readReference<CoefficientRecord[]>("cp-coefficients.json");
@@ -80,13 +82,13 @@ export function segmentsOf(r: CoefficientRecord): SegmentInput[] {
 }
 
 /**
- * One species entry per (family, species, phase). Burcat's CH4 has two variants; `variant`
+ * One species entry per (family, species, phase). The nasa7-2015 CH4 has two variants; `variant`
  * picks the first (anharmonic) by default.
  */
 export function speciesEntry(family: Family, species: string, phase: string, variant = 0): SpeciesInput {
   const recs = records().filter((r) => familyOf(r) === family && r.species === species && r.phase === phase);
   if (recs.length === 0) throw new Error(`no ${family} record for ${species}(${phase}) in cp-coefficients.json`);
-  const chosen = family === "shomate" ? recs : [recs[variant]];
+  const chosen = family === "shomate-janaf" ? recs : [recs[variant]];
   return { segments: chosen.flatMap(segmentsOf), standardPressurePa: chosen[0].standardPressurePa };
 }
 
@@ -97,7 +99,7 @@ export function recordGroups(): { family: Family; species: string; phase: string
   for (const r of records()) {
     const family = familyOf(r);
     const id = `${family}|${r.species}|${r.phase}`;
-    if (family === "shomate") {
+    if (family === "shomate-janaf") {
       if (seen.has(id)) continue;
       seen.set(id, 0);
       out.push({ family, species: r.species, phase: r.phase, variant: 0, entry: speciesEntry(family, r.species, r.phase), source: r.source });

@@ -54,12 +54,12 @@ describe("cp-coefficients-more.json as the README describes it", () => {
   it("holds 36 sets: 19 third-millennium, 14 GRI-Mech 3.0, 3 Shomate ranges of Cl2", () => {
     expect(more).toHaveLength(36);
     const n = (f: Family) => more.filter((r) => familyOf(r) === f).length;
-    expect([n("burcat"), n("gri"), n("shomate")]).toEqual([19, 14, 3]);
+    expect([n("nasa7-2015"), n("nasa7-gri30"), n("shomate-janaf")]).toEqual([19, 14, 3]);
     // README: the third-millennium CH3OH set (T06/02) is left out; GRI's is in.
-    expect(more.some((r) => r.species === "CH3OH" && familyOf(r) === "burcat")).toBe(false);
+    expect(more.some((r) => r.species === "CH3OH" && familyOf(r) === "nasa7-2015")).toBe(false);
     // README: GRI Ar is on 1 atm; GRI C3H8 starts at 300 K.
-    expect(more.find((r) => r.species === "Ar" && familyOf(r) === "gri")!.standardPressurePa).toBe(101325);
-    expect(more.find((r) => r.species === "C3H8" && familyOf(r) === "gri")!.tmin).toBe(300);
+    expect(more.find((r) => r.species === "Ar" && familyOf(r) === "nasa7-gri30")!.standardPressurePa).toBe(101325);
+    expect(more.find((r) => r.species === "C3H8" && familyOf(r) === "nasa7-gri30")!.tmin).toBe(300);
   });
 });
 
@@ -85,7 +85,7 @@ describe("checks the README runs on every set", () => {
   const twoRange = more.filter((r) => r.form === "nasa7" && r.tmid !== undefined);
   it.each(twoRange.map((r) => [`${familyOf(r)} ${r.species}`, r] as const))("%s: the two ranges meet at 1000 K as published", (_n, r) => {
     // README: |ΔCp| ≤ 4e-6 J/(mol·K), |ΔH| ≤ 5e-6 kJ/mol, |ΔS| ≤ 1.3e-5 J/(mol·K), except GRI C3H8 (7e-4, 1e-4, 1.5e-4).
-    const tol = r.species === "C3H8" && familyOf(r) === "gri" ? { cp: stated("7e-4"), h: stated("1e-4"), s: stated("1.5e-4") } : { cp: stated("4e-6"), h: stated("5e-6"), s: stated("1.3e-5") };
+    const tol = r.species === "C3H8" && familyOf(r) === "nasa7-gri30" ? { cp: stated("7e-4"), h: stated("1e-4"), s: stated("1.5e-4") } : { cp: stated("4e-6"), h: stated("5e-6"), s: stated("1.3e-5") };
     const [low, high] = segmentsOf(r);
     const a = closedForm(low, r.tmid!);
     const b = closedForm(high, r.tmid!);
@@ -94,9 +94,9 @@ describe("checks the README runs on every set", () => {
     expect(Math.abs(a.s - b.s)).toBeLessThanOrEqual(tol.s);
   });
 
-  const tm = more.filter((r) => familyOf(r) === "burcat");
+  const tm = more.filter((r) => familyOf(r) === "nasa7-2015");
   it.each(tm.map((r) => [r.species, r] as const))("third-millennium %s: H(298.15 K) within 0.002 kJ/mol of the record's dfH298", (_n, r) => {
-    expect(Math.abs(at(entry("burcat", r.species), 298.15).hkJ - r.dfH298kJ!)).toBeLessThanOrEqual(stated("0.002"));
+    expect(Math.abs(at(entry("nasa7-2015", r.species), 298.15).hkJ - r.dfH298kJ!)).toBeLessThanOrEqual(stated("0.002"));
   });
 });
 
@@ -105,7 +105,7 @@ type Published = { name: string; family: Family; species: string; tK: number; wh
 // except GRI CH3OH (0.06) and NO2 S (0.15; Gurvich data underneath, 0.136 above JANAF).
 const PUBLISHED: Published[] = [
   // NIST-JANAF Tables, 4th ed. (Chase 1998): NO Cp 29.845 and S 210.758
-  ...(["burcat", "gri"] as const).flatMap((f) => [
+  ...(["nasa7-2015", "nasa7-gri30"] as const).flatMap((f) => [
     { name: "JANAF NO Cp", family: f, species: "NO", tK: 298.15, what: "cp" as const, value: 29.845, tol: stated("0.02") },
     { name: "JANAF NO S", family: f, species: "NO", tK: 298.15, what: "s" as const, value: 210.758, tol: stated("0.02") },
     // NIST-JANAF: NO2 S 240.034 (both NASA-7 families sit 0.136 above it)
@@ -117,19 +117,19 @@ const PUBLISHED: Published[] = [
     { name: "JANAF Ar H(1000)−H(298.15)", family: f, species: "Ar", tK: 1000, what: "dh" as const, value: 14.589, tol: stated("0.02") },
   ]),
   // NIST-JANAF: SO2 S 248.212
-  { name: "JANAF SO2 S", family: "burcat", species: "SO2", tK: 298.15, what: "s", value: 248.212, tol: stated("0.02") },
+  { name: "JANAF SO2 S", family: "nasa7-2015", species: "SO2", tK: 298.15, what: "s", value: 248.212, tol: stated("0.02") },
   // CODATA key values: S of Ar 154.846 (GRI within 0.004 only after 1 atm → 1 bar), Cl2 223.081, HCl 186.902, graphite 5.74
-  { name: "CODATA Ar S", family: "burcat", species: "Ar", tK: 298.15, what: "s", value: 154.846, tol: stated("0.02") },
-  { name: "CODATA Ar S", family: "gri", species: "Ar", tK: 298.15, what: "s", value: 154.846, tol: stated("0.004") },
-  { name: "CODATA Cl2 S", family: "burcat", species: "Cl2", tK: 298.15, what: "s", value: 223.081, tol: stated("0.02") },
-  { name: "CODATA Cl2 S", family: "shomate", species: "Cl2", tK: 298.15, what: "s", value: 223.081, tol: stated("0.02") },
-  { name: "CODATA HCl S", family: "burcat", species: "HCl", tK: 298.15, what: "s", value: 186.902, tol: stated("0.02") },
-  { name: "CODATA graphite S", family: "burcat", species: "C", tK: 298.15, what: "s", value: 5.74, tol: stated("0.02") },
+  { name: "CODATA Ar S", family: "nasa7-2015", species: "Ar", tK: 298.15, what: "s", value: 154.846, tol: stated("0.02") },
+  { name: "CODATA Ar S", family: "nasa7-gri30", species: "Ar", tK: 298.15, what: "s", value: 154.846, tol: stated("0.004") },
+  { name: "CODATA Cl2 S", family: "nasa7-2015", species: "Cl2", tK: 298.15, what: "s", value: 223.081, tol: stated("0.02") },
+  { name: "CODATA Cl2 S", family: "shomate-janaf", species: "Cl2", tK: 298.15, what: "s", value: 223.081, tol: stated("0.02") },
+  { name: "CODATA HCl S", family: "nasa7-2015", species: "HCl", tK: 298.15, what: "s", value: 186.902, tol: stated("0.02") },
+  { name: "CODATA graphite S", family: "nasa7-2015", species: "C", tK: 298.15, what: "s", value: 5.74, tol: stated("0.02") },
   // Gurvich et al.: Cp of SO2 39.84 and HCl 29.14; CH3OH S 239.87 and Cp 44.10 (GRI within 0.06)
-  { name: "Gurvich SO2 Cp", family: "burcat", species: "SO2", tK: 298.15, what: "cp", value: 39.84, tol: stated("0.02") },
-  { name: "Gurvich HCl Cp", family: "burcat", species: "HCl", tK: 298.15, what: "cp", value: 29.14, tol: stated("0.02") },
-  { name: "Gurvich CH3OH S", family: "gri", species: "CH3OH", tK: 298.15, what: "s", value: 239.87, tol: stated("0.06") },
-  { name: "Gurvich CH3OH Cp", family: "gri", species: "CH3OH", tK: 298.15, what: "cp", value: 44.1, tol: stated("0.06") },
+  { name: "Gurvich SO2 Cp", family: "nasa7-2015", species: "SO2", tK: 298.15, what: "cp", value: 39.84, tol: stated("0.02") },
+  { name: "Gurvich HCl Cp", family: "nasa7-2015", species: "HCl", tK: 298.15, what: "cp", value: 29.14, tol: stated("0.02") },
+  { name: "Gurvich CH3OH S", family: "nasa7-gri30", species: "CH3OH", tK: 298.15, what: "s", value: 239.87, tol: stated("0.06") },
+  { name: "Gurvich CH3OH Cp", family: "nasa7-gri30", species: "CH3OH", tK: 298.15, what: "cp", value: 44.1, tol: stated("0.06") },
 ];
 
 describe("against published values (JANAF, CODATA key values, Gurvich), README tolerances", () => {
@@ -140,7 +140,7 @@ describe("against published values (JANAF, CODATA key values, Gurvich), README t
   });
 
   it("GRI-Mech Ar (1 atm basis) is within 0.004 of CODATA S only after the 1 atm → 1 bar conversion", () => {
-    const gri = entry("gri", "Ar");
+    const gri = entry("nasa7-gri30", "Ar");
     const raw = at({ ...gri, standardPressurePa: 100000 }, 298.15).sJ;
     // CODATA key value: S°(Ar, 298.15 K) 154.846 J/(mol·K); README: 0.114 low without the conversion
     expect(Math.abs(raw - 154.846)).toBeGreaterThan(0.1);
@@ -148,29 +148,29 @@ describe("against published values (JANAF, CODATA key values, Gurvich), README t
   });
 
   it("NO2: both NASA-7 families sit about 0.136 above JANAF S, as the README says", () => {
-    for (const f of ["burcat", "gri"] as const) expect(at(entry(f, "NO2"), 298.15).sJ - 240.034).toBeCloseTo(0.136, 2);
+    for (const f of ["nasa7-2015", "nasa7-gri30"] as const) expect(at(entry(f, "NO2"), 298.15).sJ - 240.034).toBeCloseTo(0.136, 2);
   });
 });
 
 describe("across families (README: GRI vs third-millennium within 0.004 J/(mol·K) in Cp and S, 0.0003 kJ/mol in H − H298, except C3H8)", () => {
-  const both = [...new Set(more.filter((r) => familyOf(r) === "gri").map((r) => r.species))].filter((s) => more.some((r) => r.species === s && familyOf(r) === "burcat"));
+  const both = [...new Set(more.filter((r) => familyOf(r) === "nasa7-gri30").map((r) => r.species))].filter((s) => more.some((r) => r.species === s && familyOf(r) === "nasa7-2015"));
   it("covers the 13 species both families publish", () => expect(both).toHaveLength(13));
   it.each(both.filter((s) => s !== "C3H8").flatMap((s) => [298.15, 1000].map((t) => [`${s} at ${t} K`, s, t] as const)))("%s", (_n, s, t) => {
-    const a = entry("burcat", s);
-    const b = entry("gri", s);
+    const a = entry("nasa7-2015", s);
+    const b = entry("nasa7-gri30", s);
     expect(Math.abs(at(a, t).cpJ - at(b, t).cpJ)).toBeLessThanOrEqual(stated("0.004"));
     expect(Math.abs(at(a, t).sJ - at(b, t).sJ)).toBeLessThanOrEqual(stated("0.004"));
     expect(Math.abs(dH(a, t) - dH(b, t))).toBeLessThanOrEqual(stated("0.0003"));
   });
   it("C3H8 differs as published: S −0.13 at 298.15 K and Cp −0.23 J/(mol·K) at 1000 K (GRI − third-millennium)", () => {
-    const a = entry("burcat", "C3H8");
-    const b = entry("gri", "C3H8");
+    const a = entry("nasa7-2015", "C3H8");
+    const b = entry("nasa7-gri30", "C3H8");
     expect(at(b, 298.15).sJ - at(a, 298.15).sJ).toBeCloseTo(-0.13, 1);
     expect(at(b, 1000).cpJ - at(a, 1000).cpJ).toBeCloseTo(-0.23, 1);
   });
   it("Cl2: the Shomate 298–1000 K range at 1000 K agrees with the third-millennium set within 0.011 in Cp and 0.008 in S", () => {
     const shomateLow: SpeciesInput = { segments: [segmentsOf(more.find((r) => r.species === "Cl2" && r.form === "shomate" && r.tmin === 298)!)[0]] };
-    const tm = entry("burcat", "Cl2");
+    const tm = entry("nasa7-2015", "Cl2");
     expect(Math.abs(at(shomateLow, 1000).cpJ - at(tm, 1000).cpJ)).toBeLessThanOrEqual(stated("0.011"));
     expect(Math.abs(at(shomateLow, 1000).sJ - at(tm, 1000).sJ)).toBeLessThanOrEqual(stated("0.008"));
   });
@@ -178,7 +178,7 @@ describe("across families (README: GRI vs third-millennium within 0.004 J/(mol·
     // README: 0.13 J/(mol·K) in Cp, 0.010 kJ/mol in H, 0.009 J/(mol·K) in S at 1000 K.
     const r = evaluate({
       reaction: "H2(g) + Cl2(g) -> 2 HCl(g)",
-      species: { "H2(g)": speciesEntry("burcat", "H2", "g"), "Cl2(g)": entry("shomate", "Cl2"), "HCl(g)": entry("burcat", "HCl") },
+      species: { "H2(g)": speciesEntry("nasa7-2015", "H2", "g"), "Cl2(g)": entry("shomate-janaf", "Cl2"), "HCl(g)": entry("nasa7-2015", "HCl") },
       temperatures: { fromK: 900, toK: 1100, stepK: 100 },
     });
     const jump = r.warnings.find((w) => w.code === "segment-jump" && w.species === "Cl2(g)")!;

@@ -3,7 +3,7 @@ import { describe, expect, it } from "vitest";
 import { EngineRefusal, evaluate, speciesProperties, type SpeciesInput } from "@/lib/thermo";
 import { speciesEntry } from "./reference-data";
 
-const shomate = (sp: string) => speciesEntry("shomate", sp, "g");
+const shomate = (sp: string) => speciesEntry("shomate-janaf", sp, "g");
 const base = () => ({
   reaction: "CO(g) + H2O(g) -> CO2(g) + H2(g)",
   species: { "CO(g)": shomate("CO"), "H2O(g)": shomate("H2O"), "CO2(g)": shomate("CO2"), "H2(g)": shomate("H2") } as Record<string, SpeciesInput>,
@@ -20,7 +20,7 @@ function refusal(fn: () => unknown): EngineRefusal {
   throw new Error("expected a refusal");
 }
 
-// Invented demo model (Larkspur demo data) for the constant-less cases.
+// Synthetic, invented for this test: a constant-Cp gas for the constant-less cases.
 const constantGas = (extra: Partial<SpeciesInput> = {}): SpeciesInput => ({
   segments: [{ phase: "g", form: "constant", tminK: 300, tmaxK: 1000, coeffs: { cpJ: 30 } }],
   ...extra,
@@ -138,7 +138,7 @@ describe("Cp expressions: compiled once, T the only symbol, dangerous features r
   });
 
   it("allows whitelisted functions of T", () => {
-    // Invented demo model (Larkspur demo data).
+    // Synthetic, invented for this test.
     const out = speciesProperties(
       { segments: [{ phase: "g", form: "expression", tminK: 300, tmaxK: 1000, coeffs: { cp: "29 + 2*exp(-300/T) + sqrt(T)/100" } }], reference: { tK: 300, phase: "g", hkJ: 0, sJ: 100 } },
       [300, 600],

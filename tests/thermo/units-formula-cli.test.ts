@@ -1,4 +1,8 @@
-/** Units, formulas, reactions, and the command-line door (spawned) against evaluate(). */
+/**
+ * Units, formulas, reactions, and the command-line door (spawned) against evaluate().
+ * Bounds of 1e-6 and tighter compare two computations of one number (closed form, independent
+ * solver, unit round trip): round-off allowances, common practice.
+ */
 import { spawnSync } from "node:child_process";
 import fs from "node:fs";
 import os from "node:os";
@@ -59,7 +63,7 @@ describe("formulas and reactions", () => {
 });
 
 describe("command line: npm run -s evaluate -- request.json", () => {
-  const shomate = (sp: string) => speciesEntry("shomate", sp, "g");
+  const shomate = (sp: string) => speciesEntry("shomate-janaf", sp, "g");
   const request = {
     reaction: "CO(g) + H2O(g) -> CO2(g) + H2(g)",
     species: { "CO(g)": shomate("CO"), "H2O(g)": shomate("H2O"), "CO2(g)": shomate("CO2"), "H2(g)": shomate("H2") } as Record<string, SpeciesInput>,

@@ -2,7 +2,7 @@ import "server-only";
 import { Op, type Transaction } from "sequelize";
 import { requirePermission, type Actor } from "@/lib/auth/guards";
 import { termKey } from "@/lib/cases/balance";
-import { CAUTION_TEXT } from "@/lib/cases/caution";
+import { cautionGasOf, cautionText } from "@/lib/cases/caution";
 import { pinTerms } from "@/lib/cases/equilibrium";
 import { caseReaction } from "@/lib/cases/request";
 import { snapshotContent, snapshotHash } from "@/lib/cases/snapshot";
@@ -110,7 +110,7 @@ async function requestReview(transaction: Transaction, me: Actor, row: Case, sna
         ``,
         `Open the case: ${caseUrl(row.id)}`,
         ``,
-        CAUTION_TEXT,
+        cautionText(cautionGasOf(snap.result)),
       ].join("\n"),
     },
     { exceptUserId: row.authorId },

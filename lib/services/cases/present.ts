@@ -150,7 +150,7 @@ export function presentSnapshot(s: CaseSnapshot, summary: SnapshotSummaryDto): S
 }
 
 /** A stored snapshot's results; the status is the case's own now. */
-export function presentSnapshotResults(row: Case, snap: CaseSnapshot): ResultsDto {
+export function presentSnapshotResults(row: Case, snap: Pick<CaseSnapshot, "revision" | "hash" | "createdAt" | "inputs" | "pins" | "request" | "result">): ResultsDto {
   return {
     source: "snapshot",
     caseId: row.id,

@@ -14,6 +14,7 @@ import type { CaseInputs, CaseStatus } from "@/lib/validation/cases";
 import type { Case } from "@/models/case";
 import type { CaseSnapshot, PinnedVersion } from "@/models/case-snapshot";
 import { inertCriticalConstants, loadPins, newerApprovedVersions } from "../pins";
+import { frozenSnapshot } from "../results-cache";
 import {
   EDITABLE,
   presentCase,
@@ -168,11 +169,8 @@ export async function getSnapshot(actor: Actor | null, caseId: number, revision:
 export async function getResults(actor: Actor | null, caseId: number, revision?: number): Promise<ResultsDto> {
   const me = requirePermission(actor, "cases.view");
   const row = await caseFor(me, caseId);
-  let snap: CaseSnapshot | null = null;
-  if (revision !== undefined) snap = await snapshotOf(caseId, revision);
-  else if (!EDITABLE.includes(row.status)) {
-    snap = await models().CaseSnapshot.findOne({ where: { caseId }, order: [["revision", "DESC"]] });
-  }
+  // Read and parsed once per process (lib/services/results-cache.ts); a draft is evaluated below.
+  const snap = revision !== undefined || !EDITABLE.includes(row.status) ? await frozenSnapshot(row.teamId, caseId, revision) : null;
   if (snap) return presentSnapshotResults(row, snap);
   requirePermission(me, "evaluate.run");
   const pins = await loadPins(row.teamId, pinTerms(row.inputs), { allowAny: true });

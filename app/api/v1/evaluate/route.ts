@@ -1,13 +1,13 @@
 import { z } from "zod";
 import { strictObject } from "@/lib/validation/strict";
 import { getActor } from "@/lib/auth/session";
-import { json, parseWith, queryObject, readJson, route } from "@/lib/http";
+import { jsonBody, parseWith, queryObject, readJson, route } from "@/lib/http";
 import { runEvaluation } from "@/lib/services/evaluate";
-import { inFormat, resultFormatSchema } from "@/lib/thermo/columns";
+import { resultFormatSchema } from "@/lib/thermo/columns";
 
 const querySchema = strictObject({ format: resultFormatSchema.optional() });
 
 export const POST = route(async (request) => {
   const { format } = parseWith(querySchema, queryObject(request));
-  return json(inFormat(await runEvaluation(await getActor(), () => readJson(request, z.unknown())), format));
+  return jsonBody(await runEvaluation(await getActor(), () => readJson(request, z.unknown()), format));
 });

@@ -2,6 +2,7 @@ import { orNotFound, pageId } from "@/lib/pages";
 import { temperaturesText } from "@/components/cases/inputs-card";
 import { EquilibriumReport } from "@/components/equilibrium/equilibrium-report";
 import { Caution } from "@/components/results/caution";
+import { cautionGasOf } from "@/lib/cases/caution";
 import { PrintButton } from "@/components/results/print-button";
 import { ResultCharts } from "@/components/results/result-charts";
 import { ContributionsChart } from "@/components/results/contributions-chart";
@@ -33,6 +34,7 @@ export default async function ReportPage({ params, searchParams }: Props) {
   const revision = rev && /^\d+$/.test(rev) ? Number(rev) : undefined;
   const data = await orNotFound(getResults(actor, id, revision));
   const r = data.result;
+  const gas = cautionGasOf(r);
   // The unit the case was entered in, unless the reader asked for another (?unit=K|degC|degF).
   const unit = isDisplayUnit(sp.unit) ? sp.unit : enteredUnit(data.inputs.temperatures);
   const unitHref = (u: string) => `?${new URLSearchParams({ ...(revision ? { revision: String(revision) } : {}), unit: u })}`;
@@ -124,7 +126,7 @@ export default async function ReportPage({ params, searchParams }: Props) {
         />
       </section>
 
-      <Caution />
+      <Caution gas={gas} />
 
       <section>
         <h2 className="mb-2 text-sm font-semibold">Summary</h2>
@@ -171,10 +173,10 @@ export default async function ReportPage({ params, searchParams }: Props) {
 
       <section className="break-inside-avoid">
         <h2 className="mb-1 text-sm font-semibold">Warnings ({r.warnings.length})</h2>
-        <WarningList warnings={r.warnings} />
+        <WarningList warnings={r.warnings} gas={gas} />
       </section>
 
-      <Caution />
+      <Caution gas={gas} />
     </article>
   );
 }

@@ -1,5 +1,6 @@
 import { orNotFound, pageId } from "@/lib/pages";
 import Link from "next/link";
+import { CriticalConstants } from "@/components/library/critical-constants";
 import { PropertyCharts } from "@/components/library/property-charts";
 import { ScopeBadge, StatusBadge } from "@/components/library/status-badge";
 import { Caution } from "@/components/results/caution";
@@ -9,7 +10,9 @@ import { inputClass } from "@/components/ui/field";
 import { requireUser } from "@/lib/auth/guards";
 import { getActor } from "@/lib/auth/session";
 import { getSpecies, getVersion, versionCurve } from "@/lib/services/library";
+import { getSpeciesCritical } from "@/lib/services/species-critical";
 import { defaultRange } from "@/lib/thermo/curve";
+import { removeCriticalAction, saveCriticalAction } from "./actions";
 import { FAMILY_LABELS } from "@/lib/validation/library";
 
 type Props = { params: Promise<{ id: string }>; searchParams: Promise<Record<string, string | undefined>> };
@@ -23,6 +26,7 @@ export default async function SpeciesPage({ params, searchParams }: Props) {
   const id = await pageId(params);
   const sp = await searchParams;
   const species = await orNotFound(getSpecies(actor, id));
+  const critical = await getSpeciesCritical(actor, id);
   const all = species.models.flatMap((m) => m.versions.map((v) => ({ ...v, model: m })));
   const chosenId = num(sp.v) ?? all.find((v) => v.status === "approved")?.id ?? all[0]?.id;
   const chosen = all.find((v) => v.id === chosenId);
@@ -67,6 +71,9 @@ export default async function SpeciesPage({ params, searchParams }: Props) {
       />
       <div className="grid gap-6 lg:grid-cols-[20rem_1fr]">
         <div className="space-y-4">
+          <Card title="Critical constants (Peng–Robinson)">
+            <CriticalConstants speciesId={id} critical={critical.critical} canEdit={critical.canEdit} scope={critical.scope} save={saveCriticalAction} remove={removeCriticalAction} />
+          </Card>
           {species.models.map((m) => (
             <Card key={m.id} title={<span className="flex flex-wrap items-center gap-2">{m.name} <ScopeBadge scope={m.scope} /></span>}>
               <p className="mb-2 text-xs text-ink-muted">{FAMILY_LABELS[m.family] ?? m.family}</p>

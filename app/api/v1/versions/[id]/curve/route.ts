@@ -3,10 +3,11 @@ import { strictObject } from "@/lib/validation/strict";
 import { getActor } from "@/lib/auth/session";
 import { json, parseWith, queryObject, withId } from "@/lib/http";
 import { versionCurve } from "@/lib/services/library";
+import { aboveZeroKSentence } from "@/lib/thermo/scales";
 
 const query = strictObject({
-  fromK: z.coerce.number().positive("Temperatures must be above 0 K.").optional(),
-  toK: z.coerce.number().positive("Temperatures must be above 0 K.").optional(),
+  fromK: z.coerce.number().positive(aboveZeroKSentence()).optional(),
+  toK: z.coerce.number().positive(aboveZeroKSentence()).optional(),
   points: z.coerce.number().int().min(2).max(400).optional(),
 });
 
