@@ -74,7 +74,14 @@ async function load(url: string, options: { method?: "GET" | "POST"; body?: stri
   const main1 = cpuSeconds(serverPid, true);
   const perRequest = (a: number | null, b: number | null) => (a === null || b === null || !result.requests.total ? null : ((b - a) * 1000) / result.requests.total);
   const latency = result.latency as unknown as { p50: number; p97_5: number; p90: number };
-  return { rps: result.requests.average, p50: latency.p50, p95: (latency.p90 + latency.p97_5) / 2, non2xx: result.non2xx, cpuMs: perRequest(all0, all1), mainMs: perRequest(main0, main1) };
+  return {
+    rps: result.requests.average,
+    p50: latency.p50,
+    p95: (latency.p90 + latency.p97_5) / 2,
+    non2xx: result.non2xx,
+    cpuMs: perRequest(all0, all1),
+    mainMs: perRequest(main0, main1),
+  };
 }
 
 /** p50 and max of a few sequential timings. */
@@ -141,14 +148,25 @@ async function main() {
   const dir = fs.mkdtempSync(path.join(os.tmpdir(), "heatpath-bench-"));
   const port = await freePort();
   const base = `http://127.0.0.1:${port}`;
-  const env = { ...process.env, HEATPATH_MODE: "demo", DATABASE_PATH: path.join(dir, "bench.sqlite"), APP_URL: base, MAIL_CATCHER_PORT: String(await freePort()), SIGNIN_LIMIT_PER_ADDRESS: "100000" };
+  const env = {
+    ...process.env,
+    HEATPATH_MODE: "demo",
+    DATABASE_PATH: path.join(dir, "bench.sqlite"),
+    APP_URL: base,
+    MAIL_CATCHER_PORT: String(await freePort()),
+    SIGNIN_LIMIT_PER_ADDRESS: "100000",
+  };
   for (const step of ["migrate", "seed"]) spawnSync(path.join(root, "node_modules/.bin/tsx"), ["scripts/db.ts", step], { cwd: root, env, stdio: "ignore" });
   const server = spawn(process.execPath, [path.join(root, "node_modules/next/dist/bin/next"), "start", "-H", "127.0.0.1", "-p", String(port)], { cwd: root, env, stdio: "ignore" });
   serverPid = server.pid ?? 0;
   const loadAtStart = os.loadavg()[0];
   try {
     await waitFor(`${base}/api/v1/health`);
-    const signIn = await fetch(`${base}/api/v1/session`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ email: "erin.engineer@example.test", password: DEMO_PASSWORD }) });
+    const signIn = await fetch(`${base}/api/v1/session`, {
+      method: "POST",
+      headers: { "content-type": "application/json" },
+      body: JSON.stringify({ email: "erin.engineer@example.test", password: DEMO_PASSWORD }),
+    });
     const cookie = signIn.headers.get("set-cookie")!.split(";")[0];
     const body = JSON.stringify({
       reaction: "CH4(g) + H2O(g) -> CO(g) + 3 H2(g)",
@@ -164,12 +182,17 @@ async function main() {
     const evaluate = await load(`${base}/api/v1/evaluate`, { method: "POST", body, headers: { "content-type": "application/json", cookie } });
     const columns = await load(`${base}/api/v1/evaluate?format=columns`, { method: "POST", body, headers: { "content-type": "application/json", cookie } });
     const rowBytes = (await (await fetch(`${base}/api/v1/evaluate`, { method: "POST", headers: { "content-type": "application/json", cookie }, body })).text()).length;
-    const columnBytes = (await (await fetch(`${base}/api/v1/evaluate?format=columns`, { method: "POST", headers: { "content-type": "application/json", cookie }, body })).text()).length;
+    const columnBytes = (await (await fetch(`${base}/api/v1/evaluate?format=columns`, { method: "POST", headers: { "content-type": "application/json", cookie }, body })).text())
+      .length;
 
     // One request at a time: what the server spends, with the load generator out of the way.
     const post = { method: "POST", body };
     const json = { "content-type": "application/json", cookie };
-    const single = { health: await timed(`${base}/api/v1/health`, {}, 29), rows: await timed(`${base}/api/v1/evaluate`, json, 29, post), columns: await timed(`${base}/api/v1/evaluate?format=columns`, json, 29, post) };
+    const single = {
+      health: await timed(`${base}/api/v1/health`, {}, 29),
+      rows: await timed(`${base}/api/v1/evaluate`, json, 29, post),
+      columns: await timed(`${base}/api/v1/evaluate?format=columns`, json, 29, post),
+    };
 
     // A 10 000-point case: a seeded draft's reaction and pins over 300–1299.9 K in 0.1 K steps.
     const list = (await (await fetch(`${base}/api/v1/cases?status=draft`, { headers: { cookie } })).json()) as { cases: { id: number }[] };
@@ -188,10 +211,22 @@ async function main() {
     const pageNote = pageAsks.ok ? `\`${PAGE_QUERY}\`` : `\`format=columns\` (the route refused \`${PAGE_QUERY}\` with ${pageAsks.status}: whole columns instead)`;
     // The engine's share of a live draft: the same 10 000-point request through POST /api/v1/evaluate.
     const bigEvaluate = await timed(`${base}/api/v1/evaluate?format=columns`, json, 9, { method: "POST", body: JSON.stringify(whole.request) });
-    const live = { page: await timed(`${resultsUrl}?${pageQuery}`, { cookie }, 30), columns: await timed(`${resultsUrl}?format=columns`, { cookie }), rows: await timed(resultsUrl, { cookie }) };
-    const submitted = await fetch(`${base}/api/v1/cases/${big.id}/submit`, { method: "POST", headers: { "content-type": "application/json", cookie }, body: JSON.stringify({ lockVersion: big.lockVersion }) });
+    const live = {
+      page: await timed(`${resultsUrl}?${pageQuery}`, { cookie }, 30),
+      columns: await timed(`${resultsUrl}?format=columns`, { cookie }),
+      rows: await timed(resultsUrl, { cookie }),
+    };
+    const submitted = await fetch(`${base}/api/v1/cases/${big.id}/submit`, {
+      method: "POST",
+      headers: { "content-type": "application/json", cookie },
+      body: JSON.stringify({ lockVersion: big.lockVersion }),
+    });
     if (submitted.status !== 200) throw new Error(`could not submit the 10 000-point case: ${submitted.status} ${await submitted.text()}`);
-    const frozen = { page: await timed(`${resultsUrl}?${pageQuery}`, { cookie }, 60), columns: await timed(`${resultsUrl}?format=columns`, { cookie }), rows: await timed(resultsUrl, { cookie }) };
+    const frozen = {
+      page: await timed(`${resultsUrl}?${pageQuery}`, { cookie }, 60),
+      columns: await timed(`${resultsUrl}?format=columns`, { cookie }),
+      rows: await timed(resultsUrl, { cookie }),
+    };
     const stall = await duringHeavy(base, cookie);
     const js = (() => {
       try {
@@ -213,15 +248,43 @@ async function main() {
       ["`GET /api/v1/health`", rps(health), "—"],
       ["`GET /api/v1/me` (session and membership lookup, for comparison)", `${rps(me)}: ${(me.rps / health.rps).toFixed(2)} × health`, "—"],
       [`\`POST /api/v1/evaluate\`, ${points} points, 4 species, rows (${kB(rowBytes)} answer)`, `${rps(evaluate)}: ${(evaluate.rps / health.rps).toFixed(2)} × health`, "—"],
-      [`\`POST /api/v1/evaluate?format=columns\`, ${points} points (${kB(columnBytes)} answer)`, `${rps(columns)}: ${ratio.toFixed(2)} × health: ${verdict(ratio >= 0.5)}`, "≥ 0.5 × health"],
+      [
+        `\`POST /api/v1/evaluate?format=columns\`, ${points} points (${kB(columnBytes)} answer)`,
+        `${rps(columns)}: ${ratio.toFixed(2)} × health: ${verdict(ratio >= 0.5)}`,
+        "≥ 0.5 × health",
+      ],
       [`case results request as the case page asks it (${pageNote}), ${bigPoints}-point frozen snapshot`, `${page(frozen.page)}: ${verdict(pageMet(frozen.page))}`, "< 250 ms"],
       [`the same, ${bigPoints}-point live draft (evaluated per request)`, `${page(live.page)}: ${verdict(pageMet(live.page))}`, "< 250 ms"],
-      [`whole answer, frozen snapshot, for comparison: columns / rows`, `${frozen.columns.ms.toFixed(0)} ms (${kB(frozen.columns.bytes)}) / ${frozen.rows.ms.toFixed(0)} ms (${kB(frozen.rows.bytes)})`, "—"],
-      [`whole answer, live draft, for comparison: columns / rows`, `${live.columns.ms.toFixed(0)} ms (${kB(live.columns.bytes)}) / ${live.rows.ms.toFixed(0)} ms (${kB(live.rows.bytes)})`, "—"],
-      [`\`GET /api/v1/health\` while a heavy evaluation runs (${stall.health.length} sequential)`, `${spread(stall.health)}: ${verdict(Math.max(...stall.health) < 1000)}`, "< 1 s"],
-      [`small \`POST /api/v1/evaluate\` (20 points) while a heavy evaluation runs (${stall.small.length} sequential)`, `${spread(stall.small)}: ${verdict(Math.max(...stall.small) < 1000)}`, "< 1 s"],
-      [`the heavy evaluation itself (${stall.heavyLabel})`, `answered ${stall.heavyStatus} after ${(stall.heavyMs / 1000).toFixed(1)} s${stall.allBefore ? "" : " (some small requests came after it)"}`, "—"],
-      ["first-load JavaScript of the case page (gzip, from the build manifests)", `${(js.gzipBytes / 1024).toFixed(1)} kB in ${js.files} files: ${verdict(js.gzipBytes <= 250 * 1024)}`, "≤ 250 kB"],
+      [
+        `whole answer, frozen snapshot, for comparison: columns / rows`,
+        `${frozen.columns.ms.toFixed(0)} ms (${kB(frozen.columns.bytes)}) / ${frozen.rows.ms.toFixed(0)} ms (${kB(frozen.rows.bytes)})`,
+        "—",
+      ],
+      [
+        `whole answer, live draft, for comparison: columns / rows`,
+        `${live.columns.ms.toFixed(0)} ms (${kB(live.columns.bytes)}) / ${live.rows.ms.toFixed(0)} ms (${kB(live.rows.bytes)})`,
+        "—",
+      ],
+      [
+        `\`GET /api/v1/health\` while a heavy evaluation runs (${stall.health.length} sequential)`,
+        `${spread(stall.health)}: ${verdict(Math.max(...stall.health) < 1000)}`,
+        "< 1 s",
+      ],
+      [
+        `small \`POST /api/v1/evaluate\` (20 points) while a heavy evaluation runs (${stall.small.length} sequential)`,
+        `${spread(stall.small)}: ${verdict(Math.max(...stall.small) < 1000)}`,
+        "< 1 s",
+      ],
+      [
+        `the heavy evaluation itself (${stall.heavyLabel})`,
+        `answered ${stall.heavyStatus} after ${(stall.heavyMs / 1000).toFixed(1)} s${stall.allBefore ? "" : " (some small requests came after it)"}`,
+        "—",
+      ],
+      [
+        "first-load JavaScript of the case page (gzip, from the build manifests)",
+        `${(js.gzipBytes / 1024).toFixed(1)} kB in ${js.files} files: ${verdict(js.gzipBytes <= 250 * 1024)}`,
+        "≤ 250 kB",
+      ],
     ];
     console.log(
       `\nHeatpath API benchmark — ${new Date().toISOString().slice(0, 16)}Z, ${os.cpus().length} cores, Node ${process.versions.node}, load average ${loadAtStart.toFixed(1)} at the start and ${endLoad.toFixed(1)} at the end; next start on 127.0.0.1, autocannon ${CONNECTIONS} connections, ${SECONDS} s per target\n`,
@@ -229,9 +292,15 @@ async function main() {
     console.log("| measurement | figure | target |\n|---|---|---|");
     for (const [m, f, t] of rows) console.log(`| ${m} | ${f} | ${t} |`);
 
-    console.log(`\nserver CPU per request at ${CONNECTIONS} connections, all threads (main thread): health ${cpu(health)}, me ${cpu(me)}, evaluate rows ${cpu(evaluate)}, columns ${cpu(columns)}`);
-    console.log(`one request at a time (median of 29): health ${single.health.ms.toFixed(1)} ms, evaluate rows ${single.rows.ms.toFixed(1)} ms, columns ${single.columns.ms.toFixed(1)} ms`);
-    console.log(`the live draft's request through POST /api/v1/evaluate?format=columns (${bigPoints} points, the engine's share): median ${bigEvaluate.ms.toFixed(0)} ms (${kB(bigEvaluate.bytes)})`);
+    console.log(
+      `\nserver CPU per request at ${CONNECTIONS} connections, all threads (main thread): health ${cpu(health)}, me ${cpu(me)}, evaluate rows ${cpu(evaluate)}, columns ${cpu(columns)}`,
+    );
+    console.log(
+      `one request at a time (median of 29): health ${single.health.ms.toFixed(1)} ms, evaluate rows ${single.rows.ms.toFixed(1)} ms, columns ${single.columns.ms.toFixed(1)} ms`,
+    );
+    console.log(
+      `the live draft's request through POST /api/v1/evaluate?format=columns (${bigPoints} points, the engine's share): median ${bigEvaluate.ms.toFixed(0)} ms (${kB(bigEvaluate.bytes)})`,
+    );
     if (ratio < 0.5 && columns.cpuMs !== null && health.cpuMs !== null) {
       console.log(
         `evaluate (columns) missed: the server spent ${(columns.cpuMs / health.cpuMs).toFixed(1)} × health's CPU per request (${columns.cpuMs.toFixed(2)} against ${health.cpuMs.toFixed(2)} ms), ` +
@@ -239,11 +308,16 @@ async function main() {
           (endLoad > os.cpus().length ? `; the machine was loaded (load average ${endLoad.toFixed(1)} on ${os.cpus().length} cores), so re-run on a quiet one` : ""),
       );
     }
-    for (const [name, t] of [["frozen snapshot", frozen.page], ["live draft", live.page]] as const) {
+    for (const [name, t] of [
+      ["frozen snapshot", frozen.page],
+      ["live draft", live.page],
+    ] as const) {
       if (!pageMet(t)) {
         console.log(
           `case results request (${name}) missed: p50 ${t.ms.toFixed(0)} ms, p99 ${t.p99.toFixed(0)} ms` +
-            (name === "live draft" ? `; the engine's answer for the same request alone takes ${bigEvaluate.ms.toFixed(0)} ms` : `; the first request, which reads the snapshot from the database, took ${t.first.toFixed(0)} ms`) +
+            (name === "live draft"
+              ? `; the engine's answer for the same request alone takes ${bigEvaluate.ms.toFixed(0)} ms`
+              : `; the first request, which reads the snapshot from the database, took ${t.first.toFixed(0)} ms`) +
             (endLoad > os.cpus().length ? `; load average ${endLoad.toFixed(1)} on ${os.cpus().length} cores` : ""),
         );
       }

@@ -37,7 +37,11 @@ async function signIn(base: string, email: string): Promise<string> {
 
 function client(base: string, cookie: string) {
   return async (method: string, path: string, body?: unknown): Promise<Call> => {
-    const r = await fetch(`${base}${path}`, { method, headers: { cookie, ...(body !== undefined ? { "content-type": "application/json" } : {}) }, body: body === undefined ? undefined : JSON.stringify(body) });
+    const r = await fetch(`${base}${path}`, {
+      method,
+      headers: { cookie, ...(body !== undefined ? { "content-type": "application/json" } : {}) },
+      body: body === undefined ? undefined : JSON.stringify(body),
+    });
     const text = await r.text();
     let parsed: unknown = text;
     try {
@@ -121,10 +125,16 @@ async function main() {
     const seedS = (performance.now() - t0) / 1000;
 
     type Seg = { coeffs: Record<string, number> };
-    const draft = must("draft", await sam("POST", `/api/v1/models/${copy.id}/versions`, { fromVersionId: copy.approvedVersionId }), 201) as { version: { id: number; lockVersion: number; data: { segments: Seg[] } } };
+    const draft = must("draft", await sam("POST", `/api/v1/models/${copy.id}/versions`, { fromVersionId: copy.approvedVersionId }), 201) as {
+      version: { id: number; lockVersion: number; data: { segments: Seg[] } };
+    };
     const v = draft.version;
     const data = { ...v.data, segments: v.data.segments.map((s) => ({ ...s, coeffs: { ...s.coeffs, F: s.coeffs.F + 1.5, H: s.coeffs.H + 1.5 } })) };
-    must("edit", await sam("PATCH", `/api/v1/versions/${v.id}`, { lockVersion: v.lockVersion, data, changeNote: "ΔfH° raised by 1.5 kJ/mol (synthetic, for the impact bench)." }), 200);
+    must(
+      "edit",
+      await sam("PATCH", `/api/v1/versions/${v.id}`, { lockVersion: v.lockVersion, data, changeNote: "ΔfH° raised by 1.5 kJ/mol (synthetic, for the impact bench)." }),
+      200,
+    );
 
     const small = JSON.stringify(smallRequest());
     const probes: Probe[] = [
@@ -164,8 +174,12 @@ async function main() {
     }
     const jobS = job?.startedAt && job.finishedAt ? (Date.parse(job.finishedAt) - Date.parse(job.startedAt)) / 1000 : NaN;
 
-    console.log(`\nHeatpath impact benchmark — ${CASES} pinned cases, next start on 127.0.0.1 (${os.cpus().length} cores, load average ${os.loadavg()[0].toFixed(1)} at the end), ${new Date().toISOString().slice(0, 16)}Z\n`);
-    console.log(`seeded ${CASES} cases in ${seedS.toFixed(1)} s; impact job: ${job?.status ?? "not seen"}, ${job?.done ?? 0} of ${job?.total ?? 0} cases in ${Number.isNaN(jobS) ? "—" : `${jobS.toFixed(1)} s`}${job?.status === "done" ? "" : ` (stopped after ${(CAP_MS / 1000).toFixed(0)} s)`}\n`);
+    console.log(
+      `\nHeatpath impact benchmark — ${CASES} pinned cases, next start on 127.0.0.1 (${os.cpus().length} cores, load average ${os.loadavg()[0].toFixed(1)} at the end), ${new Date().toISOString().slice(0, 16)}Z\n`,
+    );
+    console.log(
+      `seeded ${CASES} cases in ${seedS.toFixed(1)} s; impact job: ${job?.status ?? "not seen"}, ${job?.done ?? 0} of ${job?.total ?? 0} cases in ${Number.isNaN(jobS) ? "—" : `${jobS.toFixed(1)} s`}${job?.status === "done" ? "" : ` (stopped after ${(CAP_MS / 1000).toFixed(0)} s)`}\n`,
+    );
     console.log("| request | idle p50 / p95 / p99 ms | during p50 / p95 / p99 ms | samples idle / during | target: during p99 ≤ 2 × idle p99 + 50 ms |");
     console.log("|---|---|---|---|---|");
     for (const p of probes) {

@@ -175,7 +175,12 @@ class TableHash {
   constructor(private columns: Column[]) {}
   add(row: Record<string, unknown>) {
     const values = this.columns.map((c) => normal(c.family, row[c.name]));
-    this.rows.push(crypto.createHash("sha256").update(canonicalize(values) ?? "").digest("hex"));
+    this.rows.push(
+      crypto
+        .createHash("sha256")
+        .update(canonicalize(values) ?? "")
+        .digest("hex"),
+    );
   }
   digest(): string {
     return crypto.createHash("sha256").update(this.rows.sort().join("\n")).digest("hex");
@@ -205,7 +210,11 @@ async function checksum(s: Sequelize, table: string, columns: Column[], size: nu
 async function triggersOf(s: Sequelize, transaction?: Transaction): Promise<string[]> {
   const rows =
     s.getDialect() === "postgres"
-      ? await select<{ name: string }>(s, "SELECT DISTINCT t.tgname AS name FROM pg_trigger t JOIN pg_class c ON c.oid = t.tgrelid JOIN pg_namespace n ON n.oid = c.relnamespace WHERE NOT t.tgisinternal AND n.nspname = current_schema()", transaction)
+      ? await select<{ name: string }>(
+          s,
+          "SELECT DISTINCT t.tgname AS name FROM pg_trigger t JOIN pg_class c ON c.oid = t.tgrelid JOIN pg_namespace n ON n.oid = c.relnamespace WHERE NOT t.tgisinternal AND n.nspname = current_schema()",
+          transaction,
+        )
       : await select<{ name: string }>(s, "SELECT name FROM sqlite_master WHERE type = 'trigger'", transaction);
   return rows.map((r) => r.name).sort();
 }
@@ -251,7 +260,8 @@ export async function copyDatabase(options: CopyOptions): Promise<CopyReport> {
   const size = options.batchSize ?? 200;
   const dryRun = Boolean(options.dryRun);
   if ("file" in options.from && !fs.existsSync(options.from.file)) throw new CopyRefused(`the source ${options.from.file} does not exist`);
-  if ("file" in options.to && "file" in options.from && path.resolve(options.to.file) === path.resolve(options.from.file)) throw new CopyRefused("the source and the target are the same file");
+  if ("file" in options.to && "file" in options.from && path.resolve(options.to.file) === path.resolve(options.from.file))
+    throw new CopyRefused("the source and the target are the same file");
   if ("url" in options.from && "url" in options.to && options.from.url === options.to.url) throw new CopyRefused("the source and the target are the same database");
   const source = open(options.from);
   // A dry run never creates a missing SQLite target file.
@@ -276,7 +286,8 @@ export async function copyDatabase(options: CopyOptions): Promise<CopyReport> {
     const targetTables = target ? await tablesOf(target) : [];
     const nonEmpty: string[] = [];
     for (const t of targetTables) if (t !== META && (await count(target!, t)) > 0) nonEmpty.push(t);
-    if (nonEmpty.length) throw new CopyRefused(`the target is not empty: ${nonEmpty.slice(0, 5).join(", ")}${nonEmpty.length > 5 ? ", …" : ""} hold rows; copy only into an empty database`);
+    if (nonEmpty.length)
+      throw new CopyRefused(`the target is not empty: ${nonEmpty.slice(0, 5).join(", ")}${nonEmpty.length > 5 ? ", …" : ""} hold rows; copy only into an empty database`);
     const stray = targetTables.filter((t) => t !== META && !sourceTables.includes(t));
     if (stray.length) throw new CopyRefused(`the target has tables the schema does not: ${stray.join(", ")}; copy only into an empty database`);
     const targetDone = target ? await migrationsOf(target, targetTables) : [];
@@ -296,7 +307,16 @@ export async function copyDatabase(options: CopyOptions): Promise<CopyReport> {
     log(`  tables in foreign-key order, in one transaction: ${plan.map((p) => `${p.table} (${p.rows})`).join(", ")}`);
     log(`  then: reset id sequences, verify row counts and checksums per table, the immutability triggers, every snapshot hash; commit only if all agree`);
 
-    const report: CopyReport = { dryRun, from: describeEndpoint(options.from), to: describeEndpoint(options.to), migrations: { pending: pending.length, total: all.length }, tables: plan, sequences: [], triggers: [], snapshotsVerified: 0 };
+    const report: CopyReport = {
+      dryRun,
+      from: describeEndpoint(options.from),
+      to: describeEndpoint(options.to),
+      migrations: { pending: pending.length, total: all.length },
+      tables: plan,
+      sequences: [],
+      triggers: [],
+      snapshotsVerified: 0,
+    };
     if (dryRun || !target) {
       report.snapshotsVerified = await verifySnapshots(source, data, size);
       log(`  source snapshots verified: ${report.snapshotsVerified}; dry run: nothing written`);
@@ -307,7 +327,11 @@ export async function copyDatabase(options: CopyOptions): Promise<CopyReport> {
     const targetColumns = new Map<string, Column[]>();
     for (const t of order) {
       const columns = await columnsOf(target, t);
-      const names = (cs: Column[]) => cs.map((c) => c.name).sort().join(",");
+      const names = (cs: Column[]) =>
+        cs
+          .map((c) => c.name)
+          .sort()
+          .join(",");
       if (names(columns) !== names(sourceColumns.get(t)!)) throw new CopyRefused(`table ${t} has different columns in the source and the target`);
       targetColumns.set(t, columns);
     }
@@ -354,9 +378,11 @@ export async function copyDatabase(options: CopyOptions): Promise<CopyReport> {
       const absent = IMMUTABLE_TRIGGERS[dialect].filter((t) => !triggers.includes(t));
       if (absent.length) throw new CopyRefused(`the target lacks the immutability triggers ${absent.join(", ")}`);
       const [snap] = await select<{ id: number }>(target, "SELECT id FROM case_snapshots ORDER BY id LIMIT 1", transaction);
-      if (snap && !(await probeRefuses(target, transaction, `UPDATE case_snapshots SET hash = hash WHERE id = ${Number(snap.id)}`))) throw new CopyRefused("the target's case snapshot guard did not refuse an update");
+      if (snap && !(await probeRefuses(target, transaction, `UPDATE case_snapshots SET hash = hash WHERE id = ${Number(snap.id)}`)))
+        throw new CopyRefused("the target's case snapshot guard did not refuse an update");
       const [approved] = await select<{ id: number }>(target, "SELECT id FROM model_versions WHERE status = 'approved' ORDER BY id LIMIT 1", transaction);
-      if (approved && !(await probeRefuses(target, transaction, `UPDATE model_versions SET citation = citation WHERE id = ${Number(approved.id)}`))) throw new CopyRefused("the target's model version guard did not refuse an update");
+      if (approved && !(await probeRefuses(target, transaction, `UPDATE model_versions SET citation = citation WHERE id = ${Number(approved.id)}`)))
+        throw new CopyRefused("the target's model version guard did not refuse an update");
       report.triggers = IMMUTABLE_TRIGGERS[dialect];
       report.snapshotsVerified = await verifySnapshots(target, order, size, transaction);
     });

@@ -31,9 +31,7 @@ function configureEveryConnection(sequelize: Sequelize) {
     if (!connection.__heatpathReady) {
       connection.configure("busyTimeout", BUSY_TIMEOUT_MS);
       await new Promise<void>((resolve, reject) =>
-        connection.exec("PRAGMA journal_mode=WAL; PRAGMA foreign_keys=ON; PRAGMA synchronous=NORMAL;", (err) =>
-          err ? reject(err) : resolve(),
-        ),
+        connection.exec("PRAGMA journal_mode=WAL; PRAGMA foreign_keys=ON; PRAGMA synchronous=NORMAL;", (err) => (err ? reject(err) : resolve())),
       );
       connection.__heatpathReady = true;
     }

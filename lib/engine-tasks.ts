@@ -27,9 +27,7 @@ export type EngineTaskResult<N extends EngineTaskName> = ReturnType<(typeof ENGI
  * do not survive structured clone). A value that is a Uint8Array is transferred, not copied
  * (lib/engine-worker.mjs).
  */
-export type EngineTaskOutcome =
-  | { ok: true; value: unknown }
-  | { ok: false; refusal: { code: string; message: string; details?: unknown } };
+export type EngineTaskOutcome = { ok: true; value: unknown } | { ok: false; refusal: { code: string; message: string; details?: unknown } };
 
 export function runTask(name: string, payload: unknown): EngineTaskOutcome {
   if (!Object.prototype.hasOwnProperty.call(ENGINE_TASKS, name)) throw new Error(`unknown engine task "${name}"`);

@@ -72,8 +72,7 @@ export async function readJson<T>(request: Request, schema: ZodType<T>, limitByt
   return parsed.data;
 }
 
-const tooLarge = (limit: number) =>
-  new AppError(413, "body-too-large", `The body is larger than the ${Math.round(limit / 1024)} KiB limit.`);
+const tooLarge = (limit: number) => new AppError(413, "body-too-large", `The body is larger than the ${Math.round(limit / 1024)} KiB limit.`);
 
 async function readText(request: Request, limitBytes: number): Promise<string> {
   if (!request.body) return "";
@@ -109,8 +108,7 @@ export function queryObject(request: Request): Record<string, string> {
 }
 
 type Refusal = { name: string; code: string; message: string; details?: unknown };
-const isEngineRefusal = (e: unknown): e is Refusal =>
-  e instanceof Error && e.name === "EngineRefusal" && typeof (e as unknown as Refusal).code === "string";
+const isEngineRefusal = (e: unknown): e is Refusal => e instanceof Error && e.name === "EngineRefusal" && typeof (e as unknown as Refusal).code === "string";
 
 /** Turn any thrown value into the error shape. Unexpected errors say nothing about internals. */
 export function toErrorResponse(error: unknown): Response {

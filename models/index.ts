@@ -61,8 +61,44 @@ export function defineModels(sequelize: Sequelize) {
   Case.hasMany(Comment, { foreignKey: "caseId", as: "comments" });
   Comment.belongsTo(User, { foreignKey: "authorId", as: "author" });
 
-  return { User, Team, Membership, Invitation, AuditEvent, Species, CpModel, Dataset, ModelVersion, ModelVersionContributor, MailMessage, CaughtMail, RateLimit, Case, CaseSnapshot, Review, Comment, ImpactJob };
+  return {
+    User,
+    Team,
+    Membership,
+    Invitation,
+    AuditEvent,
+    Species,
+    CpModel,
+    Dataset,
+    ModelVersion,
+    ModelVersionContributor,
+    MailMessage,
+    CaughtMail,
+    RateLimit,
+    Case,
+    CaseSnapshot,
+    Review,
+    Comment,
+    ImpactJob,
+  };
 }
 
 export type Models = ReturnType<typeof defineModels>;
-export type { AuditEvent, Case, CaseSnapshot, Comment, Review, CaughtMail, MailMessage, CpModel, Dataset, Invitation, Membership, ModelVersion, ModelVersionContributor, Species, Team, User };
+export type {
+  AuditEvent,
+  Case,
+  CaseSnapshot,
+  Comment,
+  Review,
+  CaughtMail,
+  MailMessage,
+  CpModel,
+  Dataset,
+  Invitation,
+  Membership,
+  ModelVersion,
+  ModelVersionContributor,
+  Species,
+  Team,
+  User,
+};

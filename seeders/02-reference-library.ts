@@ -29,11 +29,20 @@ export async function seed({ models, sequelize }: SeedContext, options: { record
       const fields = { boilingPointK: points?.boilingPointK ?? null, triplePointK: points?.triplePointK ?? null, phasePointsCitation: points?.citation ?? null };
       const [s, created] = await Species.findOrCreate({
         where: { teamId: null, formula },
-        defaults: { teamId: null, formula, displayName: info.displayName, elements: parsed.elements, molarMassGPerMol: parsed.molarMassGPerMol, identifiers: { cas: info.cas }, ...fields },
+        defaults: {
+          teamId: null,
+          formula,
+          displayName: info.displayName,
+          elements: parsed.elements,
+          molarMassGPerMol: parsed.molarMassGPerMol,
+          identifiers: { cas: info.cas },
+          ...fields,
+        },
         transaction,
       });
       speciesIds.set(formula, s.id);
-      const stale = withPoints && !created && (s.boilingPointK !== fields.boilingPointK || s.triplePointK !== fields.triplePointK || s.phasePointsCitation !== fields.phasePointsCitation);
+      const stale =
+        withPoints && !created && (s.boilingPointK !== fields.boilingPointK || s.triplePointK !== fields.triplePointK || s.phasePointsCitation !== fields.phasePointsCitation);
       if (stale) {
         const before = { boilingPointK: s.boilingPointK, triplePointK: s.triplePointK, phasePointsCitation: s.phasePointsCitation };
         await s.update(fields, { transaction });
@@ -76,7 +85,15 @@ export async function seed({ models, sequelize }: SeedContext, options: { record
         { transaction },
       );
       await AuditEvent.create(
-        { teamId: null, actorId: null, action: "model-version.seeded", entityType: "model-version", entityId: String(version.id), before: null, after: { status: "approved", source: ref.dataFile } },
+        {
+          teamId: null,
+          actorId: null,
+          action: "model-version.seeded",
+          entityType: "model-version",
+          entityId: String(version.id),
+          before: null,
+          after: { status: "approved", source: ref.dataFile },
+        },
         { transaction },
       );
     }

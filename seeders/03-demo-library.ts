@@ -42,7 +42,14 @@ export async function seed({ models, sequelize }: SeedContext): Promise<void> {
     const parsed = parseFormula(DEMO_SUPPORT.formula);
     const [species] = await Species.findOrCreate({
       where: { teamId: team.id, formula: DEMO_SUPPORT.formula },
-      defaults: { teamId: team.id, formula: DEMO_SUPPORT.formula, displayName: DEMO_SUPPORT.displayName, elements: parsed.elements, molarMassGPerMol: parsed.molarMassGPerMol, identifiers: null },
+      defaults: {
+        teamId: team.id,
+        formula: DEMO_SUPPORT.formula,
+        displayName: DEMO_SUPPORT.displayName,
+        elements: parsed.elements,
+        molarMassGPerMol: parsed.molarMassGPerMol,
+        identifiers: null,
+      },
       transaction,
     });
     if (await CpModel.findOne({ where: { teamId: team.id, speciesId: species.id, name: DEMO_MODEL_NAME }, transaction })) return;
@@ -66,7 +73,10 @@ export async function seed({ models, sequelize }: SeedContext): Promise<void> {
     );
     await audit("dataset.uploaded", "dataset", dataset.id, sam.id, { name: dataset.name, points: points.length });
 
-    const model = await CpModel.create({ speciesId: species.id, teamId: team.id, name: DEMO_MODEL_NAME, family: "measured", variant: null, copiedFromId: null, createdById: sam.id }, { transaction });
+    const model = await CpModel.create(
+      { speciesId: species.id, teamId: team.id, name: DEMO_MODEL_NAME, family: "measured", variant: null, copiedFromId: null, createdById: sam.id },
+      { transaction },
+    );
     await audit("cp-model.created", "cp-model", model.id, sam.id, { name: model.name });
     const citation = "Larkspur Hydrogen Works lab, DSC of catalyst support lot 7 (invented demo data)";
 
@@ -76,10 +86,20 @@ export async function seed({ models, sequelize }: SeedContext): Promise<void> {
     const t0 = new Date(Date.now() - 3 * 86_400_000);
     const rejected = await ModelVersion.create(
       {
-        modelId: model.id, teamId: team.id, versionNumber: 1, status: "rejected", data: powerData, citation, uncertainty: null,
+        modelId: model.id,
+        teamId: team.id,
+        versionNumber: 1,
+        status: "rejected",
+        data: powerData,
+        citation,
+        uncertainty: null,
         changeNote: `Power series T^0..T^4 fitted to ${points.length} points, 300–900 K, RMS ${power.rmsJ.toFixed(2)} J/(mol·K).`,
         decisionReason: "Five free terms follow the scatter of one DSC run and bend away beyond 900 K; refit with the three-term Maier–Kelley form over the measured range.",
-        datasetId: dataset.id, authorId: sam.id, decidedById: stella.id, proposedAt: t0, decidedAt: new Date(t0.getTime() + 3_600_000),
+        datasetId: dataset.id,
+        authorId: sam.id,
+        decidedById: stella.id,
+        proposedAt: t0,
+        decidedAt: new Date(t0.getTime() + 3_600_000),
       },
       { transaction },
     );
@@ -91,10 +111,20 @@ export async function seed({ models, sequelize }: SeedContext): Promise<void> {
     const mk = fitCp({ form: "maier-kelley", points, phase: "cr", reference: DEMO_REFERENCE });
     const proposed = await ModelVersion.create(
       {
-        modelId: model.id, teamId: team.id, versionNumber: 2, status: "proposed", data: { segments: [mk.segment!], reference: mk.reference }, citation,
+        modelId: model.id,
+        teamId: team.id,
+        versionNumber: 2,
+        status: "proposed",
+        data: { segments: [mk.segment!], reference: mk.reference },
+        citation,
         uncertainty: { cpRelative: 0.005 },
         changeNote: `Maier–Kelley fitted to ${points.length} points, 300–900 K, RMS ${mk.rmsJ.toFixed(2)} J/(mol·K); anchor ΔfH° and S° at 298.15 K invented for the demo.`,
-        decisionReason: null, datasetId: dataset.id, authorId: sam.id, decidedById: null, proposedAt: new Date(Date.now() - 86_400_000), decidedAt: null,
+        decisionReason: null,
+        datasetId: dataset.id,
+        authorId: sam.id,
+        decidedById: null,
+        proposedAt: new Date(Date.now() - 86_400_000),
+        decidedAt: null,
       },
       { transaction },
     );
@@ -106,14 +136,35 @@ export async function seed({ models, sequelize }: SeedContext): Promise<void> {
     const refModel = methane && (await CpModel.findOne({ where: { teamId: null, speciesId: methane.id, family: "shomate-janaf" }, transaction }));
     const refVersion = refModel && (await ModelVersion.findOne({ where: { modelId: refModel.id, status: "approved" }, transaction }));
     if (refModel && refVersion) {
-      const copy = await CpModel.create({ speciesId: methane!.id, teamId: team.id, name: `${refModel.name} (team copy)`, family: refModel.family, variant: refModel.variant, copiedFromId: refModel.id, createdById: sam.id }, { transaction });
+      const copy = await CpModel.create(
+        {
+          speciesId: methane!.id,
+          teamId: team.id,
+          name: `${refModel.name} (team copy)`,
+          family: refModel.family,
+          variant: refModel.variant,
+          copiedFromId: refModel.id,
+          createdById: sam.id,
+        },
+        { transaction },
+      );
       await audit("cp-model.created", "cp-model", copy.id, sam.id, { name: copy.name, copiedFromId: refModel.id });
       const v = await ModelVersion.create(
         {
-          modelId: copy.id, teamId: team.id, versionNumber: 1, status: "approved", data: refVersion.data, citation: refVersion.citation, uncertainty: refVersion.uncertainty,
+          modelId: copy.id,
+          teamId: team.id,
+          versionNumber: 1,
+          status: "approved",
+          data: refVersion.data,
+          citation: refVersion.citation,
+          uncertainty: refVersion.uncertainty,
           changeNote: `Copied from reference version ${refVersion.versionNumber} of ${refModel.name} for the steam reformer check.`,
-          decisionReason: "Unchanged reference set; approved for team use.", datasetId: null, authorId: sam.id, decidedById: stella.id,
-          proposedAt: new Date(Date.now() - 5 * 86_400_000), decidedAt: new Date(Date.now() - 4 * 86_400_000),
+          decisionReason: "Unchanged reference set; approved for team use.",
+          datasetId: null,
+          authorId: sam.id,
+          decidedById: stella.id,
+          proposedAt: new Date(Date.now() - 5 * 86_400_000),
+          decidedAt: new Date(Date.now() - 4 * 86_400_000),
         },
         { transaction },
       );

@@ -47,7 +47,15 @@ function termsOf(reaction: string): Term[] {
 /** A feed at a pressure with its key species; kmol/h, no extra reactions or species unless `more` says otherwise. */
 function feed(flows: Record<string, number>, pressure: string, key: string, more: Partial<Omit<DemoEquilibrium, "extra">> & { extra?: string[] } = {}): DemoEquilibrium {
   const { extra = [], ...rest } = more;
-  return { feed: flows, feedUnit: "kmol/h", pressure, key, reactions: [], ...rest, extra: extra.map((k) => ({ formula: parseSpeciesKey(k).formula, phase: parseSpeciesKey(k).phase ?? null })) };
+  return {
+    feed: flows,
+    feedUnit: "kmol/h",
+    pressure,
+    key,
+    reactions: [],
+    ...rest,
+    extra: extra.map((k) => ({ formula: parseSpeciesKey(k).formula, phase: parseSpeciesKey(k).phase ?? null })),
+  };
 }
 
 /** One demo case: the reaction as text, the span as [from, to, step] (K, or quantities with their unit). */
@@ -120,7 +128,8 @@ export const DEMO_CASES: Plan[] = (
     },
     {
       title: "Methanol synthesis loop 450–600 K",
-      notes: "Methanol converter on a CO-rich side stream around 500 K and 80 bar (invented). GRI-Mech 3.0 sets throughout: the 2015 database's methanol record is left out of the library.",
+      notes:
+        "Methanol converter on a CO-rich side stream around 500 K and 80 bar (invented). GRI-Mech 3.0 sets throughout: the 2015 database's methanol record is left out of the library.",
       reaction: "CO(g) + 2 H2(g) -> CH3OH(g)",
       span: [450, 600, 2],
       toleranceKJ: 1,
@@ -214,7 +223,9 @@ export async function seed(ctx: SeedContext, options: { plans?: Plan[] } = {}): 
       for (const t of [...plan.terms, ...(plan.equilibrium?.extra ?? [])]) {
         const p = await pinFor(ctx, t.formula, t.phase, transaction, plan.family);
         if (!p) {
-          console.log(`04-demo-cases: skipped: no approved ${plan.family ?? FAMILY} reference version of ${t.formula}${t.phase ? `(${t.phase})` : ""}; run 02-reference-library first`);
+          console.log(
+            `04-demo-cases: skipped: no approved ${plan.family ?? FAMILY} reference version of ${t.formula}${t.phase ? `(${t.phase})` : ""}; run 02-reference-library first`,
+          );
           return;
         }
         pins.push(p);
@@ -234,7 +245,18 @@ export async function seed(ctx: SeedContext, options: { plans?: Plan[] } = {}): 
         inputs.equilibrium = { ...eq, inert: eq.inert ?? [], extraTerms: extra.map((t, i) => ({ ...t, versionId: extraPins[i].versionId })) };
       }
       const { title: _t, notes: _n, ...stored } = inputs;
-      const row = await Case.create({ teamId: team.id, authorId: erin.id, title: plan.title, notes: plan.notes, status: plan.flow, inputs: stored, lockVersion: plan.flow === "draft" ? 0 : plan.flow === "submitted" ? 1 : 2 }, { transaction });
+      const row = await Case.create(
+        {
+          teamId: team.id,
+          authorId: erin.id,
+          title: plan.title,
+          notes: plan.notes,
+          status: plan.flow,
+          inputs: stored,
+          lockVersion: plan.flow === "draft" ? 0 : plan.flow === "submitted" ? 1 : 2,
+        },
+        { transaction },
+      );
       await audit("case.created", row.id, erin.id, { title: plan.title, seeded: true });
       if (plan.flow === "draft") continue;
 

@@ -44,7 +44,9 @@ export type PhasePoints = { boilingPointK: number | null; triplePointK: number |
 
 const CRC = "CRC Handbook of Chemistry and Physics, normal boiling point and triple point (from memory)";
 const pp = (boilingPointK: number | null, triplePointK: number | null, note = ""): PhasePoints => ({
-  boilingPointK, triplePointK, citation: note ? `${CRC}; ${note}` : CRC,
+  boilingPointK,
+  triplePointK,
+  citation: note ? `${CRC}; ${note}` : CRC,
 });
 
 /**
@@ -121,7 +123,10 @@ export function segmentsOf(r: ReferenceRecord): SegmentInput[] {
 
 /** "published max least-squares Cp error 0.33% @ …" → 0.0033. */
 function cpError(records: ReferenceRecord[]): number | null {
-  const values = records.map((r) => /max least-squares Cp error ([\d.]+)%/.exec(r.notes ?? "")?.[1]).filter((x): x is string => !!x).map(Number);
+  const values = records
+    .map((r) => /max least-squares Cp error ([\d.]+)%/.exec(r.notes ?? "")?.[1])
+    .filter((x): x is string => !!x)
+    .map(Number);
   return values.length ? Math.max(...values) / 100 : null;
 }
 
@@ -137,7 +142,11 @@ function modelName(formula: string, family: ReferenceFamily, variant: string | n
   if (variant === "anharmonic") label += " anharmonic";
   else if (variant === "rrho") label += " RRHO";
   else if (variant === "liquid") label += " liquid";
-  else if (phases.length > 1) label += ` ${phases.map((p) => PHASE_WORDS[p] ?? p).join(", ").replace(/, ([^,]*)$/, " and $1")}`;
+  else if (phases.length > 1)
+    label += ` ${phases
+      .map((p) => PHASE_WORDS[p] ?? p)
+      .join(", ")
+      .replace(/, ([^,]*)$/, " and $1")}`;
   else if (phases[0] === "cr" && SOLID_WORDS[formula]) label += ` ${SOLID_WORDS[formula]}`;
   return `${formula} · ${label} (${w.source})`;
 }

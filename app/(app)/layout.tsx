@@ -19,7 +19,11 @@ export default async function AppLayout({ children }: { children: React.ReactNod
   return (
     <>
       {/* Admins read the team's mail; in demo mode everyone reads their own from the local catcher. */}
-      <a href="#main" className="sr-only z-50 rounded-md bg-paper px-3 py-2 text-sm font-medium text-ink focus:not-sr-only focus:absolute focus:left-3 focus:top-3" data-testid="skip-link">
+      <a
+        href="#main"
+        className="sr-only z-50 rounded-md bg-paper px-3 py-2 text-sm font-medium text-ink focus:not-sr-only focus:absolute focus:left-3 focus:top-3"
+        data-testid="skip-link"
+      >
         Skip to main content
       </a>
       <AppHeader
@@ -31,7 +35,9 @@ export default async function AppLayout({ children }: { children: React.ReactNod
           ...(can(actor.role, "outbox.view") || !isProduction ? [{ href: "/outbox", label: "Outbox" }] : []),
         ]}
       />
-      <main id="main" tabIndex={-1} className="mx-auto max-w-6xl px-4 py-8 focus:outline-none">{children}</main>
+      <main id="main" tabIndex={-1} className="mx-auto max-w-6xl px-4 py-8 focus:outline-none">
+        {children}
+      </main>
     </>
   );
 }

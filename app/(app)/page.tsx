@@ -20,9 +20,22 @@ export default async function HomePage() {
       <div className="grid gap-4 md:grid-cols-3">
         <Card title="You">
           <dl className="space-y-2 text-sm">
-            <div className="flex justify-between gap-2"><dt className="text-ink-muted">Signed in as</dt><dd className="font-medium">{actor.email}</dd></div>
-            <div className="flex justify-between gap-2"><dt className="text-ink-muted">Team</dt><dd className="font-medium" data-testid="home-team">{actor.teamName}</dd></div>
-            <div className="flex justify-between gap-2"><dt className="text-ink-muted">Role</dt><dd data-testid="home-role"><Badge tone="ember">{ROLE_LABELS[actor.role]}</Badge></dd></div>
+            <div className="flex justify-between gap-2">
+              <dt className="text-ink-muted">Signed in as</dt>
+              <dd className="font-medium">{actor.email}</dd>
+            </div>
+            <div className="flex justify-between gap-2">
+              <dt className="text-ink-muted">Team</dt>
+              <dd className="font-medium" data-testid="home-team">
+                {actor.teamName}
+              </dd>
+            </div>
+            <div className="flex justify-between gap-2">
+              <dt className="text-ink-muted">Role</dt>
+              <dd data-testid="home-role">
+                <Badge tone="ember">{ROLE_LABELS[actor.role]}</Badge>
+              </dd>
+            </div>
           </dl>
         </Card>
         <Card title="What you can do here" className="md:col-span-2">
@@ -39,12 +52,21 @@ export default async function HomePage() {
         {can(actor.role, "cases.create") && (
           <Card title={<span data-testid="home-drafts">My drafts and returned cases ({waiting.drafts.length})</span>}>
             {waiting.drafts.length === 0 ? (
-              <p className="text-sm text-ink-muted">Nothing open. <Link className={link} href="/cases/new">Start a case</Link>.</p>
+              <p className="text-sm text-ink-muted">
+                Nothing open.{" "}
+                <Link className={link} href="/cases/new">
+                  Start a case
+                </Link>
+                .
+              </p>
             ) : (
               <ul className="space-y-2 text-sm">
                 {waiting.drafts.slice(0, 6).map((c) => (
                   <li key={c.id}>
-                    <Link className={link} href={`/cases/${c.id}`}>{c.title}</Link> <StatusBadge status={c.status} />
+                    <Link className={link} href={`/cases/${c.id}`}>
+                      {c.title}
+                    </Link>{" "}
+                    <StatusBadge status={c.status} />
                   </li>
                 ))}
               </ul>
@@ -59,8 +81,12 @@ export default async function HomePage() {
               <ul className="space-y-2 text-sm">
                 {waiting.reviews.slice(0, 6).map((c) => (
                   <li key={c.id}>
-                    <Link className={link} href={`/cases/${c.id}`}>{c.title}</Link>
-                    <span className="block text-xs text-ink-muted">{c.authorName} · r{c.latestRevision}</span>
+                    <Link className={link} href={`/cases/${c.id}`}>
+                      {c.title}
+                    </Link>
+                    <span className="block text-xs text-ink-muted">
+                      {c.authorName} · r{c.latestRevision}
+                    </span>
                   </li>
                 ))}
               </ul>
@@ -71,18 +97,32 @@ export default async function HomePage() {
           <Card title={<span data-testid="home-proposals">Proposals waiting for my approval ({waiting.proposals})</span>}>
             {waiting.proposalItems.length === 0 ? (
               <p className="text-sm text-ink-muted">
-                No proposed model versions from colleagues. <Link className={link} href="/library">Open the library</Link>.
+                No proposed model versions from colleagues.{" "}
+                <Link className={link} href="/library">
+                  Open the library
+                </Link>
+                .
               </p>
             ) : (
               <ul className="space-y-2 text-sm" data-testid="home-proposal-list">
                 {waiting.proposalItems.slice(0, 6).map((p) => (
                   <li key={p.versionId}>
-                    <Link className={link} href={`/library/versions/${p.versionId}`}>{p.modelName} · v{p.versionNumber}</Link>
-                    <span className="block text-xs text-ink-muted">{p.formula}{p.authorName ? ` · proposed by ${p.authorName}` : ""}{p.proposedAt ? ` · ${p.proposedAt.slice(0, 10)}` : ""}</span>
+                    <Link className={link} href={`/library/versions/${p.versionId}`}>
+                      {p.modelName} · v{p.versionNumber}
+                    </Link>
+                    <span className="block text-xs text-ink-muted">
+                      {p.formula}
+                      {p.authorName ? ` · proposed by ${p.authorName}` : ""}
+                      {p.proposedAt ? ` · ${p.proposedAt.slice(0, 10)}` : ""}
+                    </span>
                   </li>
                 ))}
                 {waiting.proposalItems.length > 6 && (
-                  <li><Link className={link} href="/library?status=proposed">All {waiting.proposalItems.length} proposals</Link></li>
+                  <li>
+                    <Link className={link} href="/library?status=proposed">
+                      All {waiting.proposalItems.length} proposals
+                    </Link>
+                  </li>
                 )}
               </ul>
             )}
@@ -95,9 +135,13 @@ export default async function HomePage() {
             <ul className="space-y-2 text-sm">
               {waiting.decisions.items.map((d) => (
                 <li key={d.id}>
-                  <Link className={link} href={`/cases/${d.caseId}`}>{d.caseTitle}</Link>{" "}
+                  <Link className={link} href={`/cases/${d.caseId}`}>
+                    {d.caseTitle}
+                  </Link>{" "}
                   <span className={d.decision === "approved" ? "text-moss-700" : "text-flag-700"}>{d.decision}</span>
-                  <span className="block text-xs text-ink-muted">by {d.reviewerName}, r{d.revision}</span>
+                  <span className="block text-xs text-ink-muted">
+                    by {d.reviewerName}, r{d.revision}
+                  </span>
                 </li>
               ))}
             </ul>

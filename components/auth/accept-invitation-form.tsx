@@ -19,8 +19,14 @@ export function AcceptInvitationForm({ token, email, accept }: { token: string; 
       <Field label="Choose a password" name="password" error={state.fieldErrors?.password} hint="At least 10 characters, with a digit or symbol.">
         <TextInput name="password" type="password" autoComplete="new-password" error={state.fieldErrors?.password} />
       </Field>
-      {state.message && <p role="alert" className="rounded-md bg-flag-50 px-3 py-2 text-sm text-flag-700">{state.message}</p>}
-      <Button type="submit" className="w-full" disabled={pending}>{pending ? "Joining…" : "Join the team"}</Button>
+      {state.message && (
+        <p role="alert" className="rounded-md bg-flag-50 px-3 py-2 text-sm text-flag-700">
+          {state.message}
+        </p>
+      )}
+      <Button type="submit" className="w-full" disabled={pending}>
+        {pending ? "Joining…" : "Join the team"}
+      </Button>
     </form>
   );
 }

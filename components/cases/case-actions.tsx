@@ -65,8 +65,8 @@ export function CaseActions({
         onCancel={() => setConfirming(false)}
       >
         <p>
-          This freezes {nextRevision ? `revision ${nextRevision}` : "a snapshot"}: the inputs, the pinned model versions and the result, with their hash. The case cannot be
-          edited while it waits for review, and reviewers are mailed.
+          This freezes {nextRevision ? `revision ${nextRevision}` : "a snapshot"}: the inputs, the pinned model versions and the result, with their hash. The case cannot be edited
+          while it waits for review, and reviewers are mailed.
         </p>
       </ConfirmDialog>
     </div>

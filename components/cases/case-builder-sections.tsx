@@ -50,10 +50,23 @@ function TermEditor({ b, options, row: r, i }: { b: CaseBuilderState; options: B
         <option value="product">product</option>
       </Select>
       <div>
-        <TextInput name={`terms.${i}.coefficient`} aria-label={`Term ${n} coefficient`} inputMode="decimal" value={r.amount} onChange={(e) => update(i, { amount: e.target.value })} error={err(`terms.${i}.coefficient`)} />
+        <TextInput
+          name={`terms.${i}.coefficient`}
+          aria-label={`Term ${n} coefficient`}
+          inputMode="decimal"
+          value={r.amount}
+          onChange={(e) => update(i, { amount: e.target.value })}
+          error={err(`terms.${i}.coefficient`)}
+        />
       </div>
       <div>
-        <Select name={`terms.${i}.formula`} aria-label={`Term ${n} species`} value={r.formula} onChange={(e) => update(i, { formula: e.target.value })} error={err(`terms.${i}.formula`)}>
+        <Select
+          name={`terms.${i}.formula`}
+          aria-label={`Term ${n} species`}
+          value={r.formula}
+          onChange={(e) => update(i, { formula: e.target.value })}
+          error={err(`terms.${i}.formula`)}
+        >
           <option value="">Species…</option>
           {b.formulas.map(([f, name]) => (
             <option key={f} value={f}>
@@ -71,7 +84,13 @@ function TermEditor({ b, options, row: r, i }: { b: CaseBuilderState; options: B
         ))}
       </Select>
       <div className="col-span-2 sm:col-span-1">
-        <Select name={`terms.${i}.versionId`} aria-label={`Term ${n} model version`} value={r.versionId} onChange={(e) => update(i, { versionId: e.target.value })} error={err(`terms.${i}.versionId`)}>
+        <Select
+          name={`terms.${i}.versionId`}
+          aria-label={`Term ${n} model version`}
+          value={r.versionId}
+          onChange={(e) => update(i, { versionId: e.target.value })}
+          error={err(`terms.${i}.versionId`)}
+        >
           <option value="">Model version…</option>
           {versions.map((o) => (
             <option key={o.versionId} value={o.versionId}>
@@ -169,11 +188,19 @@ function Temperatures({ b }: { b: CaseBuilderState }) {
           </Field>
         </div>
       ) : (
-        <Field label={`Temperatures (${u}), separated by commas or spaces`} name="temperatures.listK" error={err("temperatures.listK") ?? Object.entries(errors).find(([k]) => k.startsWith("temperatures.listK."))?.[1]}>
+        <Field
+          label={`Temperatures (${u}), separated by commas or spaces`}
+          name="temperatures.listK"
+          error={err("temperatures.listK") ?? Object.entries(errors).find(([k]) => k.startsWith("temperatures.listK."))?.[1]}
+        >
           <textarea id="temperatures.listK" name="temperatures.listK" className={inputClass} rows={2} value={f.listText} onChange={(e) => setField("listText", e.target.value)} />
         </Field>
       )}
-      {err("temperatures") && <p role="alert" className="text-xs font-medium text-flag-700">{err("temperatures")}</p>}
+      {err("temperatures") && (
+        <p role="alert" className="text-xs font-medium text-flag-700">
+          {err("temperatures")}
+        </p>
+      )}
     </div>
   );
 }
@@ -199,7 +226,14 @@ function ReferenceAndTolerance({ b }: { b: CaseBuilderState }) {
           <TextInput name="toleranceKJ" inputMode="decimal" value={f.tol} onChange={(e) => setField("tol", e.target.value)} error={err("toleranceKJ")} />
         </Field>
         <Field label="Tolerance on K (factor, optional)" name="toleranceKFactor" error={err("toleranceKFactor")}>
-          <TextInput name="toleranceKFactor" inputMode="decimal" value={f.kFactor} onChange={(e) => setField("kFactor", e.target.value)} error={err("toleranceKFactor")} placeholder="e.g. 2" />
+          <TextInput
+            name="toleranceKFactor"
+            inputMode="decimal"
+            value={f.kFactor}
+            onChange={(e) => setField("kFactor", e.target.value)}
+            error={err("toleranceKFactor")}
+            placeholder="e.g. 2"
+          />
         </Field>
       </div>
     </div>

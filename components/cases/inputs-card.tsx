@@ -16,10 +16,24 @@ export function InputsCard({ inputs, notes }: { inputs: CaseInputs; notes?: stri
   return (
     <Card title="Inputs">
       <dl className="divide-y divide-ink-line/60 text-sm">
-        <div className={row}><dt className="text-ink-muted">Temperatures</dt><dd className="text-right tabular" data-testid="input-temperatures">{temperaturesText(inputs.temperatures)}</dd></div>
-        <div className={row}><dt className="text-ink-muted">Reference temperature</dt><dd className="tabular">{formatQuantity(inputs.referenceK)}</dd></div>
-        <div className={row}><dt className="text-ink-muted">Tolerance on ΔrG</dt><dd className="tabular">{inputs.toleranceKJ} kJ/mol</dd></div>
-        <div className={row}><dt className="text-ink-muted">Tolerance on K</dt><dd className="tabular">{inputs.toleranceKFactor === null ? "—" : `factor ${inputs.toleranceKFactor}`}</dd></div>
+        <div className={row}>
+          <dt className="text-ink-muted">Temperatures</dt>
+          <dd className="text-right tabular" data-testid="input-temperatures">
+            {temperaturesText(inputs.temperatures)}
+          </dd>
+        </div>
+        <div className={row}>
+          <dt className="text-ink-muted">Reference temperature</dt>
+          <dd className="tabular">{formatQuantity(inputs.referenceK)}</dd>
+        </div>
+        <div className={row}>
+          <dt className="text-ink-muted">Tolerance on ΔrG</dt>
+          <dd className="tabular">{inputs.toleranceKJ} kJ/mol</dd>
+        </div>
+        <div className={row}>
+          <dt className="text-ink-muted">Tolerance on K</dt>
+          <dd className="tabular">{inputs.toleranceKFactor === null ? "—" : `factor ${inputs.toleranceKFactor}`}</dd>
+        </div>
       </dl>
       {notes ? <p className="mt-3 whitespace-pre-wrap border-t border-ink-line pt-3 text-sm text-ink-soft">{notes}</p> : null}
     </Card>
@@ -36,7 +50,7 @@ export function PinsCard({ pins, coefficients }: { pins: PinDto[]; coefficients:
             <div className="flex flex-wrap items-baseline justify-between gap-2">
               <span>
                 <span className="tabular">{coefficients[p.key] ?? ""}</span> <strong>{p.key}</strong>{" "}
-                <span className="text-xs text-ink-muted">{p.phase ? PHASE_WORDS[p.phase.split("-")[0]] ?? p.phase : "stable phase (lowest G)"}</span>
+                <span className="text-xs text-ink-muted">{p.phase ? (PHASE_WORDS[p.phase.split("-")[0]] ?? p.phase) : "stable phase (lowest G)"}</span>
               </span>
               <span className={`text-xs ${p.status === "approved" ? "text-moss-700" : "font-semibold text-flag-700"}`}>
                 {p.modelName} · v{p.versionNumber} · {p.status}

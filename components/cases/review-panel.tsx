@@ -50,10 +50,30 @@ export function ReviewPanel({ caseId, revision, title, authorName }: { caseId: n
       <fieldset className="flex flex-wrap gap-4 text-sm">
         <legend className="sr-only">Decision</legend>
         <label className="flex items-center gap-2">
-          <input type="radio" name="decision" value="approved" checked={decision === "approved"} onChange={() => { setDecision("approved"); setError(null); }} /> Approve
+          <input
+            type="radio"
+            name="decision"
+            value="approved"
+            checked={decision === "approved"}
+            onChange={() => {
+              setDecision("approved");
+              setError(null);
+            }}
+          />{" "}
+          Approve
         </label>
         <label className="flex items-center gap-2">
-          <input type="radio" name="decision" value="returned" checked={decision === "returned"} onChange={() => { setDecision("returned"); setError(null); }} /> Return to the author
+          <input
+            type="radio"
+            name="decision"
+            value="returned"
+            checked={decision === "returned"}
+            onChange={() => {
+              setDecision("returned");
+              setError(null);
+            }}
+          />{" "}
+          Return to the author
         </label>
       </fieldset>
       <div className="space-y-1">
@@ -88,7 +108,11 @@ export function ReviewPanel({ caseId, revision, title, authorName }: { caseId: n
         onCancel={() => setConfirming(false)}
       >
         <p>
-          {title ? <>“{title}”{authorName ? ` by ${authorName}` : ""}. </> : null}
+          {title ? (
+            <>
+              “{title}”{authorName ? ` by ${authorName}` : ""}.{" "}
+            </>
+          ) : null}
           {approving
             ? "Your name, the time and the snapshot hash are recorded as the sign-off; an approved revision can never change."
             : "The author is mailed the reason and can revise and resubmit; this revision stays readable."}

@@ -20,14 +20,46 @@ export function SignOffRecord({ record }: { record: SignOffDto }) {
         {decisionLine(record)}
       </p>
       <dl>
-        <div className={row}><dt className="text-ink-muted">Author</dt><dd data-testid="sign-off-author">{record.authorName}</dd></div>
-        <div className={row}><dt className="text-ink-muted">Revision</dt><dd>{record.revision}, submitted by {record.submittedByName}, frozen {utc(record.frozenAt)}</dd></div>
-        <div className={row}><dt className="text-ink-muted">Reviewer</dt><dd data-testid="sign-off-reviewer">{d ? d.reviewerName : "—"}</dd></div>
-        <div className={row}><dt className="text-ink-muted">Decision</dt><dd data-testid="sign-off-decision">{d ? (d.decision === "approved" ? "Approved" : "Returned to the author") : record.caseStatus === "submitted" ? "Awaiting review" : "—"}</dd></div>
-        <div className={row}><dt className="text-ink-muted">Reason</dt><dd className="whitespace-pre-wrap" data-testid="sign-off-reason">{d ? (d.reason ?? "None given.") : "—"}</dd></div>
-        <div className={row}><dt className="text-ink-muted">Decided</dt><dd data-testid="sign-off-at">{d ? utc(d.at) : "—"}</dd></div>
-        <div className={row}><dt className="text-ink-muted">Snapshot SHA-256</dt><dd><code className="break-all">{record.hash}</code></dd></div>
-        <div className={row}><dt className="text-ink-muted">Engine</dt><dd data-testid="sign-off-engine">{record.engineVersion}</dd></div>
+        <div className={row}>
+          <dt className="text-ink-muted">Author</dt>
+          <dd data-testid="sign-off-author">{record.authorName}</dd>
+        </div>
+        <div className={row}>
+          <dt className="text-ink-muted">Revision</dt>
+          <dd>
+            {record.revision}, submitted by {record.submittedByName}, frozen {utc(record.frozenAt)}
+          </dd>
+        </div>
+        <div className={row}>
+          <dt className="text-ink-muted">Reviewer</dt>
+          <dd data-testid="sign-off-reviewer">{d ? d.reviewerName : "—"}</dd>
+        </div>
+        <div className={row}>
+          <dt className="text-ink-muted">Decision</dt>
+          <dd data-testid="sign-off-decision">
+            {d ? (d.decision === "approved" ? "Approved" : "Returned to the author") : record.caseStatus === "submitted" ? "Awaiting review" : "—"}
+          </dd>
+        </div>
+        <div className={row}>
+          <dt className="text-ink-muted">Reason</dt>
+          <dd className="whitespace-pre-wrap" data-testid="sign-off-reason">
+            {d ? (d.reason ?? "None given.") : "—"}
+          </dd>
+        </div>
+        <div className={row}>
+          <dt className="text-ink-muted">Decided</dt>
+          <dd data-testid="sign-off-at">{d ? utc(d.at) : "—"}</dd>
+        </div>
+        <div className={row}>
+          <dt className="text-ink-muted">Snapshot SHA-256</dt>
+          <dd>
+            <code className="break-all">{record.hash}</code>
+          </dd>
+        </div>
+        <div className={row}>
+          <dt className="text-ink-muted">Engine</dt>
+          <dd data-testid="sign-off-engine">{record.engineVersion}</dd>
+        </div>
       </dl>
     </section>
   );

@@ -174,7 +174,11 @@ export function useCaseBuilder(options: BuilderOption[], initial?: BuilderInitia
   const signed = rows.map((r) => ({ ...r, coefficient: (r.side === "reactant" ? -1 : 1) * Number(r.amount) }));
   const complete = signed.filter((r) => r.formula && Number.isFinite(r.coefficient) && r.coefficient !== 0);
   // A coefficient that is not a number is named, never silently left out of the balance.
-  const unreadable = rows.flatMap((r, i) => (r.formula && !(r.amount.trim() !== "" && Number.isFinite(Number(r.amount)) && Number(r.amount) !== 0) ? [`term ${i + 1} (${r.formula}): “${r.amount.trim()}” is not a coefficient`] : []));
+  const unreadable = rows.flatMap((r, i) =>
+    r.formula && !(r.amount.trim() !== "" && Number.isFinite(Number(r.amount)) && Number(r.amount) !== 0)
+      ? [`term ${i + 1} (${r.formula}): “${r.amount.trim()}” is not a coefficient`]
+      : [],
+  );
   const balance = complete.length >= 2 ? elementBalance(complete) : null;
   const preview = complete.length >= 2 ? reactionText(complete.map((r) => ({ key: termKey({ formula: r.formula, phase: r.phase || null }), coefficient: r.coefficient }))) : "";
 
@@ -183,7 +187,12 @@ export function useCaseBuilder(options: BuilderOption[], initial?: BuilderInitia
     const temperatures =
       mode === "span"
         ? { fromK: joinQuantity(num(from), unit), toK: joinQuantity(num(to), unit), stepK: joinQuantity(num(step), unit) }
-        : { listK: listText.split(/[\s,;]+/).filter(Boolean).map((s) => joinQuantity(num(s), unit)) };
+        : {
+            listK: listText
+              .split(/[\s,;]+/)
+              .filter(Boolean)
+              .map((s) => joinQuantity(num(s), unit)),
+          };
     return {
       title: fields.title,
       notes: fields.notes,

@@ -12,7 +12,19 @@ export const Y_AXIS_WIDTH = 64;
 const TICK = { fontSize: 11, fill: CHART_COLORS.muted };
 
 /** Props of a numeric x axis over the rows' `dataKey`, labelled under the plot. */
-export function xAxisProps({ dataKey, label, ticks, domain, tickFormatter }: { dataKey: string; label: string; ticks?: number[]; domain?: XAxisProps["domain"]; tickFormatter?: (v: number) => string }): XAxisProps {
+export function xAxisProps({
+  dataKey,
+  label,
+  ticks,
+  domain,
+  tickFormatter,
+}: {
+  dataKey: string;
+  label: string;
+  ticks?: number[];
+  domain?: XAxisProps["domain"];
+  tickFormatter?: (v: number) => string;
+}): XAxisProps {
   return {
     dataKey,
     type: "number",

@@ -55,7 +55,16 @@ export function CompositionChart({
             {series
               .filter((s) => s.bandKey)
               .map((s) => (
-                <Area key={`band-${s.key}`} dataKey={s.bandKey!} name={`${s.name} ±1σ`} stroke="none" fill={s.color} fillOpacity={0.16} isAnimationActive={false} legendType="none" />
+                <Area
+                  key={`band-${s.key}`}
+                  dataKey={s.bandKey!}
+                  name={`${s.name} ±1σ`}
+                  stroke="none"
+                  fill={s.color}
+                  fillOpacity={0.16}
+                  isAnimationActive={false}
+                  legendType="none"
+                />
               ))}
             {series.map((s) => (
               <Line

@@ -165,10 +165,26 @@ export function LineSeriesChart({
               />
             ))}
             {allBands.map((b) => (
-              <Area key={b.key} dataKey={b.key} name={b.name} stroke="none" fill={b.color} fillOpacity={b.opacity ?? 0.18} isAnimationActive={false} connectNulls={false} legendType="none" />
+              <Area
+                key={b.key}
+                dataKey={b.key}
+                name={b.name}
+                stroke="none"
+                fill={b.color}
+                fillOpacity={b.opacity ?? 0.18}
+                isAnimationActive={false}
+                connectNulls={false}
+                legendType="none"
+              />
             ))}
             {marksY.map((m, i) => (
-              <ReferenceLine key={`y${i}`} y={m.y} stroke={m.color} strokeDasharray={m.dashed ? "4 4" : undefined} label={m.label ? { value: m.label, position: "insideBottomRight", fontSize: 10, fill: m.color } : undefined} />
+              <ReferenceLine
+                key={`y${i}`}
+                y={m.y}
+                stroke={m.color}
+                strokeDasharray={m.dashed ? "4 4" : undefined}
+                label={m.label ? { value: m.label, position: "insideBottomRight", fontSize: 10, fill: m.color } : undefined}
+              />
             ))}
             {inside.map((m, i) => (
               <ReferenceLine

@@ -19,8 +19,9 @@ export function CondensationNote({ result }: { result: EvaluateResult }) {
         ))}
       </ul>
       <p className="mt-1 text-xs">
-        Screened on the normal boiling point (1 atm): a species whose partial pressure reaches 1 atm condenses below it for certain; at lower partial pressures its dew point is lower, so the flag may be a false alarm; above 1 atm it may also condense somewhat above it. The outlet shown keeps every species in the gas. Largest partial pressure in the flagged range:{" "}
-        {list.map((w) => `${w.species} ${fixed(Number(w.partialPressureBar), 3)} bar`).join(", ")}.
+        Screened on the normal boiling point (1 atm): a species whose partial pressure reaches 1 atm condenses below it for certain; at lower partial pressures its dew point is
+        lower, so the flag may be a false alarm; above 1 atm it may also condense somewhat above it. The outlet shown keeps every species in the gas. Largest partial pressure in
+        the flagged range: {list.map((w) => `${w.species} ${fixed(Number(w.partialPressureBar), 3)} bar`).join(", ")}.
       </p>
     </div>
   );

@@ -16,7 +16,15 @@ export function ConditionsSection({ form, hasSaved }: { form: EquilibriumForm; h
     <div className="space-y-3">
       <div className="grid grid-cols-2 gap-3">
         <Field label="Unit of amount" name="feedUnit" error={errors.feedUnit} hint={feedUnitHint(f.unit)}>
-          <Select name="feedUnit" value={f.unit} error={errors.feedUnit} onChange={(e) => { f.setUnit(e.target.value); clearError("feedUnit"); }}>
+          <Select
+            name="feedUnit"
+            value={f.unit}
+            error={errors.feedUnit}
+            onChange={(e) => {
+              f.setUnit(e.target.value);
+              clearError("feedUnit");
+            }}
+          >
             {(FEED_UNITS as readonly string[]).includes(f.unit) ? null : <option value={f.unit}>{f.unit}</option>}
             {FEED_UNITS.map((u) => (
               <option key={u} value={u}>
@@ -26,7 +34,15 @@ export function ConditionsSection({ form, hasSaved }: { form: EquilibriumForm; h
           </Select>
         </Field>
         <Field label="Pressure" name="pressure" error={errors.pressure} hint="bar, or with a unit: 2.5 MPa, 30 atm">
-          <TextInput name="pressure" value={f.pressure} error={errors.pressure} onChange={(e) => { f.setPressure(e.target.value); clearError("pressure"); }} />
+          <TextInput
+            name="pressure"
+            value={f.pressure}
+            error={errors.pressure}
+            onChange={(e) => {
+              f.setPressure(e.target.value);
+              clearError("pressure");
+            }}
+          />
         </Field>
       </div>
       <div className="grid grid-cols-2 gap-3">
@@ -41,7 +57,15 @@ export function ConditionsSection({ form, hasSaved }: { form: EquilibriumForm; h
         </Field>
       </div>
       <Field label="Key species (conversion and slip)" name="key" error={errors.key}>
-        <Select name="key" value={f.key} error={errors.key} onChange={(e) => { f.setKey(e.target.value); clearError("key"); }}>
+        <Select
+          name="key"
+          value={f.key}
+          error={errors.key}
+          onChange={(e) => {
+            f.setKey(e.target.value);
+            clearError("key");
+          }}
+        >
           {s.feedKeys.map((k) => (
             <option key={k} value={k}>
               {k}

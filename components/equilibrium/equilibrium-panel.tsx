@@ -54,8 +54,8 @@ export function EquilibriumPanel({
     <Card title="How far it goes: equilibrium outlet" className="break-inside-avoid">
       <div className="space-y-4" data-testid="equilibrium-panel">
         <p className="text-sm text-ink-muted">
-          Outlet composition from a feed at each temperature of the case, with ideal-gas activities (or Peng–Robinson fugacity coefficients) at the given
-          pressure and pure condensed phases at unit activity, once with the corrected K and once with the naive K; optionally the adiabatic outlet temperature.
+          Outlet composition from a feed at each temperature of the case, with ideal-gas activities (or Peng–Robinson fugacity coefficients) at the given pressure and pure
+          condensed phases at unit activity, once with the corrected K and once with the naive K; optionally the adiabatic outlet temperature.
         </p>
         {editable ? (
           <form
@@ -86,7 +86,13 @@ export function EquilibriumPanel({
         {shown?.equilibrium && (
           <>
             <div className="flex flex-wrap items-center justify-between gap-2">
-              {trial ? <Badge tone="ember">Trial run, not saved</Badge> : <Badge tone={data?.source === "snapshot" ? "moss" : "frost"}>{data?.source === "snapshot" ? `Frozen snapshot · revision ${data.revision}` : "Saved feed · live evaluation"}</Badge>}
+              {trial ? (
+                <Badge tone="ember">Trial run, not saved</Badge>
+              ) : (
+                <Badge tone={data?.source === "snapshot" ? "moss" : "frost"}>
+                  {data?.source === "snapshot" ? `Frozen snapshot · revision ${data.revision}` : "Saved feed · live evaluation"}
+                </Badge>
+              )}
               <Button type="button" variant="secondary" focusableWhenDisabled disabled={busy !== null} onClick={() => void run("sources")} data-testid="compare-sources">
                 {busy === "sources" ? "Comparing…" : "Compare data families"}
               </Button>

@@ -11,11 +11,17 @@ export function EquilibriumReport({ result, sources, unit = "K" }: { result: Eva
     <section className="space-y-3" data-testid="report-equilibrium">
       <h2 className="text-sm font-semibold">Equilibrium outlet</h2>
       <p className="text-xs">
-        Feed ({info.feedUnit}): {Object.entries(info.feed).map(([k, v]) => `${k} ${v}`).join(", ")} · pressure {info.pressureBar} bar · key {info.key}
+        Feed ({info.feedUnit}):{" "}
+        {Object.entries(info.feed)
+          .map(([k, v]) => `${k} ${v}`)
+          .join(", ")}{" "}
+        · pressure {info.pressureBar} bar · key {info.key}
         {info.reactions.length > 1 ? ` · reactions: ${info.reactions.join("; ")}` : ""}.
       </p>
       <EquilibriumResults result={result} compact unit={unit} />
-      <p className="text-xs text-ink-soft" data-testid="equilibrium-caution">{equilibriumCautionText(cautionGasOf(result))}</p>
+      <p className="text-xs text-ink-soft" data-testid="equilibrium-caution">
+        {equilibriumCautionText(cautionGasOf(result))}
+      </p>
       {sources && (
         <div className="break-inside-avoid">
           <SourceComparisonView data={sources} compact />

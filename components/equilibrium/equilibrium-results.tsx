@@ -37,7 +37,11 @@ export function EquilibriumResults({ result, compact = false, unit: unitProp }: 
   const inUnit = (rows: Row[]): Row[] => rows.map((r) => ({ ...r, t: fromKelvin(r.tK as number, unit) }));
   const lo = fromKelvin(eq[0].tK, unit);
   const hi = fromKelvin(eq[eq.length - 1].tK, unit);
-  const axis = { xKey: "t", xLabel: `T (${u})`, xTicks: niceTicks(Math.min(lo, hi), Math.max(lo, hi), 6).filter((t) => t >= Math.min(lo, hi) - 1e-9 && t <= Math.max(lo, hi) + 1e-9) };
+  const axis = {
+    xKey: "t",
+    xLabel: `T (${u})`,
+    xTicks: niceTicks(Math.min(lo, hi), Math.max(lo, hi), 6).filter((t) => t >= Math.min(lo, hi) - 1e-9 && t <= Math.max(lo, hi) + 1e-9),
+  };
   const gas = gasSpecies(result);
   const comp: CompositionSeries[] = gas.flatMap((k, i) => [
     { key: `c:${k}`, name: `${k} corrected`, color: colorOf(i) },
@@ -93,12 +97,30 @@ export function EquilibriumResults({ result, compact = false, unit: unitProp }: 
       )}
       <div className={compact ? "grid grid-cols-2 gap-3" : "grid gap-4 lg:grid-cols-2"}>
         <div>
-          <h3 className="mb-1 text-xs font-semibold text-ink-soft">{key} outlet mole fraction (gas){sigma ? ", ±1σ" : ""}</h3>
-          <CompositionChart data={inUnit(keyRows(result))} {...axis} series={keySeries} yLabel="mole fraction" testId="equilibrium-key-chart" ariaLabel={`${key} outlet fraction against temperature, corrected and naive`} height={compact ? 200 : 260} />
+          <h3 className="mb-1 text-xs font-semibold text-ink-soft">
+            {key} outlet mole fraction (gas){sigma ? ", ±1σ" : ""}
+          </h3>
+          <CompositionChart
+            data={inUnit(keyRows(result))}
+            {...axis}
+            series={keySeries}
+            yLabel="mole fraction"
+            testId="equilibrium-key-chart"
+            ariaLabel={`${key} outlet fraction against temperature, corrected and naive`}
+            height={compact ? 200 : 260}
+          />
         </div>
         <div>
           <h3 className="mb-1 text-xs font-semibold text-ink-soft">Outlet composition (gas): solid corrected, dashed naive</h3>
-          <CompositionChart data={inUnit(compositionRows(result))} {...axis} series={comp} yLabel="mole fraction" testId="equilibrium-composition-chart" ariaLabel="Outlet mole fractions against temperature, corrected and naive" height={compact ? 200 : 260} />
+          <CompositionChart
+            data={inUnit(compositionRows(result))}
+            {...axis}
+            series={comp}
+            yLabel="mole fraction"
+            testId="equilibrium-composition-chart"
+            ariaLabel="Outlet mole fractions against temperature, corrected and naive"
+            height={compact ? 200 : 260}
+          />
         </div>
       </div>
       <div className="overflow-x-auto">
@@ -110,8 +132,26 @@ export function EquilibriumResults({ result, compact = false, unit: unitProp }: 
             { key: "t", header: `T (${u})`, headerTestId: "equilibrium-t-header", value: (p) => p.tK, cell: (p) => gridValue(p.tK, unit) },
             { key: "conv", header: `${key} conversion corrected`, cell: (p) => pct(p.keyConversion, 4) },
             { key: "convn", header: "naive", cell: (p) => pct(p.naive.keyConversion, 4) },
-            { key: "x", header: `${key} fraction corrected${pm}`, cell: (p) => <>{pct(p.keyFraction)}{plusMinus(p.sigma?.keyFraction)}</> },
-            { key: "xn", header: `naive${pm}`, cell: (p) => <>{pct(p.naive.keyFraction)}{plusMinus(p.naive.sigma?.keyFraction)}</> },
+            {
+              key: "x",
+              header: `${key} fraction corrected${pm}`,
+              cell: (p) => (
+                <>
+                  {pct(p.keyFraction)}
+                  {plusMinus(p.sigma?.keyFraction)}
+                </>
+              ),
+            },
+            {
+              key: "xn",
+              header: `naive${pm}`,
+              cell: (p) => (
+                <>
+                  {pct(p.naive.keyFraction)}
+                  {plusMinus(p.naive.sigma?.keyFraction)}
+                </>
+              ),
+            },
             {
               key: "diff",
               header: "naive − corrected",
@@ -125,7 +165,8 @@ export function EquilibriumResults({ result, compact = false, unit: unitProp }: 
         />
         <p className="mt-1 text-xs text-ink-muted">
           {rows.length < eq.length ? `One row in every ${stride} points, and the last; the CSV export has all ${eq.length}. ` : ""}
-          Mole fractions of the gas phase; condensed species are pure phases at unit activity. {over !== undefined ? "* the naive error exceeds the 1σ of the corrected fraction." : ""}
+          Mole fractions of the gas phase; condensed species are pure phases at unit activity.{" "}
+          {over !== undefined ? "* the naive error exceeds the 1σ of the corrected fraction." : ""}
         </p>
       </div>
       {info.gas === "peng-robinson" && <FugacityTable result={result} rows={rows} compact={compact} unit={unit} />}
@@ -197,8 +238,8 @@ function AdiabaticSummary({ result, unit }: { result: EvaluateResult; unit: Disp
         </div>
       </dl>
       <p className="mt-1 text-xs text-ink-muted">
-        Naive − corrected: {d(a.diffK)}. Root bracketed in [{t(a.bracketK[0])}, {t(a.bracketK[1])}], {a.iterations} iterations; ideal-gas enthalpies
-        (the residual enthalpy of a real gas is not included).
+        Naive − corrected: {d(a.diffK)}. Root bracketed in [{t(a.bracketK[0])}, {t(a.bracketK[1])}], {a.iterations} iterations; ideal-gas enthalpies (the residual enthalpy of a
+        real gas is not included).
       </p>
     </div>
   );

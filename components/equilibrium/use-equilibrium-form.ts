@@ -39,7 +39,10 @@ export function panelErrors(error: Refusal): Record<string, string> {
     return t ? `${t[0].toUpperCase()}${t.slice(1)}${/[.!?]$/.test(t) ? "" : "."}` : t;
   };
   const place = (path: string, message: string) => {
-    const p = path.replace(/^equilibrium\./, "").replace(/\[(\d+)\]/g, ".$1").replace(/^pressureBar/, "pressure");
+    const p = path
+      .replace(/^equilibrium\./, "")
+      .replace(/\[(\d+)\]/g, ".$1")
+      .replace(/^pressureBar/, "pressure");
     const field = /^(feedUnit|pressure|key|feed(\..+)?|reactions\.\d+)$/.test(p) ? p : null;
     if (field && !out[field]) out[field] = sentence(message);
     return field !== null;
@@ -96,9 +99,14 @@ export function useEquilibriumForm({ caseId, lockVersion, initial, caseKeys, rea
   const [saved, setSaved] = useState<string | null>(null);
   const [sources, setSources] = useState<SourcesDto | null>(null);
   // The write: the case's feed is replaced (or removed).
-  const store = useSWRMutation(`/api/v1/equilibrium/cases/${caseId}`, (url: string, { arg }: { arg: { lockVersion: number; equilibrium: CaseEquilibrium | null } }) => sendJson("PUT", url, arg));
+  const store = useSWRMutation(`/api/v1/equilibrium/cases/${caseId}`, (url: string, { arg }: { arg: { lockVersion: number; equilibrium: CaseEquilibrium | null } }) =>
+    sendJson("PUT", url, arg),
+  );
 
-  const reactions = reactionsText.split("\n").map((l) => l.trim()).filter(Boolean);
+  const reactions = reactionsText
+    .split("\n")
+    .map((l) => l.trim())
+    .filter(Boolean);
   const reactionErrors = reactions.flatMap((_, i) => (errors[`reactions.${i}`] ? [`Line ${i + 1}: ${errors[`reactions.${i}`]}`] : []));
   // Species come only from lines that read as reactions; a malformed line is flagged, not mined for names.
   const reactionKeys = [...new Set(reactions.filter((r) => checkReactionLine(r) === null).flatMap(keysOfReaction))].filter((k) => !caseKeys.includes(k));
@@ -109,7 +117,11 @@ export function useEquilibriumForm({ caseId, lockVersion, initial, caseKeys, rea
 
   /** Drop the message of one field (and, for a feed amount, the feed's own). */
   const clearError = (field: string) =>
-    setErrors((all) => Object.fromEntries(Object.entries(all).filter(([f]) => f !== field && !(field.startsWith("feed.") && f === "feed") && !(field === "reactions" && f.startsWith("reactions.")))));
+    setErrors((all) =>
+      Object.fromEntries(
+        Object.entries(all).filter(([f]) => f !== field && !(field.startsWith("feed.") && f === "feed") && !(field === "reactions" && f.startsWith("reactions."))),
+      ),
+    );
 
   const amountOf = (k: string) => rows.find((r) => r.key === k)?.amount ?? "0";
   const setAmount = (k: string, v: string) => {
@@ -176,7 +188,14 @@ export function useEquilibriumForm({ caseId, lockVersion, initial, caseKeys, rea
       } else if (data) {
         const shown = trial ?? data.result;
         const eqReq = trial
-          ? { feed: equilibrium().feed, feedUnit: unit, pressureBar: equilibrium().pressure, key: key || undefined, ...(reactions.length ? { reactions } : {}), ...(gasModel === "peng-robinson" ? { gas: gasModel } : {}) }
+          ? {
+              feed: equilibrium().feed,
+              feedUnit: unit,
+              pressureBar: equilibrium().pressure,
+              key: key || undefined,
+              ...(reactions.length ? { reactions } : {}),
+              ...(gasModel === "peng-robinson" ? { gas: gasModel } : {}),
+            }
           : data.request.equilibrium;
         const keys = [...new Set([...Object.keys(data.request.species), ...(trial ? extraKeys : [])])];
         setSources(

@@ -18,9 +18,7 @@ export function CollapsibleFilters({ active, children }: { active: number; child
         onClick={() => setOpen((o) => !o)}
         className="flex items-center justify-between rounded-md border border-ink-line bg-white px-3 py-2 text-sm font-medium text-ink sm:hidden"
       >
-        <span>
-          Filters{active > 0 ? ` (${active} set)` : ""}
-        </span>
+        <span>Filters{active > 0 ? ` (${active} set)` : ""}</span>
         <span aria-hidden="true">{open ? "▴" : "▾"}</span>
       </button>
       <div id={id} className={`${open ? "grid gap-3" : "hidden"} sm:contents`} data-testid="library-filters">

@@ -15,7 +15,21 @@ const initial: ActionState = { ok: false };
  * team species and a steward or admin, the form that sets or removes them. The actions come as
  * props; the server checks role and team on every call.
  */
-export function CriticalConstants({ speciesId, critical, canEdit, scope, save, remove }: { speciesId: number; critical: Critical | null; canEdit: boolean; scope: "reference" | "team"; save: Action; remove: Action }) {
+export function CriticalConstants({
+  speciesId,
+  critical,
+  canEdit,
+  scope,
+  save,
+  remove,
+}: {
+  speciesId: number;
+  critical: Critical | null;
+  canEdit: boolean;
+  scope: "reference" | "team";
+  save: Action;
+  remove: Action;
+}) {
   const [saved, saveAction, saving] = useActionState(save, initial);
   const [removed, removeAction, removing] = useActionState(remove, initial);
   const values = saved.ok ? undefined : saved.values;
@@ -26,10 +40,25 @@ export function CriticalConstants({ speciesId, critical, canEdit, scope, save, r
     <div className="space-y-3 text-sm" data-testid="critical-constants">
       {critical ? (
         <dl className="grid grid-cols-3 gap-2 tabular" data-testid="critical-shown">
-          <div><dt className="text-xs text-ink-muted">T<sub>c</sub></dt><dd>{critical.tcK} K</dd></div>
-          <div><dt className="text-xs text-ink-muted">p<sub>c</sub></dt><dd>{critical.pcBar} bar</dd></div>
-          <div><dt className="text-xs text-ink-muted">ω</dt><dd>{critical.omega}</dd></div>
-          <p className="col-span-3 text-xs text-ink-soft" data-testid="critical-citation">Source: {critical.citation || "not given"}</p>
+          <div>
+            <dt className="text-xs text-ink-muted">
+              T<sub>c</sub>
+            </dt>
+            <dd>{critical.tcK} K</dd>
+          </div>
+          <div>
+            <dt className="text-xs text-ink-muted">
+              p<sub>c</sub>
+            </dt>
+            <dd>{critical.pcBar} bar</dd>
+          </div>
+          <div>
+            <dt className="text-xs text-ink-muted">ω</dt>
+            <dd>{critical.omega}</dd>
+          </div>
+          <p className="col-span-3 text-xs text-ink-soft" data-testid="critical-citation">
+            Source: {critical.citation || "not given"}
+          </p>
         </dl>
       ) : (
         <p className="text-ink-muted" data-testid="critical-none">
@@ -53,13 +82,17 @@ export function CriticalConstants({ speciesId, critical, canEdit, scope, save, r
           <Field label="Source" name="citation" error={errors.citation} hint='Table, edition and page; a recalled value says "(from memory)".'>
             <TextInput name="citation" defaultValue={v("citation")} key={`ci-${v("citation")}`} error={errors.citation} />
           </Field>
-          <Button type="submit" disabled={saving}>{saving ? "Saving…" : "Save constants"}</Button>
+          <Button type="submit" disabled={saving}>
+            {saving ? "Saving…" : "Save constants"}
+          </Button>
         </form>
       )}
       {canEdit && critical && (
         <form action={removeAction}>
           <input type="hidden" name="speciesId" value={speciesId} />
-          <Button type="submit" variant="ghost" disabled={removing}>{removing ? "Removing…" : "Remove the constants"}</Button>
+          <Button type="submit" variant="ghost" disabled={removing}>
+            {removing ? "Removing…" : "Remove the constants"}
+          </Button>
         </form>
       )}
       {banners.map((b, i) => (

@@ -53,8 +53,16 @@ export function ImpactPanel({ versionId, versionStatus, canStart }: { versionId:
   return (
     <div className="space-y-3 text-sm" data-testid="impact-panel">
       <p className="text-ink-muted">Every case of your team pinned to an older version of this model, re-evaluated on this version in the background.</p>
-      {error && <p role="alert" className="text-flag-700">{error.message}</p>}
-      {startError && <p role="alert" className="text-flag-700">{startError}</p>}
+      {error && (
+        <p role="alert" className="text-flag-700">
+          {error.message}
+        </p>
+      )}
+      {startError && (
+        <p role="alert" className="text-flag-700">
+          {startError}
+        </p>
+      )}
       <div className="flex flex-wrap items-center gap-2">
         {job === null && data && <span data-testid="impact-none">Not run yet.</span>}
         {job && (
@@ -64,7 +72,8 @@ export function ImpactPanel({ versionId, versionStatus, canStart }: { versionId:
         )}
         {job && job.status === "done" && (
           <span className="text-xs text-ink-muted">
-            {job.total} case{job.total === 1 ? "" : "s"} · {flagged} beyond tolerance · finished {job.finishedAt?.slice(0, 16).replace("T", " ")} UTC ({job.trigger === "manual" ? "run by hand" : `after ${job.trigger === "proposed" ? "proposal" : "approval"}`})
+            {job.total} case{job.total === 1 ? "" : "s"} · {flagged} beyond tolerance · finished {job.finishedAt?.slice(0, 16).replace("T", " ")} UTC (
+            {job.trigger === "manual" ? "run by hand" : `after ${job.trigger === "proposed" ? "proposal" : "approval"}`})
           </span>
         )}
         {canStart && !active && (

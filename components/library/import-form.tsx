@@ -48,14 +48,30 @@ export function ImportForm() {
   return (
     <div className="space-y-3">
       <input type="file" accept=".json,application/json" onChange={(e) => void choose(e.target.files?.[0])} aria-label="Library file" className="block w-full text-sm" />
-      <Button onClick={() => void submit()} disabled={!text || busy}>{busy ? "Importing…" : `Import${file ? ` ${file}` : ""} as drafts`}</Button>
-      {error && <p role="alert" className="text-sm text-flag-700">{error}</p>}
+      <Button onClick={() => void submit()} disabled={!text || busy}>
+        {busy ? "Importing…" : `Import${file ? ` ${file}` : ""} as drafts`}
+      </Button>
+      {error && (
+        <p role="alert" className="text-sm text-flag-700">
+          {error}
+        </p>
+      )}
       {result && (
         <div role="status" className="rounded-md border border-moss-600/30 bg-moss-50 p-3 text-sm">
-          <p className="font-medium text-moss-700">Imported {result.versions} version{result.versions === 1 ? "" : "s"} as drafts.</p>
+          <p className="font-medium text-moss-700">
+            Imported {result.versions} version{result.versions === 1 ? "" : "s"} as drafts.
+          </p>
           <ul className="mt-1 list-disc pl-5">
             {result.models.map((m) => (
-              <li key={m.id}>{m.name}{m.created ? " (new model)" : ""}: {m.versionIds.map((id) => <Link key={id} className="mr-2 text-frost-700 underline" href={`/library/versions/${id}`}>#{id}</Link>)}</li>
+              <li key={m.id}>
+                {m.name}
+                {m.created ? " (new model)" : ""}:{" "}
+                {m.versionIds.map((id) => (
+                  <Link key={id} className="mr-2 text-frost-700 underline" href={`/library/versions/${id}`}>
+                    #{id}
+                  </Link>
+                ))}
+              </li>
             ))}
           </ul>
         </div>

@@ -42,7 +42,15 @@ export function PhaseSelect({
 }) {
   const existing = new Set(known);
   return (
-    <select id={id} className={`${inputClass} ${className}`} value={value} onChange={(e) => onChange(e.target.value)} aria-label={label} aria-invalid={invalid || undefined} aria-describedby={describedBy}>
+    <select
+      id={id}
+      className={`${inputClass} ${className}`}
+      value={value}
+      onChange={(e) => onChange(e.target.value)}
+      aria-label={label}
+      aria-invalid={invalid || undefined}
+      aria-describedby={describedBy}
+    >
       <option value="">Choose a phase…</option>
       {phaseChoices(known, value).map((p) => (
         <option key={p} value={p}>

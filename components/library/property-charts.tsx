@@ -56,9 +56,8 @@ export function PropertyCharts({ a, b, labelA, labelB, stacked = false }: { a: C
           </h3>
           {mismatch.length > 0 && (
             <p className="mb-2 rounded-md border border-flag-600/30 bg-flag-50 px-3 py-2 text-xs text-flag-700" data-testid="phase-mismatch">
-              The difference compares different phases{" "}
-              {mismatch.map((m) => `from ${fmt(m.x1)} to ${fmt(m.x2)} (A ${phaseLabel(m.phaseA)}, B ${phaseLabel(m.phaseB)})`).join("; ")}: there it is a phase change, not a
-              disagreement between the models.
+              The difference compares different phases {mismatch.map((m) => `from ${fmt(m.x1)} to ${fmt(m.x2)} (A ${phaseLabel(m.phaseA)}, B ${phaseLabel(m.phaseB)})`).join("; ")}:
+              there it is a phase change, not a disagreement between the models.
             </p>
           )}
           <div className={grid}>
@@ -86,8 +85,8 @@ export function PropertyCharts({ a, b, labelA, labelB, stacked = false }: { a: C
       )}
       <p className="text-xs text-ink-muted">
         H is on the formation basis (elements in their reference states have H = 0 at 298.15 K); S is absolute. Each model is drawn over its own stated range only
-        {compared ? "; a shaded stretch in a model's colour is where the plot goes beyond it" : "; beyond it the dotted line is an extrapolation, shaded"}. Dashed
-        grey lines mark where each phase&apos;s range starts and ends; red lines mark where the stable phase changes.
+        {compared ? "; a shaded stretch in a model's colour is where the plot goes beyond it" : "; beyond it the dotted line is an extrapolation, shaded"}. Dashed grey lines mark
+        where each phase&apos;s range starts and ends; red lines mark where the stable phase changes.
       </p>
     </div>
   );

@@ -93,7 +93,11 @@ export function UploadWizard({ species }: { species: SpeciesOption[] }) {
     const problems = fileProblems(raw, new TextEncoder().encode(raw).length);
     const table = problems.length ? [] : await parseInChunks(raw.replace(/^\uFEFF/, ""), setProgress);
     setProgress(null);
-    setParse(problems.length ? { points: [], rows: [], errors: problems, tUnit: "K", cpUnit: "J/(mol*K)", unitSource: { t: "default", cp: "default" }, columns: { t: "T", cp: "Cp" }, hasSigma: false } : readDatasetRows(table, units));
+    setParse(
+      problems.length
+        ? { points: [], rows: [], errors: problems, tUnit: "K", cpUnit: "J/(mol*K)", unitSource: { t: "default", cp: "default" }, columns: { t: "T", cp: "Cp" }, hasSigma: false }
+        : readDatasetRows(table, units),
+    );
   }
 
   async function onFile(file: File | undefined) {
@@ -118,7 +122,15 @@ export function UploadWizard({ species }: { species: SpeciesOption[] }) {
   async function upload() {
     setBusy("upload");
     setError(null);
-    const body = { name, filename, text, tUnit, cpUnit, phase: measuredPhase || null, ...(speciesId === "new" ? { species: { formula, displayName } } : { speciesId: Number(speciesId) }) };
+    const body = {
+      name,
+      filename,
+      text,
+      tUnit,
+      cpUnit,
+      phase: measuredPhase || null,
+      ...(speciesId === "new" ? { species: { formula, displayName } } : { speciesId: Number(speciesId) }),
+    };
     const answer = await post<{ dataset: Dataset }>("/api/v1/datasets", body);
     setBusy(null);
     if (!answer.ok) return setError(answer.error.message);
@@ -138,7 +150,14 @@ export function UploadWizard({ species }: { species: SpeciesOption[] }) {
     phase,
     ...(tmin ? { tminK: Number(tmin) } : {}),
     ...(tmax ? { tmaxK: Number(tmax) } : {}),
-    ...(form === "power" ? { exponents: exponents.split(/[\s,]+/).filter(Boolean).map(Number) } : {}),
+    ...(form === "power"
+      ? {
+          exponents: exponents
+            .split(/[\s,]+/)
+            .filter(Boolean)
+            .map(Number),
+        }
+      : {}),
     ...(refH.trim() && refS.trim() ? { reference: { tK: Number(refT), hkJ: Number(refH), sJ: Number(refS) } } : {}),
   });
 
@@ -172,63 +191,148 @@ export function UploadWizard({ species }: { species: SpeciesOption[] }) {
       <section className="space-y-4 rounded-lg border border-ink-line bg-white p-4 shadow-card">
         <h2 className="text-sm font-semibold">1 · Measured data</h2>
         <div className="grid gap-3 sm:grid-cols-2 lg:grid-cols-4">
-          <label className={label}><span className="font-medium">Dataset name</span><input className={inputClass} value={name} onChange={(e) => setName(e.target.value)} aria-label="Dataset name" /></label>
+          <label className={label}>
+            <span className="font-medium">Dataset name</span>
+            <input className={inputClass} value={name} onChange={(e) => setName(e.target.value)} aria-label="Dataset name" />
+          </label>
           <label className={label}>
             <span className="font-medium">Species measured</span>
-            <select className={inputClass} value={speciesId} onChange={(e) => { setSpeciesId(e.target.value); if (!measuredTouched) setMeasuredPhase(defaultPhase(knownPhases(e.target.value))); }} aria-label="Species measured">
-              {species.map((s) => <option key={s.id} value={s.id}>{s.formula} · {s.displayName}</option>)}
+            <select
+              className={inputClass}
+              value={speciesId}
+              onChange={(e) => {
+                setSpeciesId(e.target.value);
+                if (!measuredTouched) setMeasuredPhase(defaultPhase(knownPhases(e.target.value)));
+              }}
+              aria-label="Species measured"
+            >
+              {species.map((s) => (
+                <option key={s.id} value={s.id}>
+                  {s.formula} · {s.displayName}
+                </option>
+              ))}
               <option value="new">New species…</option>
             </select>
           </label>
           <label className={label}>
             <span className="font-medium">Phase measured</span>
-            <PhaseSelect value={measuredPhase} onChange={(p) => { setMeasuredPhase(p); setMeasuredTouched(true); }} known={speciesId === "new" ? [] : knownPhases(speciesId)} label="Phase measured" />
+            <PhaseSelect
+              value={measuredPhase}
+              onChange={(p) => {
+                setMeasuredPhase(p);
+                setMeasuredTouched(true);
+              }}
+              known={speciesId === "new" ? [] : knownPhases(speciesId)}
+              label="Phase measured"
+            />
           </label>
           <label className={label}>
             <span className="font-medium">Temperature unit</span>
-            <select className={inputClass} value={tUnit} onChange={(e) => { const v = e.target.value as typeof tUnit; setTUnit(v); if (text) void preview(text, { tUnit: v, cpUnit }); }} aria-label="Temperature unit">
+            <select
+              className={inputClass}
+              value={tUnit}
+              onChange={(e) => {
+                const v = e.target.value as typeof tUnit;
+                setTUnit(v);
+                if (text) void preview(text, { tUnit: v, cpUnit });
+              }}
+              aria-label="Temperature unit"
+            >
               <option value="">From the header (else K)</option>
-              {T_UNITS.map((u) => <option key={u} value={u}>{T_UNIT_LABELS[u]}</option>)}
+              {T_UNITS.map((u) => (
+                <option key={u} value={u}>
+                  {T_UNIT_LABELS[u]}
+                </option>
+              ))}
             </select>
           </label>
           <label className={label}>
             <span className="font-medium">Cp unit</span>
-            <select className={inputClass} value={cpUnit} onChange={(e) => { const v = e.target.value as typeof cpUnit; setCpUnit(v); if (text) void preview(text, { tUnit, cpUnit: v }); }} aria-label="Cp unit">
+            <select
+              className={inputClass}
+              value={cpUnit}
+              onChange={(e) => {
+                const v = e.target.value as typeof cpUnit;
+                setCpUnit(v);
+                if (text) void preview(text, { tUnit, cpUnit: v });
+              }}
+              aria-label="Cp unit"
+            >
               <option value="">From the header (else J/(mol·K))</option>
-              {CP_UNITS.map((u) => <option key={u} value={u}>{CP_UNIT_LABELS[u]}</option>)}
+              {CP_UNITS.map((u) => (
+                <option key={u} value={u}>
+                  {CP_UNIT_LABELS[u]}
+                </option>
+              ))}
             </select>
           </label>
           {speciesId === "new" && (
             <>
-              <label className={label}><span className="font-medium">Formula</span><input className={inputClass} value={formula} onChange={(e) => setFormula(e.target.value)} aria-label="Formula" /></label>
-              <label className={label}><span className="font-medium">Display name</span><input className={inputClass} value={displayName} onChange={(e) => setDisplayName(e.target.value)} aria-label="Display name" /></label>
+              <label className={label}>
+                <span className="font-medium">Formula</span>
+                <input className={inputClass} value={formula} onChange={(e) => setFormula(e.target.value)} aria-label="Formula" />
+              </label>
+              <label className={label}>
+                <span className="font-medium">Display name</span>
+                <input className={inputClass} value={displayName} onChange={(e) => setDisplayName(e.target.value)} aria-label="Display name" />
+              </label>
             </>
           )}
         </div>
         <div className="grid gap-3 lg:grid-cols-2">
           <label className={label}>
             <span className="font-medium">CSV file (UTF-8, at most 1 MB)</span>
-            <input type="file" accept=".csv,.txt,.tsv,text/csv,text/plain" onChange={(e) => void onFile(e.target.files?.[0])} className="block w-full text-sm" aria-label="CSV file" />
+            <input
+              type="file"
+              accept=".csv,.txt,.tsv,text/csv,text/plain"
+              onChange={(e) => void onFile(e.target.files?.[0])}
+              className="block w-full text-sm"
+              aria-label="CSV file"
+            />
             <span className="block text-xs text-ink-muted">Columns T and Cp, optional σ; units in the header like “T (°C)”, “Cp (J/mol/K)”.</span>
           </label>
           <label className={label}>
             <span className="font-medium">…or paste from a spreadsheet</span>
-            <textarea rows={5} className={`${inputClass} font-mono text-xs`} value={text} onChange={(e) => { setText(e.target.value); setFilename(null); }} onBlur={() => text && void preview(text)} aria-label="Pasted data" placeholder={"T (K)\tCp (J/mol/K)\tsigma\n300\t131.6\t0.8"} />
+            <textarea
+              rows={5}
+              className={`${inputClass} font-mono text-xs`}
+              value={text}
+              onChange={(e) => {
+                setText(e.target.value);
+                setFilename(null);
+              }}
+              onBlur={() => text && void preview(text)}
+              aria-label="Pasted data"
+              placeholder={"T (K)\tCp (J/mol/K)\tsigma\n300\t131.6\t0.8"}
+            />
           </label>
         </div>
         <div className="flex flex-wrap items-center gap-3">
-          <Button type="button" variant="secondary" onClick={() => void preview(text)} disabled={!text}>Check the rows</Button>
-          {progress !== null && <span role="status" className="text-sm text-ink-muted">Reading… {Math.round(progress * 100)} %</span>}
+          <Button type="button" variant="secondary" onClick={() => void preview(text)} disabled={!text}>
+            Check the rows
+          </Button>
+          {progress !== null && (
+            <span role="status" className="text-sm text-ink-muted">
+              Reading… {Math.round(progress * 100)} %
+            </span>
+          )}
         </div>
         {parse && (
           <div className="space-y-3" data-testid="csv-preview">
             <p className="text-sm">
-              {parse.rows.length} rows · T in {T_UNIT_LABELS[parse.tUnit]} ({parse.unitSource.t}) · Cp in {CP_UNIT_LABELS[parse.cpUnit]} ({parse.unitSource.cp}){parse.hasSigma ? " · with σ" : ""}
+              {parse.rows.length} rows · T in {T_UNIT_LABELS[parse.tUnit]} ({parse.unitSource.t}) · Cp in {CP_UNIT_LABELS[parse.cpUnit]} ({parse.unitSource.cp})
+              {parse.hasSigma ? " · with σ" : ""}
             </p>
             {bad.length > 0 && (
               <div role="alert" className="rounded-md border border-flag-600/30 bg-flag-50 p-3 text-sm text-flag-700" data-testid="csv-errors">
-                <p className="font-medium">{bad.length} problem{bad.length === 1 ? "" : "s"}; nothing will be saved until they are fixed:</p>
-                <ul className="mt-1 list-disc pl-5">{bad.slice(0, 20).map((e, i) => <li key={i}>{e.message}</li>)}</ul>
+                <p className="font-medium">
+                  {bad.length} problem{bad.length === 1 ? "" : "s"}; nothing will be saved until they are fixed:
+                </p>
+                <ul className="mt-1 list-disc pl-5">
+                  {bad.slice(0, 20).map((e, i) => (
+                    <li key={i}>{e.message}</li>
+                  ))}
+                </ul>
               </div>
             )}
             {parse.rows.length > 0 && (
@@ -252,42 +356,141 @@ export function UploadWizard({ species }: { species: SpeciesOption[] }) {
                 />
               </div>
             )}
-            {!dataset && <Button type="button" onClick={() => void upload()} disabled={!!busy || bad.length > 0 || !name.trim()}>{busy === "upload" ? "Uploading…" : "Upload dataset"}</Button>}
+            {!dataset && (
+              <Button type="button" onClick={() => void upload()} disabled={!!busy || bad.length > 0 || !name.trim()}>
+                {busy === "upload" ? "Uploading…" : "Upload dataset"}
+              </Button>
+            )}
           </div>
         )}
-        {dataset && <p role="status" className="text-sm text-moss-700">Saved “{dataset.name}”: {dataset.pointCount} points, {dataset.rangeK?.join("–")} K, SHA-256 {dataset.sha256.slice(0, 12)}…</p>}
+        {dataset && (
+          <p role="status" className="text-sm text-moss-700">
+            Saved “{dataset.name}”: {dataset.pointCount} points, {dataset.rangeK?.join("–")} K, SHA-256 {dataset.sha256.slice(0, 12)}…
+          </p>
+        )}
       </section>
 
       {dataset && (
         <section className="space-y-4 rounded-lg border border-ink-line bg-white p-4 shadow-card">
           <h2 className="text-sm font-semibold">2 · Fit a Cp form</h2>
           <div className="grid gap-3 sm:grid-cols-2 lg:grid-cols-4">
-            <label className={label}><span className="font-medium">Form</span><select className={inputClass} value={form} onChange={(e) => setForm(e.target.value)} aria-label="Form to fit">{FIT_FORMS.map(([v, l]) => <option key={v} value={v}>{l}</option>)}</select></label>
-            {form === "power" && <label className={label}><span className="font-medium">Exponents</span><input className={inputClass} value={exponents} onChange={(e) => setExponents(e.target.value)} aria-label="Exponents" /></label>}
-            <label className={label}><span className="font-medium">Phase</span><PhaseSelect value={phase} onChange={(p) => { setPhase(p); setError(null); }} known={speciesId === "new" ? [] : knownPhases(speciesId)} label="Phase" invalid={!phase} /></label>
-            <label className={label}><span className="font-medium">From (K)</span><input className={inputClass} value={tmin} onChange={(e) => setTmin(e.target.value)} aria-label="Fit from (K)" /></label>
-            <label className={label}><span className="font-medium">To (K)</span><input className={inputClass} value={tmax} onChange={(e) => setTmax(e.target.value)} aria-label="Fit to (K)" /></label>
-            <label className={label}><span className="font-medium">Anchor T (K)</span><input className={inputClass} value={refT} onChange={(e) => setRefT(e.target.value)} aria-label="Anchor T (K)" /></label>
-            <label className={label}><span className="font-medium">H at anchor <span className="font-normal text-ink-muted">kJ/mol</span></span><input className={inputClass} value={refH} onChange={(e) => setRefH(e.target.value)} aria-label="Anchor H (kJ/mol)" /></label>
-            <label className={label}><span className="font-medium">S at anchor <span className="font-normal text-ink-muted">J/(mol·K)</span></span><input className={inputClass} value={refS} onChange={(e) => setRefS(e.target.value)} aria-label="Anchor S (J/(mol·K))" /></label>
+            <label className={label}>
+              <span className="font-medium">Form</span>
+              <select className={inputClass} value={form} onChange={(e) => setForm(e.target.value)} aria-label="Form to fit">
+                {FIT_FORMS.map(([v, l]) => (
+                  <option key={v} value={v}>
+                    {l}
+                  </option>
+                ))}
+              </select>
+            </label>
+            {form === "power" && (
+              <label className={label}>
+                <span className="font-medium">Exponents</span>
+                <input className={inputClass} value={exponents} onChange={(e) => setExponents(e.target.value)} aria-label="Exponents" />
+              </label>
+            )}
+            <label className={label}>
+              <span className="font-medium">Phase</span>
+              <PhaseSelect
+                value={phase}
+                onChange={(p) => {
+                  setPhase(p);
+                  setError(null);
+                }}
+                known={speciesId === "new" ? [] : knownPhases(speciesId)}
+                label="Phase"
+                invalid={!phase}
+              />
+            </label>
+            <label className={label}>
+              <span className="font-medium">From (K)</span>
+              <input className={inputClass} value={tmin} onChange={(e) => setTmin(e.target.value)} aria-label="Fit from (K)" />
+            </label>
+            <label className={label}>
+              <span className="font-medium">To (K)</span>
+              <input className={inputClass} value={tmax} onChange={(e) => setTmax(e.target.value)} aria-label="Fit to (K)" />
+            </label>
+            <label className={label}>
+              <span className="font-medium">Anchor T (K)</span>
+              <input className={inputClass} value={refT} onChange={(e) => setRefT(e.target.value)} aria-label="Anchor T (K)" />
+            </label>
+            <label className={label}>
+              <span className="font-medium">
+                H at anchor <span className="font-normal text-ink-muted">kJ/mol</span>
+              </span>
+              <input className={inputClass} value={refH} onChange={(e) => setRefH(e.target.value)} aria-label="Anchor H (kJ/mol)" />
+            </label>
+            <label className={label}>
+              <span className="font-medium">
+                S at anchor <span className="font-normal text-ink-muted">J/(mol·K)</span>
+              </span>
+              <input className={inputClass} value={refS} onChange={(e) => setRefS(e.target.value)} aria-label="Anchor S (J/(mol·K))" />
+            </label>
           </div>
           <div className="flex items-center gap-3">
-            <Button type="button" onClick={() => void runFit()} disabled={!!busy}>{busy === "fit" ? "Fitting…" : "Fit"}</Button>
-            {busy === "fit" && <span role="status" className="text-sm text-ink-muted">Solving the weighted least-squares problem…</span>}
+            <Button type="button" onClick={() => void runFit()} disabled={!!busy}>
+              {busy === "fit" ? "Fitting…" : "Fit"}
+            </Button>
+            {busy === "fit" && (
+              <span role="status" className="text-sm text-ink-muted">
+                Solving the weighted least-squares problem…
+              </span>
+            )}
           </div>
           {fit && (
             <div className="space-y-4" data-testid="fit-result">
               <dl className="grid grid-cols-2 gap-3 text-sm sm:grid-cols-5">
-                <div><dt className="text-xs text-ink-muted">Points</dt><dd className="tabular">{fit.points} ({fit.tminK}–{fit.tmaxK} K)</dd></div>
-                <div><dt className="text-xs text-ink-muted">RMS deviation</dt><dd className="tabular" data-testid="fit-rms">{fit.rmsJ.toPrecision(3)} J/(mol·K)</dd></div>
-                <div><dt className="text-xs text-ink-muted">Max deviation</dt><dd className="tabular">{fit.maxAbsJ.toPrecision(3)} J/(mol·K)</dd></div>
-                <div><dt className="text-xs text-ink-muted">R²</dt><dd className="tabular">{fit.r2.toFixed(6)}</dd></div>
-                <div><dt className="text-xs text-ink-muted">Condition number</dt><dd className="tabular">{fit.conditionNumber.toExponential(2)}</dd></div>
+                <div>
+                  <dt className="text-xs text-ink-muted">Points</dt>
+                  <dd className="tabular">
+                    {fit.points} ({fit.tminK}–{fit.tmaxK} K)
+                  </dd>
+                </div>
+                <div>
+                  <dt className="text-xs text-ink-muted">RMS deviation</dt>
+                  <dd className="tabular" data-testid="fit-rms">
+                    {fit.rmsJ.toPrecision(3)} J/(mol·K)
+                  </dd>
+                </div>
+                <div>
+                  <dt className="text-xs text-ink-muted">Max deviation</dt>
+                  <dd className="tabular">{fit.maxAbsJ.toPrecision(3)} J/(mol·K)</dd>
+                </div>
+                <div>
+                  <dt className="text-xs text-ink-muted">R²</dt>
+                  <dd className="tabular">{fit.r2.toFixed(6)}</dd>
+                </div>
+                <div>
+                  <dt className="text-xs text-ink-muted">Condition number</dt>
+                  <dd className="tabular">{fit.conditionNumber.toExponential(2)}</dd>
+                </div>
               </dl>
-              <p className="break-all font-mono text-xs">{Object.entries({ ...fit.coefficients, ...(fit.integrationConstants ?? {}) }).map(([k, v]) => `${k} = ${Number(v.toPrecision(8))}`).join(",  ")}</p>
+              <p className="break-all font-mono text-xs">
+                {Object.entries({ ...fit.coefficients, ...(fit.integrationConstants ?? {}) })
+                  .map(([k, v]) => `${k} = ${Number(v.toPrecision(8))}`)
+                  .join(",  ")}
+              </p>
               <div className="grid gap-6 lg:grid-cols-2">
-                <PointsChart points={fit.residuals.map((r) => ({ x: r.tK, y: r.cpJ }))} pointsName="measured" line={fit.residuals.map((r) => ({ x: r.tK, y: r.fittedJ }))} lineName="fitted" xLabel="T (K)" yLabel="Cp (J/(mol·K))" testId="fit-chart" ariaLabel="Measured and fitted heat capacity" />
-                <PointsChart points={fit.residuals.map((r) => ({ x: r.tK, y: r.residualJ }))} pointsName="measured − fitted" xLabel="T (K)" yLabel="Residual (J/(mol·K))" zeroLine testId="residual-chart" ariaLabel="Residuals of the fit" />
+                <PointsChart
+                  points={fit.residuals.map((r) => ({ x: r.tK, y: r.cpJ }))}
+                  pointsName="measured"
+                  line={fit.residuals.map((r) => ({ x: r.tK, y: r.fittedJ }))}
+                  lineName="fitted"
+                  xLabel="T (K)"
+                  yLabel="Cp (J/(mol·K))"
+                  testId="fit-chart"
+                  ariaLabel="Measured and fitted heat capacity"
+                />
+                <PointsChart
+                  points={fit.residuals.map((r) => ({ x: r.tK, y: r.residualJ }))}
+                  pointsName="measured − fitted"
+                  xLabel="T (K)"
+                  yLabel="Residual (J/(mol·K))"
+                  zeroLine
+                  testId="residual-chart"
+                  ariaLabel="Residuals of the fit"
+                />
               </div>
               {!fit.data && <p className="text-sm text-ember-700">Enter H and S at the anchor to save this fit as a model: Cp alone gives no H or S.</p>}
             </div>
@@ -299,13 +502,25 @@ export function UploadWizard({ species }: { species: SpeciesOption[] }) {
         <section className="space-y-3 rounded-lg border border-ink-line bg-white p-4 shadow-card">
           <h2 className="text-sm font-semibold">3 · Save as a draft</h2>
           <div className="grid gap-3 lg:grid-cols-2">
-            <label className={label}><span className="font-medium">Model name</span><input className={inputClass} value={modelName} onChange={(e) => setModelName(e.target.value)} aria-label="Model name" /></label>
-            <label className={label}><span className="font-medium">Citation</span><input className={inputClass} value={citation} onChange={(e) => setCitation(e.target.value)} aria-label="Citation" placeholder="Lab, instrument, run, date" /></label>
+            <label className={label}>
+              <span className="font-medium">Model name</span>
+              <input className={inputClass} value={modelName} onChange={(e) => setModelName(e.target.value)} aria-label="Model name" />
+            </label>
+            <label className={label}>
+              <span className="font-medium">Citation</span>
+              <input className={inputClass} value={citation} onChange={(e) => setCitation(e.target.value)} aria-label="Citation" placeholder="Lab, instrument, run, date" />
+            </label>
           </div>
-          <Button type="button" onClick={() => void saveDraft()} disabled={!!busy || !citation.trim() || !fit.data}>{busy === "save" ? "Saving…" : "Save as draft"}</Button>
+          <Button type="button" onClick={() => void saveDraft()} disabled={!!busy || !citation.trim() || !fit.data}>
+            {busy === "save" ? "Saving…" : "Save as draft"}
+          </Button>
         </section>
       )}
-      {error && <p role="alert" className="text-sm text-flag-700" data-testid="wizard-error">{error}</p>}
+      {error && (
+        <p role="alert" className="text-sm text-flag-700" data-testid="wizard-error">
+          {error}
+        </p>
+      )}
     </div>
   );
 }

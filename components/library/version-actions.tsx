@@ -12,7 +12,21 @@ type Allowed = { edit: boolean; propose: boolean; decide: boolean; newDraft: boo
 
 /** The workflow buttons the server said this person may use; the server checks again on every call. */
 /** `decisions`: the page's approve and reject server actions. */
-export function VersionActions({ versionId, modelId, allowed, label, speciesHref, decisions }: { versionId: number; modelId: number; allowed: Allowed; label?: string; speciesHref?: string; decisions: { approve: FormAction; reject: FormAction } }) {
+export function VersionActions({
+  versionId,
+  modelId,
+  allowed,
+  label,
+  speciesHref,
+  decisions,
+}: {
+  versionId: number;
+  modelId: number;
+  allowed: Allowed;
+  label?: string;
+  speciesHref?: string;
+  decisions: { approve: FormAction; reject: FormAction };
+}) {
   const router = useRouter();
   const [busy, setBusy] = useState<string | null>(null);
   const [error, setError] = useState<string | null>(null);
@@ -57,20 +71,62 @@ export function VersionActions({ versionId, modelId, allowed, label, speciesHref
   return (
     <div className="space-y-3" data-testid="version-actions">
       <div className="flex flex-wrap gap-2">
-        {allowed.edit && <Button variant="secondary" onClick={() => router.push(`/library/versions/${versionId}/edit`)}>Edit draft</Button>}
-        {allowed.propose && <Button focusableWhenDisabled disabled={!!busy} onClick={() => run("propose", `/api/v1/versions/${versionId}/propose`)}>{busy === "propose" ? "Proposing…" : "Propose for approval"}</Button>}
+        {allowed.edit && (
+          <Button variant="secondary" onClick={() => router.push(`/library/versions/${versionId}/edit`)}>
+            Edit draft
+          </Button>
+        )}
+        {allowed.propose && (
+          <Button focusableWhenDisabled disabled={!!busy} onClick={() => run("propose", `/api/v1/versions/${versionId}/propose`)}>
+            {busy === "propose" ? "Proposing…" : "Propose for approval"}
+          </Button>
+        )}
         {allowed.decide && (
           <>
-            <Button focusableWhenDisabled disabled={!!busy} onClick={() => decide("approve", decisions.approve, {})}>{busy === "approve" ? "Approving…" : "Approve"}</Button>
-            <Button variant="danger" focusableWhenDisabled disabled={!!busy} onClick={() => setRejecting((r) => !r)}>Reject…</Button>
+            <Button focusableWhenDisabled disabled={!!busy} onClick={() => decide("approve", decisions.approve, {})}>
+              {busy === "approve" ? "Approving…" : "Approve"}
+            </Button>
+            <Button variant="danger" focusableWhenDisabled disabled={!!busy} onClick={() => setRejecting((r) => !r)}>
+              Reject…
+            </Button>
           </>
         )}
-        {allowed.withdraw && <Button variant="secondary" focusableWhenDisabled disabled={!!busy} onClick={() => setConfirm("withdraw")}>Withdraw proposal</Button>}
-        {allowed.remove && <Button variant="danger" focusableWhenDisabled disabled={!!busy} onClick={() => setConfirm("delete")}>Delete…</Button>}
-        {allowed.newDraft && <Button variant="secondary" focusableWhenDisabled disabled={!!busy} onClick={() => run("draft", `/api/v1/models/${modelId}/versions`, { fromVersionId: versionId }, (id) => `/library/versions/${id}/edit`)}>New draft from this version</Button>}
-        {allowed.copy && <Button variant="secondary" focusableWhenDisabled disabled={!!busy} onClick={() => run("copy", `/api/v1/versions/${versionId}/copy`, undefined, (id) => `/library/versions/${id}/edit`)}>{busy === "copy" ? "Copying…" : "Copy into a team model"}</Button>}
+        {allowed.withdraw && (
+          <Button variant="secondary" focusableWhenDisabled disabled={!!busy} onClick={() => setConfirm("withdraw")}>
+            Withdraw proposal
+          </Button>
+        )}
+        {allowed.remove && (
+          <Button variant="danger" focusableWhenDisabled disabled={!!busy} onClick={() => setConfirm("delete")}>
+            Delete…
+          </Button>
+        )}
+        {allowed.newDraft && (
+          <Button
+            variant="secondary"
+            focusableWhenDisabled
+            disabled={!!busy}
+            onClick={() => run("draft", `/api/v1/models/${modelId}/versions`, { fromVersionId: versionId }, (id) => `/library/versions/${id}/edit`)}
+          >
+            New draft from this version
+          </Button>
+        )}
+        {allowed.copy && (
+          <Button
+            variant="secondary"
+            focusableWhenDisabled
+            disabled={!!busy}
+            onClick={() => run("copy", `/api/v1/versions/${versionId}/copy`, undefined, (id) => `/library/versions/${id}/edit`)}
+          >
+            {busy === "copy" ? "Copying…" : "Copy into a team model"}
+          </Button>
+        )}
       </div>
-      {allowed.ownWork && <p className="text-sm text-ink-muted" data-testid="own-work-note">You wrote, changed or proposed this version, so another steward decides on it.</p>}
+      {allowed.ownWork && (
+        <p className="text-sm text-ink-muted" data-testid="own-work-note">
+          You wrote, changed or proposed this version, so another steward decides on it.
+        </p>
+      )}
       {rejecting && (
         <form
           className="space-y-2"
@@ -79,12 +135,20 @@ export function VersionActions({ versionId, modelId, allowed, label, speciesHref
             decide("reject", decisions.reject, { reason });
           }}
         >
-          <label htmlFor="reject-reason" className="block text-sm font-medium text-ink-soft">Reason for the author</label>
+          <label htmlFor="reject-reason" className="block text-sm font-medium text-ink-soft">
+            Reason for the author
+          </label>
           <textarea id="reject-reason" value={reason} onChange={(e) => setReason(e.target.value)} rows={3} className={inputClass} />
-          <Button type="submit" variant="danger" disabled={!!busy}>{busy === "reject" ? "Rejecting…" : "Reject with this reason"}</Button>
+          <Button type="submit" variant="danger" disabled={!!busy}>
+            {busy === "reject" ? "Rejecting…" : "Reject with this reason"}
+          </Button>
         </form>
       )}
-      {error && <p role="alert" className="text-sm text-flag-700">{error}</p>}
+      {error && (
+        <p role="alert" className="text-sm text-flag-700">
+          {error}
+        </p>
+      )}
       <ConfirmDialog
         open={confirm !== null}
         title={confirm === "withdraw" ? "Withdraw this proposal?" : "Delete this version?"}

@@ -42,13 +42,20 @@ export function ContributionsChart({ result, compact = false, unit = "K" }: { re
     <section className={panel} data-testid="contributions">
       <h3 className="mb-1 text-sm font-semibold text-ink">Where the naive error comes from, species by species</h3>
       <p className="mb-2 text-xs text-ink-muted">
-        Each band is one species&apos; ν·[(H(T) − H(Tref)) − T·(S(T) − S(Tref))]: what its heat capacity adds between Tref and T that the naive line leaves out. Bands above zero push the corrected
-        ΔrG up, bands below pull it down; together they make the black line, corrected − naive.
+        Each band is one species&apos; ν·[(H(T) − H(Tref)) − T·(S(T) − S(Tref))]: what its heat capacity adds between Tref and T that the naive line leaves out. Bands above zero
+        push the corrected ΔrG up, bands below pull it down; together they make the black line, corrected − naive.
       </p>
       {w && w.shares.length > 0 && Math.abs(w.totalKJ) > 0 && (
         <p className="mb-2 text-xs text-ink-soft" data-testid="contributions-headline">
-          At {formatTemperature(w.tK, unit, 2)}, where the gap is widest ({fixed(w.totalKJ, 3)} kJ/mol), the largest share is <strong>{w.shares[0].key}</strong> with {fixed(w.shares[0].kJ, 3)} kJ/mol
-          {w.shares.length > 1 ? `; then ${w.shares.slice(1).map((x) => `${x.key} ${fixed(x.kJ, 3)}`).join(", ")} kJ/mol` : ""}.
+          At {formatTemperature(w.tK, unit, 2)}, where the gap is widest ({fixed(w.totalKJ, 3)} kJ/mol), the largest share is <strong>{w.shares[0].key}</strong> with{" "}
+          {fixed(w.shares[0].kJ, 3)} kJ/mol
+          {w.shares.length > 1
+            ? `; then ${w.shares
+                .slice(1)
+                .map((x) => `${x.key} ${fixed(x.kJ, 3)}`)
+                .join(", ")} kJ/mol`
+            : ""}
+          .
         </p>
       )}
       <StackedAreaChart
@@ -67,7 +74,8 @@ export function ContributionsChart({ result, compact = false, unit = "K" }: { re
         <div className="mt-3" data-testid="contributions-sigma">
           <h4 className="mb-1 text-xs font-semibold text-ink">The 1σ band of ΔrG, split the same way</h4>
           <p className="mb-1 text-xs text-ink-muted">
-            Each species&apos; share of the variance, (ν·σᵢ)²/σ, so the bands add up to the 1σ of the corrected ΔrG (black line). A species without a stated uncertainty has no band.
+            Each species&apos; share of the variance, (ν·σᵢ)²/σ, so the bands add up to the 1σ of the corrected ΔrG (black line). A species without a stated uncertainty has no
+            band.
           </p>
           <StackedAreaChart
             testId="chart-contributions-sigma"

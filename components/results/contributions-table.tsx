@@ -9,7 +9,11 @@ import type { EvaluateResult } from "@/lib/thermo/evaluate";
 export function ContributionsTable({ result, rowIndexes }: { result: EvaluateResult; rowIndexes: number[] }) {
   const c = result.contributions;
   if (!c) {
-    return <p className="text-xs text-ink-muted" data-testid="report-contributions-missing">This snapshot was frozen before the engine split the error by species; it is not recomputed.</p>;
+    return (
+      <p className="text-xs text-ink-muted" data-testid="report-contributions-missing">
+        This snapshot was frozen before the engine split the error by species; it is not recomputed.
+      </p>
+    );
   }
   const keys = Object.keys(c);
   const sigma = result.contributionsSigma;

@@ -20,7 +20,15 @@ const rowBg = (p: Point) => (p.exceedsTolerance ? "bg-flag-50" : "bg-white");
 
 const columns = (unit: DisplayUnit): Column<Point>[] => [
   // The T column stays put when the table scrolls sideways, so it carries the row's background.
-  { key: "t", header: `T (${UNIT_LABELS[unit]})`, headerTestId: "numbers-t-header", sticky: true, className: (p) => `${rowBg(p)} font-medium`, value: (p) => p.tK, cell: (p) => gridValue(p.tK, unit) },
+  {
+    key: "t",
+    header: `T (${UNIT_LABELS[unit]})`,
+    headerTestId: "numbers-t-header",
+    sticky: true,
+    className: (p) => `${rowBg(p)} font-medium`,
+    value: (p) => p.tK,
+    cell: (p) => gridValue(p.tK, unit),
+  },
   { key: "cp", header: "ΔrCp (J/(mol·K))", value: (p) => p.dCpJ, cell: (p) => fixed(p.dCpJ, 3) },
   { key: "h", header: "ΔrH (kJ/mol)", value: (p) => p.dHkJ, cell: (p) => fixed(p.dHkJ, 3) },
   { key: "s", header: "ΔrS (J/(mol·K))", value: (p) => p.dSJ, cell: (p) => fixed(p.dSJ, 3) },
@@ -56,7 +64,14 @@ export function NumbersTable({ caseId, revision, firstPage, unit = "K" }: { case
           {later.error.message}
         </p>
       )}
-      <div className="max-h-[70vh] overflow-auto rounded-md border border-ink-line/60" data-testid="numbers-scroll" aria-busy={page > 0 && later.isLoading ? true : undefined} tabIndex={0} role="region" aria-label="Numbers table, scrolls sideways">
+      <div
+        className="max-h-[70vh] overflow-auto rounded-md border border-ink-line/60"
+        data-testid="numbers-scroll"
+        aria-busy={page > 0 && later.isLoading ? true : undefined}
+        tabIndex={0}
+        role="region"
+        aria-label="Numbers table, scrolls sideways"
+      >
         <DataTable look="grid" nowrap testId="numbers-table" columns={columns(unit)} rows={rows} rowKey={(p) => p.tK} rowClassName={rowBg} />
       </div>
       <div className="no-print mt-2 flex items-center justify-between gap-2 text-xs text-ink-muted">

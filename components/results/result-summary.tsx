@@ -37,9 +37,7 @@ export function ResultSummary({ result, unit = "K" }: { result: EvaluateResult; 
               ? "none (ΔrH° and ΔrS° have opposite signs)"
               : `${formatTemperature(c.naiveK, unit)}${c.naiveInSpan ? "" : ` (outside ${formatTemperature(first, unit, 0)} to ${formatTemperature(last, unit, 0)})`}`}
           </span>
-          <span className="block">
-            Corrected: {c.correctedK.length === 0 ? "none in the span" : c.correctedK.map((t) => formatTemperature(t, unit)).join(", ")}
-          </span>
+          <span className="block">Corrected: {c.correctedK.length === 0 ? "none in the span" : c.correctedK.map((t) => formatTemperature(t, unit)).join(", ")}</span>
         </dd>
       </div>
     </dl>
@@ -47,7 +45,12 @@ export function ResultSummary({ result, unit = "K" }: { result: EvaluateResult; 
 }
 
 export function WarningList({ warnings, gas = "ideal" }: { warnings: EvaluateResult["warnings"]; gas?: CautionGas }) {
-  if (warnings.length === 0) return <p className="text-sm text-moss-700" data-testid="no-warnings">{noWarningsText(gas)}</p>;
+  if (warnings.length === 0)
+    return (
+      <p className="text-sm text-moss-700" data-testid="no-warnings">
+        {noWarningsText(gas)}
+      </p>
+    );
   return (
     <ul className="space-y-2" data-testid="warnings">
       {warnings.map((w, i) => (

@@ -35,7 +35,12 @@ export function ResultsView({ caseId, revision, stamp, initialUnit = "K" }: { ca
   // The case's lockVersion (stamp): an edit, a submission or a decision asks afresh.
   const { data, error, isLoading } = useCaseResults(caseId, revision, stamp);
 
-  if (isLoading) return <Card><p className="text-sm text-ink-muted">Loading the results…</p></Card>;
+  if (isLoading)
+    return (
+      <Card>
+        <p className="text-sm text-ink-muted">Loading the results…</p>
+      </Card>
+    );
   if (error || !data) {
     return (
       <Card title="Results">
@@ -58,7 +63,10 @@ export function ResultsView({ caseId, revision, stamp, initialUnit = "K" }: { ca
             <>
               <Badge tone="moss">Frozen snapshot · revision {data.revision}</Badge>
               <span className="text-xs text-ink-muted">
-                hash <code className="break-all" data-testid="snapshot-hash">{data.hash}</code>
+                hash{" "}
+                <code className="break-all" data-testid="snapshot-hash">
+                  {data.hash}
+                </code>
               </span>
             </>
           ) : (

@@ -30,15 +30,27 @@ export function chartSeries(result: EvaluateResult, unit: DisplayUnit, tolerance
   );
   // Beyond tolerance on the difference chart: from the tolerance line out to the curve (from zero when only the K factor is exceeded).
   const beyond = (d: number): [number, number] => (d > toleranceKJ ? [toleranceKJ, d] : d < -toleranceKJ ? [d, -toleranceKJ] : [lo(d, 0), hi(d, 0)]);
-  const diff = downsample(p.map((q) => ({ t: x(q.tK), diff: q.diffKJ, over: q.exceedsTolerance ? beyond(q.diffKJ) : null })), ["diff"], DRAW_POINTS);
-  const logK = downsample(p.map((q) => ({ t: x(q.tK), log10K: q.log10K, naiveLog10K: q.naiveLog10K })), ["log10K", "naiveLog10K"], DRAW_POINTS);
-  const vantHoff = downsample(
-    p.map((q) => ({ invT: 1000 / q.tK, lnK: q.lnK, naiveLnK: q.naiveLnK })).reverse(),
-    ["lnK", "naiveLnK"],
+  const diff = downsample(
+    p.map((q) => ({ t: x(q.tK), diff: q.diffKJ, over: q.exceedsTolerance ? beyond(q.diffKJ) : null })),
+    ["diff"],
     DRAW_POINTS,
   );
-  const dH = downsample(p.map((q) => ({ t: x(q.tK), dHkJ: q.dHkJ })), ["dHkJ"], DRAW_POINTS);
-  const dS = downsample(p.map((q) => ({ t: x(q.tK), dSJ: q.dSJ })), ["dSJ"], DRAW_POINTS);
+  const logK = downsample(
+    p.map((q) => ({ t: x(q.tK), log10K: q.log10K, naiveLog10K: q.naiveLog10K })),
+    ["log10K", "naiveLog10K"],
+    DRAW_POINTS,
+  );
+  const vantHoff = downsample(p.map((q) => ({ invT: 1000 / q.tK, lnK: q.lnK, naiveLnK: q.naiveLnK })).reverse(), ["lnK", "naiveLnK"], DRAW_POINTS);
+  const dH = downsample(
+    p.map((q) => ({ t: x(q.tK), dHkJ: q.dHkJ })),
+    ["dHkJ"],
+    DRAW_POINTS,
+  );
+  const dS = downsample(
+    p.map((q) => ({ t: x(q.tK), dSJ: q.dSJ })),
+    ["dSJ"],
+    DRAW_POINTS,
+  );
   const marks: MarkX[] = [];
   if (result.crossover.naiveK !== null && result.crossover.naiveInSpan) {
     marks.push({ x: x(result.crossover.naiveK), label: `naive T* ${formatTemperature(result.crossover.naiveK, unit)}`, color: CHART_COLORS.frost, dashed: true });
@@ -53,7 +65,23 @@ export function chartSeries(result: EvaluateResult, unit: DisplayUnit, tolerance
   const invTicks = niceTicks(invLo, invHi, 5).filter((t) => t >= invLo - 1e-9 && t <= invHi + 1e-9);
   const anyOver = p.some((q) => q.exceedsTolerance);
   const anyWithin = p.some((q) => !q.exceedsTolerance);
-  return { dG, diff, logK, vantHoff, dH, dS, marks, ticks, domain: [first, last] as [number, number], anyOver, anyWithin, invTicks, invDomain: [invLo, invHi] as [number, number], drawn: dG.length, total: p.length };
+  return {
+    dG,
+    diff,
+    logK,
+    vantHoff,
+    dH,
+    dS,
+    marks,
+    ticks,
+    domain: [first, last] as [number, number],
+    anyOver,
+    anyWithin,
+    invTicks,
+    invDomain: [invLo, invHi] as [number, number],
+    drawn: dG.length,
+    total: p.length,
+  };
 }
 
 export function useChartSeries(result: EvaluateResult | undefined, unit: DisplayUnit = "K", toleranceKJ = 0) {

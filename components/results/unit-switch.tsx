@@ -7,7 +7,9 @@ export function UnitSwitch({ unit, onChange }: { unit: DisplayUnit; onChange: (u
   return (
     <fieldset className="no-print inline-flex items-center gap-1 text-xs" data-testid="unit-switch">
       <legend className="sr-only">Show temperatures in</legend>
-      <span className="mr-1 text-ink-muted" aria-hidden="true">Temperatures in</span>
+      <span className="mr-1 text-ink-muted" aria-hidden="true">
+        Temperatures in
+      </span>
       {DISPLAY_UNITS.map((u) => (
         <label
           key={u}

@@ -57,7 +57,11 @@ export function useCaseResults(caseId: number, revision?: number, stamp?: number
 
 /** One later page of the numbers table; `null` offset asks for nothing (the first page came with the results). */
 export function useTablePage(caseId: number, revision: number | undefined, offset: number | null) {
-  return useSWR<TablePage, ApiError>(offset === null ? null : tablePageUrl(caseId, revision, offset), async (url: string) => pageOf((await getJson<Answer>(url)).result.page!), options);
+  return useSWR<TablePage, ApiError>(
+    offset === null ? null : tablePageUrl(caseId, revision, offset),
+    async (url: string) => pageOf((await getJson<Answer>(url)).result.page!),
+    options,
+  );
 }
 
 /**

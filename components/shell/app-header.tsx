@@ -29,7 +29,9 @@ export function AppHeader({ actor, items, signOut }: { actor: Actor; items: NavI
         </div>
         <div className="ml-auto flex items-center gap-3 text-sm">
           <span className="hidden text-right leading-tight sm:block">
-            <span className="block font-medium" data-testid="user-name">{actor.name}</span>
+            <span className="block font-medium" data-testid="user-name">
+              {actor.name}
+            </span>
             <span className="block text-xs text-paper/70">{actor.teamName}</span>
           </span>
           <span data-testid="user-role" className="rounded-full bg-ember-500 px-2.5 py-0.5 text-xs font-semibold text-white">
@@ -42,7 +44,9 @@ export function AppHeader({ actor, items, signOut }: { actor: Actor; items: NavI
             <NavLinks items={items} vertical />
             <div className="mt-3 flex items-center justify-between gap-3 border-t border-white/10 pt-3 text-sm">
               <span className="leading-tight">
-                <span className="block font-medium" data-testid="menu-user-name">{actor.name}</span>
+                <span className="block font-medium" data-testid="menu-user-name">
+                  {actor.name}
+                </span>
                 <span className="block text-xs text-paper/70">{actor.teamName}</span>
               </span>
               <SignOut action={signOut} />

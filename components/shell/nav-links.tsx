@@ -16,9 +16,7 @@ export function NavLinks({ items, vertical = false }: { items: NavItem[]; vertic
             key={item.href}
             href={item.href}
             aria-current={active ? "page" : undefined}
-            className={`whitespace-nowrap rounded-md px-3 py-1.5 text-sm font-medium ${
-              active ? "bg-paper text-ink" : "text-paper/80 hover:bg-white/10 hover:text-paper"
-            }`}
+            className={`whitespace-nowrap rounded-md px-3 py-1.5 text-sm font-medium ${active ? "bg-paper text-ink" : "text-paper/80 hover:bg-white/10 hover:text-paper"}`}
           >
             {item.label}
           </Link>

@@ -20,13 +20,21 @@ export function InviteForm({ demo, invite }: { demo: boolean; invite: FormAction
         <Field label="Role" name="role" error={state.fieldErrors?.role}>
           <Select name="role" defaultValue={state.values?.role ?? "engineer"} key={state.values?.role ?? "engineer"}>
             {ROLES.map((r) => (
-              <option key={r} value={r}>{ROLE_LABELS[r]}</option>
+              <option key={r} value={r}>
+                {ROLE_LABELS[r]}
+              </option>
             ))}
           </Select>
         </Field>
-        <Button type="submit" disabled={pending}>{pending ? "Inviting…" : "Invite"}</Button>
+        <Button type="submit" disabled={pending}>
+          {pending ? "Inviting…" : "Invite"}
+        </Button>
       </form>
-      {state.message && !state.ok && <p role="alert" className="text-sm text-flag-700">{state.message}</p>}
+      {state.message && !state.ok && (
+        <p role="alert" className="text-sm text-flag-700">
+          {state.message}
+        </p>
+      )}
       {state.ok && state.data && (
         <div role="status" className="rounded-md border border-moss-600/30 bg-moss-50 p-3 text-sm">
           <p className="font-medium text-moss-700">{state.message}</p>
@@ -34,7 +42,12 @@ export function InviteForm({ demo, invite }: { demo: boolean; invite: FormAction
             The message holds a one-time link that expires in 7 days.
             {demo && (
               <>
-                {" "}Demo mode: mail goes to the local catcher; read it in the <Link className="font-medium text-frost-600 underline" href="/outbox">Outbox</Link>.
+                {" "}
+                Demo mode: mail goes to the local catcher; read it in the{" "}
+                <Link className="font-medium text-frost-600 underline" href="/outbox">
+                  Outbox
+                </Link>
+                .
               </>
             )}
           </p>

@@ -43,13 +43,26 @@ export function MemberControls({
         }}
       >
         <input type="hidden" name="membershipId" value={membershipId} />
-        <label className="sr-only" htmlFor={`role-${membershipId}`}>Role of {name}</label>
-        <select id={`role-${membershipId}`} name="role" value={chosen} onChange={(e) => setChosen(e.target.value as Role)} className={`${inputClass} w-36 py-1.5`} data-stored-role={role}>
+        <label className="sr-only" htmlFor={`role-${membershipId}`}>
+          Role of {name}
+        </label>
+        <select
+          id={`role-${membershipId}`}
+          name="role"
+          value={chosen}
+          onChange={(e) => setChosen(e.target.value as Role)}
+          className={`${inputClass} w-36 py-1.5`}
+          data-stored-role={role}
+        >
           {ROLES.map((r) => (
-            <option key={r} value={r}>{ROLE_LABELS[r]}</option>
+            <option key={r} value={r}>
+              {ROLE_LABELS[r]}
+            </option>
           ))}
         </select>
-        <Button type="submit" variant="secondary" disabled={rolePending}>Save role</Button>
+        <Button type="submit" variant="secondary" disabled={rolePending}>
+          Save role
+        </Button>
       </form>
       <form
         action={removeAction}
@@ -58,10 +71,14 @@ export function MemberControls({
         }}
       >
         <input type="hidden" name="membershipId" value={membershipId} />
-        <Button type="submit" variant="danger" disabled={removePending}>Remove</Button>
+        <Button type="submit" variant="danger" disabled={removePending}>
+          Remove
+        </Button>
       </form>
       {message && (
-        <p role="status" className={`w-full text-right text-xs ${failed ? "text-flag-700" : "text-moss-700"}`}>{message}</p>
+        <p role="status" className={`w-full text-right text-xs ${failed ? "text-flag-700" : "text-moss-700"}`}>
+          {message}
+        </p>
       )}
     </div>
   );

@@ -9,7 +9,9 @@ export function RevokeInvitationButton({ invitationId, revoke }: { invitationId:
   return (
     <form action={action} className="inline-flex items-center gap-2">
       <input type="hidden" name="invitationId" value={invitationId} />
-      <Button type="submit" variant="ghost" disabled={pending}>Revoke</Button>
+      <Button type="submit" variant="ghost" disabled={pending}>
+        Revoke
+      </Button>
       {state.message && !state.ok && <span className="text-xs text-flag-700">{state.message}</span>}
     </form>
   );

@@ -23,16 +23,7 @@ export function Field({ label, name, error, hint, children }: FieldProps) {
 }
 
 export function TextInput({ name, error, ...props }: InputHTMLAttributes<HTMLInputElement> & { name: string; error?: string }) {
-  return (
-    <input
-      id={name}
-      name={name}
-      aria-invalid={error ? true : undefined}
-      aria-describedby={error ? `${name}-error` : undefined}
-      className={inputClass}
-      {...props}
-    />
-  );
+  return <input id={name} name={name} aria-invalid={error ? true : undefined} aria-describedby={error ? `${name}-error` : undefined} className={inputClass} {...props} />;
 }
 
 export function Select({ name, error, children, ...props }: SelectHTMLAttributes<HTMLSelectElement> & { name: string; error?: string }) {

@@ -25,9 +25,21 @@ export function Pager({
   if (!previousHref && !nextHref) return null;
   return (
     <nav aria-label="Pages" className={`${className} flex items-center justify-between gap-3 text-sm`}>
-      {previousHref ? <Link className={buttonClass("secondary")} href={previousHref}>{previousLabel}</Link> : <span />}
+      {previousHref ? (
+        <Link className={buttonClass("secondary")} href={previousHref}>
+          {previousLabel}
+        </Link>
+      ) : (
+        <span />
+      )}
       {status ? <span className="text-ink-muted">{status}</span> : <span />}
-      {nextHref ? <Link className={buttonClass("secondary")} href={nextHref}>{nextLabel}</Link> : <span />}
+      {nextHref ? (
+        <Link className={buttonClass("secondary")} href={nextHref}>
+          {nextLabel}
+        </Link>
+      ) : (
+        <span />
+      )}
     </nav>
   );
 }

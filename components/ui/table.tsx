@@ -136,7 +136,11 @@ export function DataTable<Row>({
       <thead className={join(l.thead, stickyHeader && "sticky top-0 bg-white") || undefined}>
         <tr>
           {cols.map((c) => (
-            <th key={c.key} className={join(l.th, pad, alignOf(c), (nowrap || nowrapHeader) && "whitespace-nowrap", c.sticky && STICKY_TH, c.headerClassName)} data-testid={c.headerTestId}>
+            <th
+              key={c.key}
+              className={join(l.th, pad, alignOf(c), (nowrap || nowrapHeader) && "whitespace-nowrap", c.sticky && STICKY_TH, c.headerClassName)}
+              data-testid={c.headerTestId}
+            >
               {c.header}
             </th>
           ))}
@@ -150,7 +154,14 @@ export function DataTable<Row>({
               return (
                 <td
                   key={c.key}
-                  className={join(l.td, pad, alignOf(c), nowrap && "whitespace-nowrap", c.sticky && STICKY_TD, typeof c.className === "function" ? c.className(row, i) : c.className)}
+                  className={join(
+                    l.td,
+                    pad,
+                    alignOf(c),
+                    nowrap && "whitespace-nowrap",
+                    c.sticky && STICKY_TD,
+                    typeof c.className === "function" ? c.className(row, i) : c.className,
+                  )}
                   data-testid={c.cellTestId}
                   data-value={c.value ? (value ?? "") : undefined}
                 >

@@ -41,4 +41,3 @@ function normalise(address: string): string {
   if (mapped) return mapped[1];
   return (isIpAddress(a) ? a.toLowerCase() : a).slice(0, 64);
 }
-

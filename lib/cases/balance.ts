@@ -3,9 +3,7 @@ import { parseFormula } from "@/lib/thermo/formula";
 
 export type BalanceTerm = { formula: string; coefficient: number };
 export type Balance =
-  | { ok: true; elements: Record<string, number> }
-  | { ok: false; off: Record<string, number>; message: string }
-  | { ok: false; invalid: string; message: string };
+  { ok: true; elements: Record<string, number> } | { ok: false; off: Record<string, number>; message: string } | { ok: false; invalid: string; message: string };
 
 /** Products minus reactants per element; coefficients are signed (products positive). */
 export function elementBalance(terms: readonly BalanceTerm[]): Balance {
@@ -25,7 +23,9 @@ export function elementBalance(terms: readonly BalanceTerm[]): Balance {
       .map(([el, n]) => [el, Number(n.toPrecision(12))]),
   );
   if (Object.keys(off).length > 0) {
-    const list = Object.entries(off).map(([el, n]) => `${el} ${n > 0 ? "+" : ""}${n}`).join(", ");
+    const list = Object.entries(off)
+      .map(([el, n]) => `${el} ${n > 0 ? "+" : ""}${n}`)
+      .join(", ");
     return { ok: false, off, message: `Not balanced: ${list} (products minus reactants).` };
   }
   return { ok: true, elements: total };

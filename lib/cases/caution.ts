@@ -19,7 +19,8 @@ export function cautionGasOfInputs(inputs: { equilibrium?: { gas?: string } | nu
 /** What the estimate assumes, in the caution's parentheses. */
 export const CAUTION_BASIS: Record<CautionGas, string> = {
   ideal: "ideal standard states (1 bar, ideal-gas activities, pure condensed phases)",
-  "peng-robinson": "1 bar standard states, gas activities corrected by Peng–Robinson fugacity coefficients (a cubic equation of state with tabulated critical constants), pure condensed phases",
+  "peng-robinson":
+    "1 bar standard states, gas activities corrected by Peng–Robinson fugacity coefficients (a cubic equation of state with tabulated critical constants), pure condensed phases",
 };
 
 export const CAUTION_SAFETY = "Decisions that affect safety follow the organisation's process-safety review, the applicable codes and licensed engineering judgement.";

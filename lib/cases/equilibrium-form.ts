@@ -18,9 +18,7 @@ export const MASS_FEED_UNITS: Partial<Record<FeedUnit, FeedUnit>> = { g: "mol", 
 /** What the outlet's amounts come back in for a feed in `unit`, in words for the field's hint. */
 export function feedUnitHint(unit: string): string {
   const amount = MASS_FEED_UNITS[unit.trim() as FeedUnit];
-  return amount
-    ? `A mass: each species is converted with its molar mass (from its formula); moles come back in ${amount}.`
-    : "Moles come back in the same unit.";
+  return amount ? `A mass: each species is converted with its molar mass (from its formula); moles come back in ${amount}.` : "Moles come back in the same unit.";
 }
 /** Pressure units the panel takes (absolute pressures; gauge units are refused). */
 export const PRESSURE_PATTERN = /^\s*([-+]?(?:\d+(?:\.\d*)?|\.\d+)(?:e[-+]?\d+)?)\s*(bar|mbar|Pa|kPa|MPa|atm|psi)?\s*$/;

@@ -92,4 +92,3 @@ export function equilibriumCsvColumns(result: EvaluateResult): { header: string;
   cols.push({ header: "equilibrium.converged", values: eq.map((p) => p.converged && p.naive.converged) });
   return cols;
 }
-

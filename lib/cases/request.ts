@@ -14,7 +14,10 @@ export type InertCritical = Record<string, { tcK: number; pcBar: number; omega: 
 
 /** The case's reaction as text: `CH4(g) + H2O(g) → CO(g) + 3 H2(g)`; the engine reads `->`. */
 export function caseReaction(inputs: Pick<CaseInputs, "terms">, arrow = "→"): string {
-  return reactionText(inputs.terms.map((t) => ({ key: termKey(t), coefficient: t.coefficient })), arrow);
+  return reactionText(
+    inputs.terms.map((t) => ({ key: termKey(t), coefficient: t.coefficient })),
+    arrow,
+  );
 }
 
 /** The engine request for a case: species keys are the formula plus phase marker, or the bare formula for the stable phase. */

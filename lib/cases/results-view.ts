@@ -51,8 +51,7 @@ function columnsAt(points: readonly EvaluatePoint[], keys: readonly (keyof Evalu
   return columns as Partial<PointColumns>;
 }
 
-const pick = (table: Record<string, number[]>, indices: readonly number[]) =>
-  Object.fromEntries(Object.entries(table).map(([k, v]) => [k, indices.map((i) => v[i])]));
+const pick = (table: Record<string, number[]>, indices: readonly number[]) => Object.fromEntries(Object.entries(table).map(([k, v]) => [k, indices.map((i) => v[i])]));
 
 /** Which points to draw: the charted point fields and each species' share of the gap and of the 1σ band. */
 function drawingIndices(result: EvaluateResult, maxPoints: number): number[] {

@@ -52,7 +52,8 @@ export function signCaseSentence(r: SignCaseInput, unit: DisplayUnit = "K"): str
   }
   if (parts.length === 0) {
     const opposite = r.points.filter((p) => Math.sign(p.dGkJ) !== Math.sign(p.naiveDGkJ) && p.dGkJ !== 0 && p.naiveDGkJ !== 0);
-    if (opposite.length) parts.push(`the corrected and naive ΔrG have opposite signs from ${formatTemperature(opposite[0].tK, unit)} to ${formatTemperature(opposite[opposite.length - 1].tK, unit)}`);
+    if (opposite.length)
+      parts.push(`the corrected and naive ΔrG have opposite signs from ${formatTemperature(opposite[0].tK, unit)} to ${formatTemperature(opposite[opposite.length - 1].tK, unit)}`);
     else parts.push("the sign of the corrected ΔrG departs from what the naive sign case says");
   }
   const text = parts.join("; ");

@@ -9,8 +9,10 @@ export const WARNING_MEANINGS: Record<string, string> = {
   "reference-mismatch": "A species' stated anchor disagrees with the constants of its own segments.",
   "nonphysical-cp": "A model gives a heat capacity that is negative or implausible somewhere in the span.",
   "high-pressure": "K is the ideal-gas, 1 bar constant; at this pressure non-ideal corrections may matter.",
-  "below-boiling-point": "A species is used as a gas below its normal boiling point; at 1 atm it would be liquid or solid there, and the gas values describe a hypothetical ideal gas.",
-  "condensed-phase-possible": "In the equilibrium a gas species sits below its normal boiling point, so a liquid or solid could form; a screen on the boiling point, not a dew-point calculation.",
+  "below-boiling-point":
+    "A species is used as a gas below its normal boiling point; at 1 atm it would be liquid or solid there, and the gas values describe a hypothetical ideal gas.",
+  "condensed-phase-possible":
+    "In the equilibrium a gas species sits below its normal boiling point, so a liquid or solid could form; a screen on the boiling point, not a dew-point calculation.",
   "equilibrium-not-converged":
     "The solver did not settle on an outlet composition at some temperatures; the numbers shown there are its last attempt, not an equilibrium. Check the feed, the key species and the reaction set.",
 };

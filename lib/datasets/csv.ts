@@ -75,7 +75,11 @@ const toNumber = (s: string) => Number(s.trim().replace(",", "."));
 
 /** Tab for a spreadsheet paste, semicolon for European CSV, else comma; decided on the first data lines. */
 export function guessDelimiter(text: string): string {
-  const sample = text.split(/\r?\n/).filter((l) => l.trim() && !l.trim().startsWith("#")).slice(0, 5).join("\n");
+  const sample = text
+    .split(/\r?\n/)
+    .filter((l) => l.trim() && !l.trim().startsWith("#"))
+    .slice(0, 5)
+    .join("\n");
   if (sample.includes("\t")) return "\t";
   if (sample.includes(";") && !sample.includes(",")) return ";";
   if (sample.includes(";") && /\d,\d/.test(sample) && sample.split(";").length > sample.split(",").length / 2) return ";";
@@ -125,7 +129,10 @@ export function readDatasetRows(table: string[][], options: ParseOptions = {}): 
     const cp = cells.findIndex((c) => CP_NAME.test(c));
     const sigma = cells.findIndex((c, i) => i !== t && i !== cp && SIGMA_NAME.test(c));
     if (t < 0 || cp < 0) {
-      errors.push({ row: first.line, message: `Row ${first.line} is a header without ${t < 0 ? "a temperature column (T, Temp or Temperature)" : "a Cp column (Cp or Heat capacity)"}.` });
+      errors.push({
+        row: first.line,
+        message: `Row ${first.line} is a header without ${t < 0 ? "a temperature column (T, Temp or Temperature)" : "a Cp column (Cp or Heat capacity)"}.`,
+      });
     } else {
       tCol = t;
       cpCol = cp;
@@ -206,7 +213,16 @@ export function readDatasetRows(table: string[][], options: ParseOptions = {}): 
 export function parseDatasetCsv(text: string, options: ParseOptions = {}, byteLength = new TextEncoder().encode(text).length): DatasetParse {
   const problems = fileProblems(text, byteLength);
   if (problems.length) {
-    return { points: [], rows: [], errors: problems, tUnit: options.tUnit || "K", cpUnit: options.cpUnit || "J/(mol*K)", unitSource: { t: "default", cp: "default" }, columns: { t: "T", cp: "Cp" }, hasSigma: false };
+    return {
+      points: [],
+      rows: [],
+      errors: problems,
+      tUnit: options.tUnit || "K",
+      cpUnit: options.cpUnit || "J/(mol*K)",
+      unitSource: { t: "default", cp: "default" },
+      columns: { t: "T", cp: "Cp" },
+      hasSigma: false,
+    };
   }
   return readDatasetRows(csvRows(text.replace(/^\uFEFF/, "")), options);
 }

@@ -57,11 +57,7 @@ export async function listAudit(actor: Actor | null, filter: AuditFilter | numbe
   if (f.action) Object.assign(where, { action: f.action });
   if (f.beforeId) Object.assign(where, { id: { [Op.lt]: f.beforeId } });
   const rows = await AuditEvent.findAll({ where, order: [["id", "DESC"]], limit: Math.min(200, Math.max(1, f.limit ?? 50)) });
-  const names = new Map(
-    (await User.findAll({ where: { id: [...new Set(rows.map((r) => r.actorId).filter((x): x is number => x != null))] } })).map(
-      (u) => [u.id, u.name],
-    ),
-  );
+  const names = new Map((await User.findAll({ where: { id: [...new Set(rows.map((r) => r.actorId).filter((x): x is number => x != null))] } })).map((u) => [u.id, u.name]));
   return rows.map((r) => ({
     id: r.id,
     action: r.action,

@@ -46,7 +46,10 @@ export async function saveCaseEquilibrium(actor: Actor | null, caseId: number, r
   parseWith(caseInputSchema, { title: c.title, notes: c.notes, ...c.inputs, equilibrium: body.equilibrium });
   if (body.equilibrium?.extraTerms.length) {
     // Extra species must be visible and current, as a new pin would be.
-    await loadPins(me.teamId, body.equilibrium.extraTerms.map((t) => ({ ...t, coefficient: 1 })));
+    await loadPins(
+      me.teamId,
+      body.equilibrium.extraTerms.map((t) => ({ ...t, coefficient: 1 })),
+    );
   }
   return updateCase(me, caseId, { title: c.title, notes: c.notes, ...c.inputs, equilibrium: body.equilibrium, lockVersion: body.lockVersion });
 }

@@ -188,7 +188,11 @@ export async function saveFitAsDraft(actor: Actor | null, id: number, raw: SaveF
     } else {
       if (!dataset.speciesId) throw new AppError(422, "invalid-request", "Choose the species this dataset measures before saving a model from it.");
       const species = await models().Species.findByPk(dataset.speciesId, { transaction });
-      model = await createTeamModel(me, { speciesId: dataset.speciesId, name: input.modelName || `${species!.formula} · fitted to ${dataset.name}`, family: "measured", variant: null }, transaction);
+      model = await createTeamModel(
+        me,
+        { speciesId: dataset.speciesId, name: input.modelName || `${species!.formula} · fitted to ${dataset.name}`, family: "measured", variant: null },
+        transaction,
+      );
     }
     const version = await insertDraft(
       me,
@@ -197,7 +201,8 @@ export async function saveFitAsDraft(actor: Actor | null, id: number, raw: SaveF
         data: fit.data,
         citation: input.citation,
         uncertainty: { cpRelative: Number((fit.rmsJ / (fit.residuals.reduce((s, r) => s + r.cpJ, 0) / fit.residuals.length)).toPrecision(3)) },
-        changeNote: input.changeNote ?? `Fitted (${fit.form}, ${fit.points} points, ${fit.tminK}–${fit.tmaxK} K, RMS ${fit.rmsJ.toPrecision(3)} J/(mol·K)) to dataset "${dataset.name}".`,
+        changeNote:
+          input.changeNote ?? `Fitted (${fit.form}, ${fit.points} points, ${fit.tminK}–${fit.tmaxK} K, RMS ${fit.rmsJ.toPrecision(3)} J/(mol·K)) to dataset "${dataset.name}".`,
         datasetId: dataset.id,
       },
       transaction,

@@ -24,13 +24,14 @@ export async function approvedFamilies(actor: Actor | null, keys: string[]): Pro
   const species = await Species.findAll({
     where: { formula: { [Op.in]: [...new Set(parsed.map((p) => p.formula))] }, [Op.or]: [{ teamId: null }, { teamId: me.teamId }] },
   });
-  const cpModels = species.length
-    ? await CpModel.findAll({ where: { speciesId: { [Op.in]: species.map((s) => s.id) }, [Op.or]: [{ teamId: null }, { teamId: me.teamId }] } })
-    : [];
+  const cpModels = species.length ? await CpModel.findAll({ where: { speciesId: { [Op.in]: species.map((s) => s.id) }, [Op.or]: [{ teamId: null }, { teamId: me.teamId }] } }) : [];
   const versions = cpModels.length
     ? await ModelVersion.findAll({
         where: { modelId: { [Op.in]: cpModels.map((m) => m.id) }, status: "approved", [Op.or]: [{ teamId: null }, { teamId: me.teamId }] },
-        order: [["versionNumber", "DESC"], ["id", "DESC"]],
+        order: [
+          ["versionNumber", "DESC"],
+          ["id", "DESC"],
+        ],
       })
     : [];
   const formulaOf = new Map(species.map((s) => [s.id, s.formula]));
@@ -89,7 +90,10 @@ export async function compareFamilies(actor: Actor | null, readBody: () => Promi
     return {
       families,
       comparison: null,
-      message: families.length === 0 ? "No data family has approved versions of every species in this case." : `Only the ${families[0].family} family has approved versions of every species; there is nothing to compare against.`,
+      message:
+        families.length === 0
+          ? "No data family has approved versions of every species in this case."
+          : `Only the ${families[0].family} family has approved versions of every species; there is nothing to compare against.`,
     };
   }
   const comparison = await runEngineTask("compareSources", {

@@ -46,7 +46,10 @@ export async function deepHealth(now = new Date()): Promise<DeepHealthDto> {
     try {
       const { MailMessage } = models();
       const where = { status: { [Op.in]: ["queued", "sending"] }, nextAttemptAt: { [Op.lte]: now } };
-      const [due, oldest] = await withTimeout(Promise.all([MailMessage.count({ where }), MailMessage.min<Date | string | null, InstanceType<typeof MailMessage>>("nextAttemptAt", { where })]), DATABASE_TIMEOUT_MS);
+      const [due, oldest] = await withTimeout(
+        Promise.all([MailMessage.count({ where }), MailMessage.min<Date | string | null, InstanceType<typeof MailMessage>>("nextAttemptAt", { where })]),
+        DATABASE_TIMEOUT_MS,
+      );
       const oldestMs = oldest === null || oldest === undefined ? null : new Date(oldest).getTime();
       mailQueue.due = Number(due);
       mailQueue.oldestDueSeconds = oldestMs === null ? 0 : Math.max(0, Math.round((now.getTime() - oldestMs) / 1000));

@@ -107,10 +107,7 @@ export async function queueImpactJob(
   transaction: Transaction,
   input: { teamId: number; versionId: number; trigger: ImpactTrigger; notify: boolean; requestedById: number | null },
 ): Promise<ImpactJob> {
-  const job = await models().ImpactJob.create(
-    { ...input, status: "queued", cases: [], error: null, notifiedAt: null, startedAt: null, finishedAt: null },
-    { transaction },
-  );
+  const job = await models().ImpactJob.create({ ...input, status: "queued", cases: [], error: null, notifiedAt: null, startedAt: null, finishedAt: null }, { transaction });
   transaction.afterCommit(() => kick());
   return job;
 }
@@ -124,7 +121,9 @@ async function affectedCases(teamId: number, v: ModelVersion): Promise<{ row: Ca
   const rows = await Case.findAll({ where: { teamId }, order: [["id", "ASC"]] });
   const out: { row: Case; older: number[] }[] = [];
   for (const row of rows) {
-    const pinned = pinTerms(row.inputs).map((t) => t.versionId).filter((id) => numberOf.has(id));
+    const pinned = pinTerms(row.inputs)
+      .map((t) => t.versionId)
+      .filter((id) => numberOf.has(id));
     if (pinned.length) out.push({ row, older: [...new Set(pinned.map((id) => numberOf.get(id)!))].sort((a, b) => a - b) });
   }
   return out;
@@ -153,9 +152,20 @@ const maxAbs = (a: number[], b: number[]) => a.reduce((m, v, i) => Math.max(m, M
 /** Compare a case before and after the pin moves to `v`. */
 async function impactOfCase(teamId: number, row: Case, older: number[], v: ModelVersion): Promise<ImpactCase> {
   const base: ImpactCase = {
-    caseId: row.id, title: row.title, status: row.status, authorId: row.authorId, pinnedVersionNumbers: older,
-    maxDiffKJ: null, maxDiffLog10K: null, maxDiffKeyFraction: null, crossoversBefore: [], crossoversAfter: [],
-    signCaseBefore: null, signCaseAfter: null, exceedsTolerance: false, error: null,
+    caseId: row.id,
+    title: row.title,
+    status: row.status,
+    authorId: row.authorId,
+    pinnedVersionNumbers: older,
+    maxDiffKJ: null,
+    maxDiffLog10K: null,
+    maxDiffKeyFraction: null,
+    crossoversBefore: [],
+    crossoversAfter: [],
+    signCaseBefore: null,
+    signCaseAfter: null,
+    exceedsTolerance: false,
+    error: null,
   };
   let before: EvaluateResult;
   let pins: PinnedVersion[];
@@ -168,7 +178,9 @@ async function impactOfCase(teamId: number, row: Case, older: number[], v: Model
   base.crossoversBefore = before.crossover.correctedK;
   base.signCaseBefore = before.signCase.code;
   const moved = pins.map((p): PinnedVersion =>
-    p.modelId === v.modelId ? { ...p, versionId: v.id, versionNumber: v.versionNumber, status: v.status, citation: v.citation, data: v.data, uncertainty: v.uncertainty ?? null } : p,
+    p.modelId === v.modelId
+      ? { ...p, versionId: v.id, versionNumber: v.versionNumber, status: v.status, citation: v.citation, data: v.data, uncertainty: v.uncertainty ?? null }
+      : p,
   );
   let after: EvaluateResult;
   try {
@@ -176,11 +188,20 @@ async function impactOfCase(teamId: number, row: Case, older: number[], v: Model
   } catch (e) {
     return { ...base, exceedsTolerance: true, error: `version ${v.versionNumber} cannot evaluate this case: ${(e as Error).message}` };
   }
-  const dKJ = maxAbs(after.points.map((p) => p.dGkJ), before.points.map((p) => p.dGkJ));
-  const dLog = maxAbs(after.points.map((p) => p.log10K), before.points.map((p) => p.log10K));
+  const dKJ = maxAbs(
+    after.points.map((p) => p.dGkJ),
+    before.points.map((p) => p.dGkJ),
+  );
+  const dLog = maxAbs(
+    after.points.map((p) => p.log10K),
+    before.points.map((p) => p.log10K),
+  );
   let dKey: number | null = null;
   if (before.equilibrium && after.equilibrium) {
-    dKey = maxAbs(after.equilibrium.map((p) => p.keyFraction ?? 0), before.equilibrium.map((p) => p.keyFraction ?? 0));
+    dKey = maxAbs(
+      after.equilibrium.map((p) => p.keyFraction ?? 0),
+      before.equilibrium.map((p) => p.keyFraction ?? 0),
+    );
   }
   const tolKJ = row.inputs.toleranceKJ;
   const factor = row.inputs.toleranceKFactor;
@@ -220,7 +241,9 @@ async function notifyAuthors(job: ImpactJob, v: ModelVersion): Promise<void> {
     for (const author of authors) {
       const list = byAuthor.get(author.id)!;
       const lines = list.map((c) => {
-        const change = c.error ? c.error : `largest change ${fmt(c.maxDiffKJ)} kJ/mol in ΔrG, ${fmt(c.maxDiffLog10K)} in log10 K${c.exceedsTolerance ? " — beyond the case's tolerance" : ""}`;
+        const change = c.error
+          ? c.error
+          : `largest change ${fmt(c.maxDiffKJ)} kJ/mol in ΔrG, ${fmt(c.maxDiffLog10K)} in log10 K${c.exceedsTolerance ? " — beyond the case's tolerance" : ""}`;
         return `- ${c.title} (${c.status}, pins v${c.pinnedVersionNumbers.join(", v")}): ${change}\n  ${caseLink(c.caseId)}`;
       });
       await enqueueMail(transaction, {
@@ -272,9 +295,6 @@ export async function runQueuedImpactJobs(): Promise<number> {
 
 /** Jobs left running by a process that stopped (started more than `olderThanMs` ago) go back to the queue. */
 export async function requeueStaleImpactJobs(olderThanMs = 10 * 60 * 1000): Promise<number> {
-  const [n] = await models().ImpactJob.update(
-    { status: "queued", startedAt: null },
-    { where: { status: "running", startedAt: { [Op.lt]: new Date(Date.now() - olderThanMs) } } },
-  );
+  const [n] = await models().ImpactJob.update({ status: "queued", startedAt: null }, { where: { status: "running", startedAt: { [Op.lt]: new Date(Date.now() - olderThanMs) } } });
   return n;
 }

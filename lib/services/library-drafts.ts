@@ -30,7 +30,15 @@ export async function withdrawProposal(actor: Actor | null, id: number): Promise
     version.proposedAt = null;
     version.lockVersion += 1;
     await version.save({ transaction });
-    await recordAudit(transaction, { action: "model-version.withdrawn", entityType: "model-version", entityId: id, teamId: me.teamId, actorId: me.userId, before: { status: "proposed" }, after: { status: "draft" } });
+    await recordAudit(transaction, {
+      action: "model-version.withdrawn",
+      entityType: "model-version",
+      entityId: id,
+      teamId: me.teamId,
+      actorId: me.userId,
+      before: { status: "proposed" },
+      after: { status: "draft" },
+    });
     return presentVersion(version, transaction);
   });
 }
@@ -69,7 +77,15 @@ export async function deleteVersion(actor: Actor | null, id: number): Promise<{ 
     if (left === 0) {
       const model = await CpModel.findByPk(version.modelId, { transaction });
       if (model && model.teamId === me.teamId) {
-        await recordAudit(transaction, { action: "cp-model.deleted", entityType: "cp-model", entityId: model.id, teamId: me.teamId, actorId: me.userId, before: { name: model.name }, after: null });
+        await recordAudit(transaction, {
+          action: "cp-model.deleted",
+          entityType: "cp-model",
+          entityId: model.id,
+          teamId: me.teamId,
+          actorId: me.userId,
+          before: { name: model.name },
+          after: null,
+        });
         await model.destroy({ transaction });
         modelDeleted = true;
       }

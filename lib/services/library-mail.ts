@@ -30,13 +30,7 @@ export async function notifyProposed(transaction: Transaction, me: Actor, v: Ver
     subject: `Proposed: ${v.model.name}, version ${v.versionNumber}`,
     text: `${me.name} proposed version ${v.versionNumber} of ${v.model.name} (${v.species.formula}) and asks a steward who took no part in it to approve or reject it.\n\nOpen it: ${link(v.id)}\n`,
   };
-  const sent = await enqueueMailToRoles(
-    transaction,
-    me.teamId,
-    ["steward"],
-    message,
-    { exceptUserIds: except },
-  );
+  const sent = await enqueueMailToRoles(transaction, me.teamId, ["steward"], message, { exceptUserIds: except });
   // When every steward took part, the admins (who may also decide) hear of it instead.
   if (!sent) await enqueueMailToRoles(transaction, me.teamId, ["admin"], message, { exceptUserIds: except });
 }

@@ -122,7 +122,12 @@ export async function deliverDueMail(transport: Transporter): Promise<{ sent: nu
 }
 
 export type CaughtMailDto = { id: number; to: string[]; subject: string; text: string; receivedAt: string };
-export type OutboxDto = { caught: CaughtMailDto[]; queue: { queued: number; sending: number; sent: number; failed: number }; scope: "team" | "mine"; recentFailures: { id: number; subject: string; to: string[]; attempts: number; lastError: string | null }[] };
+export type OutboxDto = {
+  caught: CaughtMailDto[];
+  queue: { queued: number; sending: number; sent: number; failed: number };
+  scope: "team" | "mine";
+  recentFailures: { id: number; subject: string; to: string[]; attempts: number; lastError: string | null }[];
+};
 
 /**
  * What the local catcher received, for mail this team's own actions queued:
@@ -143,7 +148,10 @@ export async function listOutbox(actor: Actor | null, limit = 50): Promise<Outbo
     : [];
   const queue = { queued: 0, sending: 0, sent: 0, failed: 0 };
   for (const m of shown) queue[m.status as keyof typeof queue] += 1;
-  const failures = shown.filter((m) => m.lastError !== null).sort((a, b) => b.id - a.id).slice(0, 10);
+  const failures = shown
+    .filter((m) => m.lastError !== null)
+    .sort((a, b) => b.id - a.id)
+    .slice(0, 10);
   return {
     caught: caught.map((c) => ({ id: c.id, to: c.envelopeTo, subject: c.subject, text: c.text, receivedAt: c.receivedAt.toISOString() })),
     queue,

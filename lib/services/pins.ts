@@ -133,7 +133,11 @@ export async function loadPins(teamId: number, terms: readonly CaseTerm[], optio
  * team's species or the reference library (the team's own first). Keys without constants
  * are left out; the engine then refuses a real-gas request naming them.
  */
-export async function inertCriticalConstants(teamId: number, keys: readonly string[], transaction?: Transaction): Promise<Record<string, { tcK: number; pcBar: number; omega: number }>> {
+export async function inertCriticalConstants(
+  teamId: number,
+  keys: readonly string[],
+  transaction?: Transaction,
+): Promise<Record<string, { tcK: number; pcBar: number; omega: number }>> {
   if (keys.length === 0) return {};
   const formulaOf = (k: string) => parseSpeciesKey(k).formula;
   const rows = await models().Species.findAll({
@@ -149,7 +153,10 @@ export async function inertCriticalConstants(teamId: number, keys: readonly stri
 }
 
 /** For each pin, the newest approved version of the same model when it is newer than the pinned one. */
-export async function newerApprovedVersions(pins: readonly Pick<PinnedVersion, "key" | "modelId" | "versionId" | "versionNumber" | "modelName">[], transaction?: Transaction): Promise<NewerVersionDto[]> {
+export async function newerApprovedVersions(
+  pins: readonly Pick<PinnedVersion, "key" | "modelId" | "versionId" | "versionNumber" | "modelName">[],
+  transaction?: Transaction,
+): Promise<NewerVersionDto[]> {
   if (pins.length === 0) return [];
   const { ModelVersion } = models();
   const approved = await ModelVersion.findAll({

@@ -136,18 +136,24 @@ export type ProposalSummaryDto = { versionId: number; versionNumber: number; mod
 /** What waits for the actor, for the home page. */
 export async function homeCounts(actor: Actor | null) {
   const me = requirePermission(actor, "cases.view");
-  const drafts = can(me.role, "cases.create")
-    ? (await listCases(me, { mine: true })).filter((c) => c.status === "draft" || c.status === "returned")
-    : [];
+  const drafts = can(me.role, "cases.create") ? (await listCases(me, { mine: true })).filter((c) => c.status === "draft" || c.status === "returned") : [];
   const reviews = can(me.role, "cases.review") ? await reviewQueue(me) : [];
   let proposals = 0;
   let proposalItems: ProposalSummaryDto[] = [];
   if (can(me.role, "models.decide")) {
     // Colleagues' proposals only: nobody decides work they contributed to (four-eyes).
     const rows = await models().ModelVersion.findAll({
-      where: { teamId: me.teamId, status: "proposed", id: { [Op.notIn]: await contributedVersionIds(me.userId) }, [Op.or]: [{ authorId: null }, { authorId: { [Op.ne]: me.userId } }] },
+      where: {
+        teamId: me.teamId,
+        status: "proposed",
+        id: { [Op.notIn]: await contributedVersionIds(me.userId) },
+        [Op.or]: [{ authorId: null }, { authorId: { [Op.ne]: me.userId } }],
+      },
       include: [{ model: models().CpModel, as: "model", include: [{ model: models().Species, as: "species" }] }],
-      order: [["proposedAt", "ASC"], ["id", "ASC"]],
+      order: [
+        ["proposedAt", "ASC"],
+        ["id", "ASC"],
+      ],
     });
     proposals = rows.length;
     const authors = await models().User.findAll({ where: { id: { [Op.in]: rows.map((r) => r.authorId).filter((x): x is number => x != null) } }, attributes: ["id", "name"] });

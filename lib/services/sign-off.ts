@@ -42,7 +42,10 @@ export async function signOffRecord(actor: Actor | null, caseId: number, revisio
   const snap = await CaseSnapshot.findOne({ where: revision === undefined ? { caseId } : { caseId, revision }, order: [["revision", "DESC"]] });
   if (!snap) return null;
   const review = await Review.findOne({ where: { snapshotId: snap.id }, order: [["id", "DESC"]] });
-  const versions = await ModelVersion.findAll({ where: { id: { [Op.in]: snap.pins.map((p) => p.versionId) } }, attributes: ["id", "teamId", "decidedById", "decidedAt", "status"] });
+  const versions = await ModelVersion.findAll({
+    where: { id: { [Op.in]: snap.pins.map((p) => p.versionId) } },
+    attributes: ["id", "teamId", "decidedById", "decidedAt", "status"],
+  });
   const userIds = [row.authorId, snap.createdById, review?.reviewerId, ...versions.map((v) => v.decidedById)].filter((x): x is number => typeof x === "number");
   const users = await User.findAll({ where: { id: { [Op.in]: [...new Set(userIds)] } }, attributes: ["id", "name"] });
   const name = (id: number | null | undefined) => users.find((u) => u.id === id)?.name ?? null;

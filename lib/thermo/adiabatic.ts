@@ -96,11 +96,10 @@ function bracketRoot(f: (t: number) => number, x0: number, f0: number, what: str
     fa = fb;
     step *= 2;
   }
-  refuse(
-    "no-adiabatic-outlet",
-    `adiabatic: the ${what} enthalpy balance has no root between ${ADIABATIC_MIN_K} K and ${ADIABATIC_MAX_K} K from the inlet at ${fmt(x0)} K`,
-    { inletK: x0, rangeK: [ADIABATIC_MIN_K, ADIABATIC_MAX_K] },
-  );
+  refuse("no-adiabatic-outlet", `adiabatic: the ${what} enthalpy balance has no root between ${ADIABATIC_MIN_K} K and ${ADIABATIC_MAX_K} K from the inlet at ${fmt(x0)} K`, {
+    inletK: x0,
+    rangeK: [ADIABATIC_MIN_K, ADIABATIC_MAX_K],
+  });
 }
 
 /**
@@ -120,11 +119,7 @@ export function adiabaticOutlet(input: AdiabaticInput): { result: AdiabaticResul
     let m = input.models.get(sp.key);
     if (!m) {
       if (!input.hasEntry(sp.key)) {
-        refuse(
-          "missing-species",
-          `species "${sp.key}" is in equilibrium.feed and carries heat in the adiabatic balance, but has no entry in species`,
-          { species: sp.key },
-        );
+        refuse("missing-species", `species "${sp.key}" is in equilibrium.feed and carries heat in the adiabatic balance, but has no entry in species`, { species: sp.key });
       }
       m = input.buildModel(sp.key);
       input.models.set(sp.key, m);
@@ -192,7 +187,9 @@ export function adiabaticOutlet(input: AdiabaticInput): { result: AdiabaticResul
       const chain = models[i].chains.get(phase);
       if (chain && (tK < chain.tminK || tK > chain.tmaxK)) {
         warnings.push({
-          code: "adiabatic-extrapolation", species: sp.key, tK,
+          code: "adiabatic-extrapolation",
+          species: sp.key,
+          tK,
           message: `the adiabatic ${label} temperature ${fmt(tK)} K is outside the ${fmt(chain.tminK)}–${fmt(chain.tmaxK)} K range of the ${phase} model`,
         });
       }

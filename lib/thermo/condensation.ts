@@ -40,8 +40,7 @@ export function phasePointsOf(key: string, entry: ParsedSpecies): PhasePoints {
   return out;
 }
 
-const solidNote = (pp: PhasePoints, tK: number) =>
-  pp.triplePointK !== undefined && tK < pp.triplePointK ? ` (solid below its ${fmt(pp.triplePointK)} K triple point)` : "";
+const solidNote = (pp: PhasePoints, tK: number) => (pp.triplePointK !== undefined && tK < pp.triplePointK ? ` (solid below its ${fmt(pp.triplePointK)} K triple point)` : "");
 
 /** `below-boiling-point` for one term: the grid temperatures where its gas chain is used below the normal boiling point. */
 export function belowBoilingPointWarning(key: string, entry: ParsedSpecies, T: Float64Array, grid: TermGrid): EngineWarning | null {
@@ -57,18 +56,18 @@ export function belowBoilingPointWarning(key: string, entry: ParsedSpecies, T: F
   }
   if (first < 0) return null;
   return {
-    code: "below-boiling-point", species: key, tK: T[first], toK: T[last], boilingPointK: pp.boilingPointK,
+    code: "below-boiling-point",
+    species: key,
+    tK: T[first],
+    toK: T[last],
+    boilingPointK: pp.boilingPointK,
     ...(pp.triplePointK !== undefined ? { triplePointK: pp.triplePointK } : {}),
     message: `used as a gas from ${fmt(T[first])} K to ${fmt(T[last])} K, below its normal boiling point of ${fmt(pp.boilingPointK)} K; at 1 atm the pure substance is condensed there${solidNote(pp, T[first])}, and the gas values are those of a hypothetical ideal gas`,
   };
 }
 
 /** `condensed-phase-possible` per species of an equilibrium (corrected composition), screened by the normal boiling point. */
-export function condensationWarnings(
-  species: Record<string, ParsedSpecies>,
-  points: readonly EquilibriumPoint[],
-  info: EquilibriumInfo,
-): EngineWarning[] {
+export function condensationWarnings(species: Record<string, ParsedSpecies>, points: readonly EquilibriumPoint[], info: EquilibriumInfo): EngineWarning[] {
   const out: EngineWarning[] = [];
   for (const { key } of info.species) {
     const entry = species[key];
@@ -88,9 +87,14 @@ export function condensationWarnings(
     if (first < 0) continue;
     const certain = maxP >= ATM_BAR;
     out.push({
-      code: "condensed-phase-possible", species: key, tK: points[first].tK, toK: points[last].tK,
-      boilingPointK: pp.boilingPointK, ...(pp.triplePointK !== undefined ? { triplePointK: pp.triplePointK } : {}),
-      partialPressureBar: maxP, basis: "normal-boiling-point",
+      code: "condensed-phase-possible",
+      species: key,
+      tK: points[first].tK,
+      toK: points[last].tK,
+      boilingPointK: pp.boilingPointK,
+      ...(pp.triplePointK !== undefined ? { triplePointK: pp.triplePointK } : {}),
+      partialPressureBar: maxP,
+      basis: "normal-boiling-point",
       message: `${certain ? "would" : "may"} condense${solidNote(pp, points[first].tK)} from ${fmt(points[first].tK)} K to ${fmt(points[last].tK)} K: below its normal boiling point of ${fmt(pp.boilingPointK)} K at a partial pressure of up to ${fmt(maxP)} bar (${certain ? "at 1 atm or more it condenses below its normal boiling point" : "below 1 atm its dew point is lower, so this is a screen, not a finding"}); the equilibrium treats it as gas`,
     });
   }

@@ -78,8 +78,7 @@ export function signCaseOf(
   const n = T.length;
   const naiveK = ref.dH * ref.dS > 0 ? ref.dH / ref.dS : null;
   const naiveInSpan = naiveK !== null && naiveK >= T[0] && naiveK <= T[n - 1];
-  const code: SignCaseCode =
-    ref.dH <= 0 ? (ref.dS >= 0 ? "favourable-always" : "favourable-below") : ref.dS > 0 ? "favourable-above" : "favourable-never";
+  const code: SignCaseCode = ref.dH <= 0 ? (ref.dS >= 0 ? "favourable-always" : "favourable-below") : ref.dS > 0 ? "favourable-above" : "favourable-never";
   let agrees = roots.length === (naiveInSpan ? 1 : 0);
   for (let i = 0; i < n && agrees; i++) if (dG[i] < 0 !== naive[i] < 0) agrees = false;
   return {

@@ -46,9 +46,7 @@ export function compose(p: EquilibriumProblem, list: SetSpecies[], k: number, si
   if (p.nu.length === 1) out.extent = sol.extents[0];
   if (sigma) {
     // dn_i/dg_q = Σ_j ν_ji · dξ_j/dg_q
-    const dn = Array.from({ length: S }, (_, i) =>
-      Array.from({ length: S }, (_, q) => p.nu.reduce((a, row, j) => a + row[i] * sol.sensitivity[j][q], 0)),
-    );
+    const dn = Array.from({ length: S }, (_, i) => Array.from({ length: S }, (_, q) => p.nu.reduce((a, row, j) => a + row[i] * sol.sensitivity[j][q], 0)));
     const dng = Array.from({ length: S }, (_, q) => dn.reduce((a, row, i) => a + (p.gas[i] ? row[q] : 0), 0));
     const norm = (v: (q: number) => number) => {
       let s = 0;

@@ -111,11 +111,7 @@ export function checkIndependent(nu: number[][], texts: string[], field: string)
     }
     const norm = Math.hypot(...r);
     if (!(norm > 1e-9 * norm0)) {
-      refuse(
-        "dependent-reactions",
-        `${field}[${j}] ("${texts[j]}") is a linear combination of the reactions before it; give linearly independent reactions`,
-        { index: j },
-      );
+      refuse("dependent-reactions", `${field}[${j}] ("${texts[j]}") is a linear combination of the reactions before it; give linearly independent reactions`, { index: j });
     }
     basis.push(r.map((v) => v / norm));
   });

@@ -64,11 +64,10 @@ export function reactionSet(input: EquilibriumInput): ReactionSet {
     if (index.has(key)) continue;
     const twin = list.find((s) => formulaOf(s.key) === formulaOf(key));
     if (twin) {
-      refuse(
-        "feed-key-mismatch",
-        `equilibrium.feed: "${key}" is not a species of the reactions (did you mean "${twin.key}"?); a feed key must match the reaction's key exactly`,
-        { key, suggestion: twin.key },
-      );
+      refuse("feed-key-mismatch", `equilibrium.feed: "${key}" is not a species of the reactions (did you mean "${twin.key}"?); a feed key must match the reaction's key exactly`, {
+        key,
+        suggestion: twin.key,
+      });
     }
     index.set(key, list.length);
     list.push({ key, reacting: false, phase: parseSpeciesKey(key).phase, u: null });

@@ -130,11 +130,10 @@ export function equilibriumOnGrid(input: EquilibriumInput): {
   const { T } = input;
   const n = T.length;
   if (n > MAX_EQUILIBRIUM_POINTS) {
-    refuse(
-      "too-many-points",
-      `equilibrium: ${n} temperatures exceed the limit of ${MAX_EQUILIBRIUM_POINTS} for an equilibrium composition; use a larger stepK`,
-      { points: n, limit: MAX_EQUILIBRIUM_POINTS },
-    );
+    refuse("too-many-points", `equilibrium: ${n} temperatures exceed the limit of ${MAX_EQUILIBRIUM_POINTS} for an equilibrium composition; use a larger stepK`, {
+      points: n,
+      limit: MAX_EQUILIBRIUM_POINTS,
+    });
   }
   const warnings: EngineWarning[] = [];
   speciesOnGrid(rs.list, input, warnings);
@@ -157,7 +156,9 @@ export function equilibriumOnGrid(input: EquilibriumInput): {
   const liquidLike = points.filter((p) => p.diagnostics.realGas?.liquidLike || p.naive.diagnostics.realGas?.liquidLike).map((p) => p.tK);
   if (liquidLike.length > 0) {
     warnings.push({
-      code: "real-gas-liquid-root", tK: liquidLike[0], temperaturesK: liquidLike,
+      code: "real-gas-liquid-root",
+      tK: liquidLike[0],
+      temperaturesK: liquidLike,
       message: `the Peng–Robinson gas took a liquid-like root at ${liquidLike.length} temperature${liquidLike.length > 1 ? "s" : ""} (first ${fmt(liquidLike[0])} K): the mixture may condense, which a gas-only model does not describe`,
     });
   }
@@ -211,8 +212,7 @@ function solverAt(rs: ReactionSet, input: EquilibriumInput): SolveAt {
   const gasModel: GasModel = eq.gas ?? "ideal";
   // A species marked condensed never enters the gas; every other one may.
   const mayBeGas = (i: number) => list[i].phase === undefined || list[i].phase === "g";
-  const real: RealGasSetup | null =
-    gasModel === "peng-robinson" ? realGasSetup(list, mayBeGas, input.species, eq, pressureBar) : null;
+  const real: RealGasSetup | null = gasModel === "peng-robinson" ? realGasSetup(list, mayBeGas, input.species, eq, pressureBar) : null;
   return (tK, props) => {
     const RT = R * tK;
     const gas = new Array<boolean>(S);
@@ -270,11 +270,13 @@ function solveOnGrid(rs: ReactionSet, T: Float64Array, solveAt: SolveAt, warning
     points[t] = point;
   }
   if (notConverged.length > 0) {
-    const list = (ts: number[]) =>
-      ts.length === 0 ? "none" : `${ts.length} (${ts.slice(0, 5).map(fmt).join(", ")}${ts.length > 5 ? ", …" : ""} K)`;
+    const list = (ts: number[]) => (ts.length === 0 ? "none" : `${ts.length} (${ts.slice(0, 5).map(fmt).join(", ")}${ts.length > 5 ? ", …" : ""} K)`);
     warnings.push({
-      code: "equilibrium-not-converged", tK: notConverged[0], temperaturesK: notConverged,
-      correctedK: notConvergedCorrected, naiveK: notConvergedNaive,
+      code: "equilibrium-not-converged",
+      tK: notConverged[0],
+      temperaturesK: notConverged,
+      correctedK: notConvergedCorrected,
+      naiveK: notConvergedNaive,
       message: `the equilibrium solution did not converge at ${notConverged.length} temperature${notConverged.length > 1 ? "s" : ""} (first ${fmt(notConverged[0])} K): corrected rows ${list(notConvergedCorrected)}, naive rows ${list(notConvergedNaive)}; see diagnostics.residual`,
     });
   }
@@ -289,4 +291,3 @@ export interface EquilibriumContext {
   key: string;
   solveAt: (tK: number) => { corrected: Composition; naive: Composition };
 }
-

@@ -14,9 +14,7 @@ export class EngineRefusal extends Error {
   }
 
   toJSON(): { code: string; message: string; details?: unknown } {
-    return this.details === undefined
-      ? { code: this.code, message: this.message }
-      : { code: this.code, message: this.message, details: this.details };
+    return this.details === undefined ? { code: this.code, message: this.message } : { code: this.code, message: this.message, details: this.details };
   }
 }
 

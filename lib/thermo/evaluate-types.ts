@@ -52,8 +52,7 @@ export interface EvaluateResult {
   engine: { version: string };
 }
 
-export const UNCERTAINTY_BASIS =
-  "1σ standard uncertainties by linear propagation of each species' ΔfH°, S° and relative Cp uncertainty, taken as independent";
+export const UNCERTAINTY_BASIS = "1σ standard uncertainties by linear propagation of each species' ΔfH°, S° and relative Cp uncertainty, taken as independent";
 
 export const SIGN_CASES: Readonly<Record<SignCaseCode, string>> = Object.freeze({
   "favourable-always": "K > 1 at all T",

@@ -28,14 +28,7 @@ import { buildSpeciesModel, type EngineWarning } from "./species-model";
 import { speciesRows, type SpeciesRow } from "./species";
 import { parseUncertainty } from "./uncertainty";
 
-export {
-  SIGN_CASES,
-  UNCERTAINTY_BASIS,
-  type EvaluatePoint,
-  type EvaluateResult,
-  type SignCaseCode,
-  type UncertaintySummary,
-} from "./evaluate-types";
+export { SIGN_CASES, UNCERTAINTY_BASIS, type EvaluatePoint, type EvaluateResult, type SignCaseCode, type UncertaintySummary } from "./evaluate-types";
 
 const LN10 = Math.LN10;
 const R = GAS_CONSTANT;
@@ -80,12 +73,15 @@ export function evaluate(request: unknown, options: EvaluateOptions = {}): Evalu
   const ref = rg.ref;
   const sigmas = unc?.sigmas ?? null;
   return {
-    ...(options.format === "columns"
-      ? { columns: buildColumns(T, rg, nr.tolJ, nr.tolLn, sigmas) }
-      : { points: buildPoints(T, rg, nr.tolJ, nr.tolLn, sigmas) }),
+    ...(options.format === "columns" ? { columns: buildColumns(T, rg, nr.tolJ, nr.tolLn, sigmas) } : { points: buildPoints(T, rg, nr.tolJ, nr.tolLn, sigmas) }),
     reference: {
-      tK: referenceK, dCpJ: ref.dCp, dHkJ: ref.dH / 1000, dSJ: ref.dS, dGkJ: ref.dG / 1000,
-      lnK: -ref.dG / (R * referenceK), log10K: -ref.dG / (R * referenceK) / LN10,
+      tK: referenceK,
+      dCpJ: ref.dCp,
+      dHkJ: ref.dH / 1000,
+      dSJ: ref.dS,
+      dGkJ: ref.dG / 1000,
+      lnK: -ref.dG / (R * referenceK),
+      log10K: -ref.dG / (R * referenceK) / LN10,
     },
     crossover,
     signCase,
@@ -104,7 +100,8 @@ function highPressureWarning(nr: NormalisedRequest, warnings: EngineWarning[]): 
   const p = nr.pressureBar;
   if (p !== undefined && p > HIGH_PRESSURE_BAR && nr.req.equilibrium?.gas !== "peng-robinson") {
     warnings.push({
-      code: "high-pressure", pressureBar: p,
+      code: "high-pressure",
+      pressureBar: p,
       message: `K is the ideal-gas constant for a 1 bar standard state; at ${fmt(p)} bar non-ideal (fugacity) corrections may matter`,
     });
   }
@@ -122,15 +119,25 @@ function equilibriumAndOutlet(
   const models = new Map(terms.map((t) => [t.key, t.model]));
   const buildModel = (key: string) => buildSpeciesModel(key, req.species[key], referenceK, { integrator });
   const eq = equilibriumOnGrid({
-    equilibrium: req.equilibrium!, reaction: req.reaction, species: req.species, T, referenceK, models,
-    grids: new Map(terms.map((t, k) => [t.key, rg.grids[k]])), buildModel,
+    equilibrium: req.equilibrium!,
+    reaction: req.reaction,
+    species: req.species,
+    T,
+    referenceK,
+    models,
+    grids: new Map(terms.map((t, k) => [t.key, rg.grids[k]])),
+    buildModel,
   });
   warnings.push(...eq.warnings);
   warnings.push(...condensationWarnings(req.species, eq.points, eq.info));
   if (!req.adiabatic) return { equilibrium: eq.points, equilibriumInfo: eq.info };
   const ad = adiabaticOutlet({
-    adiabatic: req.adiabatic, context: eq.context, models, referenceK,
-    hasEntry: (key) => Object.prototype.hasOwnProperty.call(req.species, key), buildModel,
+    adiabatic: req.adiabatic,
+    context: eq.context,
+    models,
+    referenceK,
+    hasEntry: (key) => Object.prototype.hasOwnProperty.call(req.species, key),
+    buildModel,
   });
   warnings.push(...ad.warnings);
   return { equilibrium: eq.points, equilibriumInfo: eq.info, adiabatic: ad.result };

@@ -9,12 +9,42 @@ import { refuse } from "./errors";
 const math = create(all, {});
 
 export const ALLOWED_FUNCTIONS: ReadonlySet<string> = new Set([
-  "exp", "log", "log10", "log2", "sqrt", "cbrt", "abs", "pow",
-  "sin", "cos", "tan", "sinh", "cosh", "tanh", "min", "max",
+  "exp",
+  "log",
+  "log10",
+  "log2",
+  "sqrt",
+  "cbrt",
+  "abs",
+  "pow",
+  "sin",
+  "cos",
+  "tan",
+  "sinh",
+  "cosh",
+  "tanh",
+  "min",
+  "max",
 ]);
 const ALLOWED_CONSTANTS = new Set(["pi", "e"]);
-const ALLOWED_OPERATORS = new Set(["add", "subtract", "multiply", "divide", "pow", "unaryMinus", "unaryPlus",
-  "smaller", "smallerEq", "larger", "largerEq", "equal", "unequal", "and", "or", "not"]);
+const ALLOWED_OPERATORS = new Set([
+  "add",
+  "subtract",
+  "multiply",
+  "divide",
+  "pow",
+  "unaryMinus",
+  "unaryPlus",
+  "smaller",
+  "smallerEq",
+  "larger",
+  "largerEq",
+  "equal",
+  "unequal",
+  "and",
+  "or",
+  "not",
+]);
 const FORBIDDEN = new Set(["import", "createUnit", "evaluate", "parse", "compile", "simplify", "derivative", "reviver", "chain", "config", "help"]);
 
 /** The expression budget, checked before anything is evaluated. */
@@ -23,11 +53,7 @@ export const EXPRESSION_MAX_NODES = 400;
 export const EXPRESSION_MAX_DEPTH = 48;
 
 function overBudget(label: string, what: string, got: number, limit: number, unit: string): never {
-  return refuse(
-    "expression-budget",
-    `${label}: the Cp expression ${what} ${got} ${unit}; at most ${limit} are allowed`,
-    { got, limit },
-  );
+  return refuse("expression-budget", `${label}: the Cp expression ${what} ${got} ${unit}; at most ${limit} are allowed`, { got, limit });
 }
 
 /**

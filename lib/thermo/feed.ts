@@ -28,7 +28,15 @@ const FEED_UNIT_INFO: Record<FeedUnit, FeedUnitInfo> = {
 
 /** The amount unit results are given in, for each feed unit. */
 const AMOUNT_UNIT: Record<FeedUnit, FeedUnit> = {
-  mol: "mol", kmol: "kmol", "mol/s": "mol/s", "kmol/s": "kmol/s", "kmol/h": "kmol/h", g: "mol", kg: "kmol", "kg/h": "kmol/h", "t/h": "kmol/h",
+  mol: "mol",
+  kmol: "kmol",
+  "mol/s": "mol/s",
+  "kmol/s": "kmol/s",
+  "kmol/h": "kmol/h",
+  g: "mol",
+  kg: "kmol",
+  "kg/h": "kmol/h",
+  "t/h": "kmol/h",
 };
 
 const FEED_AMOUNT = /^([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*(\S+)$/;

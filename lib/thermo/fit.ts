@@ -188,8 +188,16 @@ export function fitCp(request: FitRequest): FitResult {
     if (Math.abs(r) > maxAbsJ) maxAbsJ = Math.abs(r);
   }
   const result: FitResult = {
-    form: req.form, coefficients, residualsJ, rmsJ: Math.sqrt(ss / n), maxAbsJ,
-    r2: tot > 0 ? 1 - ss / tot : 1, conditionNumber, tminK: tmin, tmaxK: tmax, points: n,
+    form: req.form,
+    coefficients,
+    residualsJ,
+    rmsJ: Math.sqrt(ss / n),
+    maxAbsJ,
+    r2: tot > 0 ? 1 - ss / tot : 1,
+    conditionNumber,
+    tminK: tmin,
+    tmaxK: tmax,
+    points: n,
   };
   const phase = req.phase ?? "g";
   const range = { phase, tminK: tmin, tmaxK: tmax };

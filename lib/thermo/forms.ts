@@ -117,9 +117,7 @@ function compileForm(seg: ParsedSegment, label: string): Omit<CompiledSegment, "
       return {
         ...base,
         cp: (T) => R * (a1 / (T * T) + a2 / T + a3 + T * (a4 + T * (a5 + T * (a6 + T * a7)))),
-        magnitude: (T) =>
-          R *
-          (Math.abs(a1 / (T * T)) + Math.abs(a2 / T) + Math.abs(a3) + Math.abs(a4 * T) + Math.abs(a5 * T * T) + Math.abs(a6 * T ** 3) + Math.abs(a7 * T ** 4)),
+        magnitude: (T) => R * (Math.abs(a1 / (T * T)) + Math.abs(a2 / T) + Math.abs(a3) + Math.abs(a4 * T) + Math.abs(a5 * T * T) + Math.abs(a6 * T ** 3) + Math.abs(a7 * T ** 4)),
         cpBatch: (x, f, n) => {
           for (let i = 0; i < n; i++) {
             const T = x[i];
@@ -127,10 +125,8 @@ function compileForm(seg: ParsedSegment, label: string): Omit<CompiledSegment, "
           }
         },
         constants: {
-          hJ: (T) =>
-            R * (-a1 / T + a2 * Math.log(T) + T * (a3 + T * (a4 / 2 + T * (a5 / 3 + T * (a6 / 4 + T * (a7 / 5))))) + b1),
-          sJ: (T) =>
-            R * (-a1 / (2 * T * T) - a2 / T + a3 * Math.log(T) + T * (a4 + T * (a5 / 2 + T * (a6 / 3 + T * (a7 / 4)))) + b2),
+          hJ: (T) => R * (-a1 / T + a2 * Math.log(T) + T * (a3 + T * (a4 / 2 + T * (a5 / 3 + T * (a6 / 4 + T * (a7 / 5))))) + b1),
+          sJ: (T) => R * (-a1 / (2 * T * T) - a2 / T + a3 * Math.log(T) + T * (a4 + T * (a5 / 2 + T * (a6 / 3 + T * (a7 / 4)))) + b2),
         },
       };
     }
@@ -177,10 +173,7 @@ function compileForm(seg: ParsedSegment, label: string): Omit<CompiledSegment, "
       const first = pts[0][0];
       const last = pts[pts.length - 1][0];
       if (tminK < first - 1e-9 || tmaxK > last + 1e-9) {
-        refuse(
-          "invalid-table",
-          `${label}: the range ${tminK}–${tmaxK} K runs beyond the table points (${first}–${last} K); a table is not extrapolated silently`,
-        );
+        refuse("invalid-table", `${label}: the range ${tminK}–${tmaxK} K runs beyond the table points (${first}–${last} K); a table is not extrapolated silently`);
       }
       const f = makeTableInterpolant(pts, seg.coeffs.interpolation ?? "pchip");
       const inside = f.knots.filter((x) => x > tminK && x < tmaxK);

@@ -27,11 +27,12 @@ function positive(tK: number, field: string): number {
 /** Refuses a temperature outside the supported 1 K to 100 000 K (`temperature-out-of-range`). */
 export function inSupportedRange(tK: number, field: string): number {
   if (!(tK >= MIN_TEMPERATURE_K && tK <= MAX_TEMPERATURE_K)) {
-    refuse(
-      "temperature-out-of-range",
-      `${field}: ${tK} K is outside the supported range of ${MIN_TEMPERATURE_K} K to ${MAX_TEMPERATURE_K} K`,
-      { field, tK, minK: MIN_TEMPERATURE_K, maxK: MAX_TEMPERATURE_K },
-    );
+    refuse("temperature-out-of-range", `${field}: ${tK} K is outside the supported range of ${MIN_TEMPERATURE_K} K to ${MAX_TEMPERATURE_K} K`, {
+      field,
+      tK,
+      minK: MIN_TEMPERATURE_K,
+      maxK: MAX_TEMPERATURE_K,
+    });
   }
   return tK;
 }

@@ -100,12 +100,10 @@ export function integrateIntervals(
     const h = lh * half;
     const sv = ls * half;
     if (!Number.isFinite(h + sv)) ig.refuseNonfinite(cp, xa, xb);
-    let good =
-      Math.abs((lh - sh) * half) <= REL_TOL * Math.abs(h) + 1e-300 && Math.abs((ls - ss) * half) <= REL_TOL * Math.abs(sv) + 1e-300;
+    let good = Math.abs((lh - sh) * half) <= REL_TOL * Math.abs(h) + 1e-300 && Math.abs((ls - ss) * half) <= REL_TOL * Math.abs(sv) + 1e-300;
     if (!good) {
       const ah = (WL_END * (Math.abs(fa) + Math.abs(fb)) + WL_IN * (Math.abs(f1) + Math.abs(f2)) + WL_CENTER * Math.abs(fc)) * half;
-      const as =
-        (WL_END * (Math.abs(fa / xa) + Math.abs(fb / xb)) + WL_IN * (Math.abs(f1 / X[o]) + Math.abs(f2 / X[o + 2])) + WL_CENTER * Math.abs(gc)) * half;
+      const as = (WL_END * (Math.abs(fa / xa) + Math.abs(fb / xb)) + WL_IN * (Math.abs(f1 / X[o]) + Math.abs(f2 / X[o + 2])) + WL_CENTER * Math.abs(gc)) * half;
       good = ig.acceptable(Math.abs((lh - sh) * half), Math.abs((ls - ss) * half), h, sv, ah, as, xa, xb);
     }
     if (good) {
@@ -141,16 +139,7 @@ export function integrateIntervals(
  * call; an interval whose K7 − G3 difference is above the tolerance is redone by adaptive
  * G7/K15.
  */
-function integrateIntervalsK7(
-  ig: Integrator,
-  cpBatch: CpBatch,
-  cp: CpFunction,
-  a: Float64Array,
-  b: Float64Array,
-  m: number,
-  outH: Float64Array,
-  outS: Float64Array,
-): void {
+function integrateIntervalsK7(ig: Integrator, cpBatch: CpBatch, cp: CpFunction, a: Float64Array, b: Float64Array, m: number, outH: Float64Array, outS: Float64Array): void {
   const need = 7 * m;
   const X = ig.scratch.float("k7X", need);
   const F = ig.scratch.float("k7F", need);
@@ -190,8 +179,7 @@ function integrateIntervalsK7(
     const h = kh * half;
     const s = ks * half;
     if (!Number.isFinite(h + s)) ig.refuseNonfinite(cp, a[k], b[k]);
-    let good =
-      Math.abs((kh - gh) * half) <= REL_TOL * Math.abs(h) + 1e-300 && Math.abs((ks - gs) * half) <= REL_TOL * Math.abs(s) + 1e-300;
+    let good = Math.abs((kh - gh) * half) <= REL_TOL * Math.abs(h) + 1e-300 && Math.abs((ks - gs) * half) <= REL_TOL * Math.abs(s) + 1e-300;
     if (!good) {
       let ah = W7_CENTER * Math.abs(fc);
       let as = W7_CENTER * Math.abs(gc);

@@ -10,16 +10,12 @@ import { refuse } from "./errors";
 
 // Kronrod 15-point abscissae and weights, Gauss 7-point weights (QUADPACK qk15). Read only.
 const XGK: readonly number[] = [
-  0.991455371120812639206854697526329, 0.949107912342758524526189684047851,
-  0.864864423359769072789712788640926, 0.741531185599394439863864773280788,
-  0.586087235467691130294144845693013, 0.405845151377397166906606412076961,
-  0.207784955007898467600689403773245,
+  0.991455371120812639206854697526329, 0.949107912342758524526189684047851, 0.864864423359769072789712788640926, 0.741531185599394439863864773280788,
+  0.586087235467691130294144845693013, 0.405845151377397166906606412076961, 0.207784955007898467600689403773245,
 ];
 const WGK: readonly number[] = [
-  0.02293532201052922496373200805897, 0.063092092629978553290700663189204,
-  0.104790010322250183839876322541518, 0.140653259715525918745189590510238,
-  0.16900472663926790282658342659855, 0.190350578064785409913256402421014,
-  0.204432940075298892414161999234649,
+  0.02293532201052922496373200805897, 0.063092092629978553290700663189204, 0.104790010322250183839876322541518, 0.140653259715525918745189590510238,
+  0.16900472663926790282658342659855, 0.190350578064785409913256402421014, 0.204432940075298892414161999234649,
 ];
 const WGK_CENTER = 0.209482141084727828012999174891714;
 // Gauss weights for the odd Kronrod nodes (XGK[1], XGK[3], XGK[5]) and the centre.
@@ -129,7 +125,8 @@ export class Integrator {
       const v = cp(t);
       if (!Number.isFinite(v)) {
         refuse("nonfinite-cp", `${this.where()}: Cp is not finite at ${fmtK(t)} K (got ${v}); the model cannot be integrated there`, {
-          ...(c ? { species: c.species, phase: c.phase } : {}), tK: t,
+          ...(c ? { species: c.species, phase: c.phase } : {}),
+          tK: t,
         });
       }
     }
@@ -227,11 +224,10 @@ export class Integrator {
           // first estimate's means Cp grows without bound here (a pole), not a kink or a step.
           if (this.ruleAbsH / (hi - lo) > SINGULAR_RATIO * Math.max(meanAbs0, 1e-300)) {
             const c = this.site;
-            refuse(
-              "nonfinite-cp",
-              `${this.where()}: Cp grows without bound near ${fmtK(0.5 * (lo + hi))} K and cannot be integrated across it`,
-              { ...(c ? { species: c.species, phase: c.phase } : {}), tK: 0.5 * (lo + hi) },
-            );
+            refuse("nonfinite-cp", `${this.where()}: Cp grows without bound near ${fmtK(0.5 * (lo + hi))} K and cannot be integrated across it`, {
+              ...(c ? { species: c.species, phase: c.phase } : {}),
+              tK: 0.5 * (lo + hi),
+            });
           }
         }
         h += ruleH;

@@ -27,19 +27,42 @@ export function buildPoints(T: Float64Array, rg: ReactionGrid, tolJ: number, tol
     const naiveLnK = -gn / (R * t);
     const K = Math.exp(lnK);
     const exceedsTolerance = Math.abs(gn - g) > tolJ || Math.abs(naiveLnK - lnK) > tolLn;
-    points[i] = sigmas === null
-      ? {
-          tK: t, dCpJ: dCp[i], dHkJ: dH[i] / 1000, dSJ: dS[i], dGkJ: g / 1000, lnK, log10K: lnK / LN10,
-          K: Number.isFinite(K) && K > 0 ? K : null, naiveDGkJ: gn / 1000, naiveLnK, naiveLog10K: naiveLnK / LN10,
-          diffKJ: (gn - g) / 1000, exceedsTolerance,
-        }
-      : {
-          tK: t, dCpJ: dCp[i], dHkJ: dH[i] / 1000, dSJ: dS[i], dGkJ: g / 1000, lnK, log10K: lnK / LN10,
-          K: Number.isFinite(K) && K > 0 ? K : null, naiveDGkJ: gn / 1000, naiveLnK, naiveLog10K: naiveLnK / LN10,
-          diffKJ: (gn - g) / 1000, exceedsTolerance,
-          sigmaDGkJ: sigmas.dGkJ[i], sigmaLog10K: sigmas.log10K[i], naiveSigmaDGkJ: sigmas.naiveDGkJ[i],
-          naiveExceedsUncertainty: sigmas.exceeds[i] === 1,
-        };
+    points[i] =
+      sigmas === null
+        ? {
+            tK: t,
+            dCpJ: dCp[i],
+            dHkJ: dH[i] / 1000,
+            dSJ: dS[i],
+            dGkJ: g / 1000,
+            lnK,
+            log10K: lnK / LN10,
+            K: Number.isFinite(K) && K > 0 ? K : null,
+            naiveDGkJ: gn / 1000,
+            naiveLnK,
+            naiveLog10K: naiveLnK / LN10,
+            diffKJ: (gn - g) / 1000,
+            exceedsTolerance,
+          }
+        : {
+            tK: t,
+            dCpJ: dCp[i],
+            dHkJ: dH[i] / 1000,
+            dSJ: dS[i],
+            dGkJ: g / 1000,
+            lnK,
+            log10K: lnK / LN10,
+            K: Number.isFinite(K) && K > 0 ? K : null,
+            naiveDGkJ: gn / 1000,
+            naiveLnK,
+            naiveLog10K: naiveLnK / LN10,
+            diffKJ: (gn - g) / 1000,
+            exceedsTolerance,
+            sigmaDGkJ: sigmas.dGkJ[i],
+            sigmaLog10K: sigmas.log10K[i],
+            naiveSigmaDGkJ: sigmas.naiveDGkJ[i],
+            naiveExceedsUncertainty: sigmas.exceeds[i] === 1,
+          };
   }
   return points;
 }
@@ -88,7 +111,19 @@ export function buildColumns(T: Float64Array, rg: ReactionGrid, tolJ: number, to
     exceedsTolerance[i] = Math.abs(gn - g) > tolJ || Math.abs(naiveLnK - lnK) > tolLn;
   }
   const columns: Partial<PointColumns> = {
-    tK, dCpJ, dHkJ, dSJ, dGkJ, lnK: lnKs, log10K, K: Ks, naiveDGkJ, naiveLnK: naiveLnKs, naiveLog10K, diffKJ, exceedsTolerance,
+    tK,
+    dCpJ,
+    dHkJ,
+    dSJ,
+    dGkJ,
+    lnK: lnKs,
+    log10K,
+    K: Ks,
+    naiveDGkJ,
+    naiveLnK: naiveLnKs,
+    naiveLog10K,
+    diffKJ,
+    exceedsTolerance,
   };
   if (sigmas === null) return columns;
   return {
@@ -112,7 +147,8 @@ export function refuseNonfinitePoints(T: Float64Array, rg: ReactionGrid): void {
     const bad = fields.find((f) => !Number.isFinite(p[f]));
     if (bad) {
       refuse("nonfinite-value", `points at ${fmt(p.tK)} K: ${bad} is not finite in double precision; the models' coefficients are outside any physical range`, {
-        tK: p.tK, field: bad,
+        tK: p.tK,
+        field: bad,
       });
     }
   }

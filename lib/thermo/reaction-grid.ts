@@ -45,14 +45,12 @@ export interface ReactionGrid {
 }
 
 /** Stage 2: one model per term, all charged to the request's integrator. */
-export function buildTerms(
-  terms: readonly ReactionTerm[],
-  species: Record<string, ParsedSpecies>,
-  referenceK: number,
-  integrator: Integrator,
-): Term[] {
+export function buildTerms(terms: readonly ReactionTerm[], species: Record<string, ParsedSpecies>, referenceK: number, integrator: Integrator): Term[] {
   return terms.map((t) => ({
-    key: t.key, nu: t.nu, phase: t.phase, model: buildSpeciesModel(t.key, species[t.key], referenceK, { integrator }),
+    key: t.key,
+    nu: t.nu,
+    phase: t.phase,
+    model: buildSpeciesModel(t.key, species[t.key], referenceK, { integrator }),
   }));
 }
 
@@ -75,13 +73,7 @@ export function reactionAt(terms: readonly Term[], T: number): ReactionValues {
  * each term's warnings (termWarnings, below-boiling-point) read its grid once. Refuses a term
  * whose values are not finite (checkFiniteGrid) — found by the same pass, at no extra cost.
  */
-export function reactionOnGrid(
-  terms: readonly Term[],
-  species: Record<string, ParsedSpecies>,
-  T: Float64Array,
-  referenceK: number,
-  warnings: EngineWarning[],
-): ReactionGrid {
+export function reactionOnGrid(terms: readonly Term[], species: Record<string, ParsedSpecies>, T: Float64Array, referenceK: number, warnings: EngineWarning[]): ReactionGrid {
   const n = T.length;
   const dCp = new Float64Array(n);
   const dH = new Float64Array(n);

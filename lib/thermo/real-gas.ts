@@ -69,11 +69,7 @@ export function realGasSetup(
       refuse("invalid-critical", `equilibrium.critical["${key}"]: "${key}" is not a species of the mixture (feed or reactions)`, { key });
     }
     if (has(species, key)) {
-      refuse(
-        "invalid-critical",
-        `equilibrium.critical["${key}"]: "${key}" has an entry in species; give its constants once, in species["${key}"].critical`,
-        { key },
-      );
+      refuse("invalid-critical", `equilibrium.critical["${key}"]: "${key}" has an entry in species; give its constants once, in species["${key}"].critical`, { key });
     }
   }
   const critical = list.map((s, i): CriticalConstants | null => {
@@ -116,7 +112,13 @@ export function gasPhi(p: EquilibriumProblem, moles: Float64Array, setup: RealGa
   // All gas exhausted cannot happen with a positive feed; guard against it anyway.
   const y = idx.map((i) => (total > 0 ? moles[i] / total : 1 / idx.length));
   const kij = idx.map((i) => idx.map((j) => setup.kij[i][j]));
-  const r = prMixture(tK, setup.pressureBar, y, idx.map((i) => setup.critical[i]!), kij);
+  const r = prMixture(
+    tK,
+    setup.pressureBar,
+    y,
+    idx.map((i) => setup.critical[i]!),
+    kij,
+  );
   idx.forEach((i, q) => (lnPhi[i] = r.lnPhi[q]));
   return { lnPhi, z: r.z, liquidLike: r.liquidLike };
 }
@@ -125,12 +127,7 @@ export function gasPhi(p: EquilibriumProblem, moles: Float64Array, setup: RealGa
  * Solve with fugacity coefficients consistent with the composition. Successive substitution
  * on ln φ; after 20 iterations without convergence the update is damped by half.
  */
-export function solveRealGas(
-  p: EquilibriumProblem,
-  setup: RealGasSetup,
-  tK: number,
-  solve: (p: EquilibriumProblem) => EquilibriumSolution,
-): RealGasSolution {
+export function solveRealGas(p: EquilibriumProblem, setup: RealGasSetup, tK: number, solve: (p: EquilibriumProblem) => EquilibriumSolution): RealGasSolution {
   const ideal = solve(p);
   const S = p.n0.length;
   let sol = ideal;

@@ -1,13 +1,5 @@
 /** Brent's method (inverse quadratic interpolation with bisection safeguard). */
-export function brent(
-  f: (x: number) => number,
-  a: number,
-  b: number,
-  fa = f(a),
-  fb = f(b),
-  xtol = 1e-9,
-  maxIter = 200,
-): number {
+export function brent(f: (x: number) => number, a: number, b: number, fa = f(a), fb = f(b), xtol = 1e-9, maxIter = 200): number {
   if (fa === 0) return a;
   if (fb === 0) return b;
   if (fa * fb > 0) throw new Error("brent: the interval does not bracket a root");

@@ -42,9 +42,7 @@ export function unknownFieldsMessage(keys: readonly string[], known: readonly st
   return keys
     .map((k) => {
       const near = nearestName(k, known);
-      return near
-        ? `unknown field "${k}" (did you mean "${near}"?)`
-        : `unknown field "${k}" (known fields: ${known.join(", ")})`;
+      return near ? `unknown field "${k}" (did you mean "${near}"?)` : `unknown field "${k}" (known fields: ${known.join(", ")})`;
     })
     .join("; ");
 }
@@ -63,20 +61,9 @@ export const quantitySchema = z.union([z.number(), z.string().trim().min(1)], {
 });
 
 /** `cr`, `l`, `g` or a named solid form `cr-name`. */
-export const phaseSchema = z
-  .string()
-  .regex(PHASE_NAME, { error: 'expected a phase: "cr", "l", "g" or "cr-name"' });
+export const phaseSchema = z.string().regex(PHASE_NAME, { error: 'expected a phase: "cr", "l", "g" or "cr-name"' });
 
-export const CP_FORMS = [
-  "constant",
-  "shomate",
-  "nasa7",
-  "nasa9",
-  "maier-kelley",
-  "power",
-  "table",
-  "expression",
-] as const;
+export const CP_FORMS = ["constant", "shomate", "nasa7", "nasa9", "maier-kelley", "power", "table", "expression"] as const;
 export type CpForm = (typeof CP_FORMS)[number];
 
 const range = { phase: phaseSchema, tminK: quantitySchema, tmaxK: quantitySchema };
@@ -208,41 +195,44 @@ export const evaluateRequestSchema = strict({
   /** Operating pressure, used only for the `high-pressure` warning (K stays the ideal-gas, 1 bar one). */
   pressureBar: quantitySchema.optional(),
   equilibrium: strict({
-      /** Feed amounts per species key, in `feedUnit` (default "mol") when bare numbers, or strings with a unit of the set. */
-      feed: z.record(
-        z.string(),
-        z.union([z.number().nonnegative({ error: "expected an amount of 0 or more" }), z.string().trim().min(1)], {
-          error: "expected an amount (a number of 0 or more, or a string such as \"2 kmol/h\")",
+    /** Feed amounts per species key, in `feedUnit` (default "mol") when bare numbers, or strings with a unit of the set. */
+    feed: z.record(
+      z.string(),
+      z.union([z.number().nonnegative({ error: "expected an amount of 0 or more" }), z.string().trim().min(1)], {
+        error: 'expected an amount (a number of 0 or more, or a string such as "2 kmol/h")',
+      }),
+    ),
+    // A string in the input type (case forms store free text); the engine takes only the closed set.
+    feedUnit: z
+      .string({ error: `expected one of ${FEED_UNITS.join(", ")}` })
+      .trim()
+      .refine((v) => (FEED_UNITS as readonly string[]).includes(v), { error: `expected one of ${FEED_UNITS.join(", ")}` })
+      .optional(),
+    /** Total pressure; bar when a bare number (default 1 bar). */
+    pressureBar: quantitySchema.optional(),
+    /** Species whose conversion is reported; default the first reactant of the first reaction present in the feed. */
+    key: z.string().trim().min(1).optional(),
+    /** A simultaneous set; without it the request's `reaction`. */
+    reactions: z
+      .array(z.string().trim().min(1, { error: "expected a reaction" }))
+      .min(1, { error: "expected at least one reaction" })
+      .max(12, { error: "at most 12 reactions" })
+      .optional(),
+    /** Gas-phase model (default "ideal"). */
+    gas: z.enum(GAS_MODELS, { error: 'expected "ideal" or "peng-robinson"' }).optional(),
+    /** Critical constants of inert feed species that have no entry in species. */
+    critical: z.record(z.string(), criticalSchema).optional(),
+    /** Binary interaction parameters of the van der Waals mixing rule (0 for a pair not listed). */
+    kij: z
+      .array(
+        strict({
+          species: z.tuple([z.string().trim().min(1), z.string().trim().min(1)]),
+          value: z.number({ error: "expected a finite number" }).min(-1, { error: "k_ij runs from -1 to 1" }).max(1, { error: "k_ij runs from -1 to 1" }),
         }),
-      ),
-      // A string in the input type (case forms store free text); the engine takes only the closed set.
-      feedUnit: z
-        .string({ error: `expected one of ${FEED_UNITS.join(", ")}` })
-        .trim()
-        .refine((v) => (FEED_UNITS as readonly string[]).includes(v), { error: `expected one of ${FEED_UNITS.join(", ")}` })
-        .optional(),
-      /** Total pressure; bar when a bare number (default 1 bar). */
-      pressureBar: quantitySchema.optional(),
-      /** Species whose conversion is reported; default the first reactant of the first reaction present in the feed. */
-      key: z.string().trim().min(1).optional(),
-      /** A simultaneous set; without it the request's `reaction`. */
-      reactions: z.array(z.string().trim().min(1, { error: "expected a reaction" })).min(1, { error: "expected at least one reaction" }).max(12, { error: "at most 12 reactions" }).optional(),
-      /** Gas-phase model (default "ideal"). */
-      gas: z.enum(GAS_MODELS, { error: 'expected "ideal" or "peng-robinson"' }).optional(),
-      /** Critical constants of inert feed species that have no entry in species. */
-      critical: z.record(z.string(), criticalSchema).optional(),
-      /** Binary interaction parameters of the van der Waals mixing rule (0 for a pair not listed). */
-      kij: z
-        .array(
-          strict({
-            species: z.tuple([z.string().trim().min(1), z.string().trim().min(1)]),
-            value: z.number({ error: "expected a finite number" }).min(-1, { error: "k_ij runs from -1 to 1" }).max(1, { error: "k_ij runs from -1 to 1" }),
-          }),
-        )
-        .max(300, { error: "at most 300 pairs" })
-        .optional(),
-    })
-    .optional(),
+      )
+      .max(300, { error: "at most 300 pairs" })
+      .optional(),
+  }).optional(),
   /** Adiabatic outlet temperature of the equilibrium feed entering at inletK. */
   adiabatic: strict({ inletK: quantitySchema }).optional(),
 });

@@ -66,9 +66,7 @@ export function compareSources(request: EvaluateRequest, variants: SourceVariant
       const eqs = runs.map((r) => r.result.equilibrium![i]);
       if (eqs.every((e) => e.keyFraction !== null)) row.keyFraction = spreadOf(eqs.map((e) => e.keyFraction!));
       row.keyConversion = spreadOf(eqs.map((e) => e.keyConversion));
-      row.moleFractions = Object.fromEntries(
-        Object.keys(eqs[0].moleFractions).map((k) => [k, spreadOf(eqs.map((e) => e.moleFractions[k] ?? 0))]),
-      );
+      row.moleFractions = Object.fromEntries(Object.keys(eqs[0].moleFractions).map((k) => [k, spreadOf(eqs.map((e) => e.moleFractions[k] ?? 0))]));
     }
     return row;
   });

@@ -87,7 +87,12 @@ export function buildSpeciesModel(key: string, entry: ParsedSpecies, referenceK:
   const p0 = entry.standardPressurePa === undefined ? STANDARD_PRESSURE_PA : parseStandardPressurePa(entry.standardPressurePa, field(".standardPressurePa"));
   const chains = compileChains(key, label, field, entry);
   const b: Build = {
-    key, label, field, chains, ig: options.integrator ?? new Integrator(), warnings: [],
+    key,
+    label,
+    field,
+    chains,
+    ig: options.integrator ?? new Integrator(),
+    warnings: [],
     sCorrection: (phase) => (phase === "g" ? R * Math.log(p0 / STANDARD_PRESSURE_PA) : 0),
     chainOf: (phase, at) => {
       const c = chains.get(phase);
@@ -131,12 +136,16 @@ function compileChains(key: string, label: string, field: (rest: string) => stri
       const tol = 1e-9 * Math.max(1, prev.tmaxK);
       if (next.tminK > prev.tmaxK + tol) {
         refuse("chain-gap", `${label}: gap in the ${chain.phase} chain between ${prev.tmaxK} K and ${next.tminK} K`, {
-          species: key, phase: chain.phase, fromK: prev.tmaxK, toK: next.tminK,
+          species: key,
+          phase: chain.phase,
+          fromK: prev.tmaxK,
+          toK: next.tminK,
         });
       }
       if (next.tminK < prev.tmaxK - tol) {
         refuse("chain-overlap", `${label}: segments of the ${chain.phase} chain overlap between ${next.tminK} K and ${prev.tmaxK} K`, {
-          species: key, phase: chain.phase,
+          species: key,
+          phase: chain.phase,
         });
       }
     }
@@ -178,7 +187,12 @@ function applyReference(b: Build, entry: ParsedSpecies): void {
   const dS = sJ - own.sJ;
   if (Math.abs(dH) > MISMATCH_H_KJ || Math.abs(dS) > MISMATCH_S_J) {
     b.warnings.push({
-      code: "reference-mismatch", species: key, tK, phase: ref.phase, dHkJ: dH, dSJ: dS,
+      code: "reference-mismatch",
+      species: key,
+      tK,
+      phase: ref.phase,
+      dHkJ: dH,
+      dSJ: dS,
       message: `the stated reference (H ${fmt(hJ / 1000)} kJ/mol, S ${fmt(sJ)} J/(mol·K) at ${fmt(tK)} K) differs from the ${ref.phase} model's own constants by ${fmt(dH)} kJ/mol and ${fmt(dS)} J/(mol·K); the model's constants are used`,
     });
   }
@@ -190,8 +204,11 @@ function readTransitions(b: Build, entry: ParsedSpecies): Transition[] {
     const at = b.field(`.transitions[${i}]`);
     const tK = requireTemperatureK(parseTemperatureK(tr.tK, `${at}.tK`), `${at}.tK`);
     return {
-      tK, from: b.chainOf(tr.from, `${at}.from`), to: b.chainOf(tr.to, `${at}.to`),
-      dHJ: 1000 * parseMolarEnergyKJ(tr.dHkJ, `${at}.dHkJ`), used: false,
+      tK,
+      from: b.chainOf(tr.from, `${at}.from`),
+      to: b.chainOf(tr.to, `${at}.to`),
+      dHJ: 1000 * parseMolarEnergyKJ(tr.dHkJ, `${at}.dHkJ`),
+      used: false,
     };
   });
 }
@@ -199,7 +216,7 @@ function readTransitions(b: Build, entry: ParsedSpecies): Transition[] {
 /** Stage 5: anchors spread to neighbouring segments (continuity of H and S) and across transitions until nothing changes. */
 function propagateAnchors(b: Build, transitions: Transition[]): void {
   const ig = b.ig;
-  for (let changed = true; changed; ) {
+  for (let changed = true; changed;) {
     changed = false;
     for (const chain of b.chains.values()) {
       const segs = chain.segs;
@@ -259,12 +276,17 @@ function checkUnusedTransitions(b: Build, transitions: Transition[]): void {
     const derived = findCrossing(gDiff, tr.tK, 50);
     let dHJ = Number.NaN;
     if (derived !== null) dHJ = chainAt(ig, tr.to, derived).hJ - chainAt(ig, tr.from, derived).hJ;
-    const off =
-      derived === null || Math.abs(derived - tr.tK) > MISMATCH_T_K || Math.abs(dHJ - tr.dHJ) / 1000 > MISMATCH_H_KJ;
+    const off = derived === null || Math.abs(derived - tr.tK) > MISMATCH_T_K || Math.abs(dHJ - tr.dHJ) / 1000 > MISMATCH_H_KJ;
     if (off) {
       b.warnings.push({
-        code: "transition-mismatch", species: b.key, tK: tr.tK, from: tr.from.phase, to: tr.to.phase,
-        statedDHkJ: tr.dHJ / 1000, derivedK: derived, derivedDHkJ: derived === null ? null : dHJ / 1000,
+        code: "transition-mismatch",
+        species: b.key,
+        tK: tr.tK,
+        from: tr.from.phase,
+        to: tr.to.phase,
+        statedDHkJ: tr.dHJ / 1000,
+        derivedK: derived,
+        derivedDHkJ: derived === null ? null : dHJ / 1000,
         message:
           derived === null
             ? `the stated ${tr.from.phase} → ${tr.to.phase} transition at ${fmt(tr.tK)} K is not where the two phases' G curves cross (no crossing within 50 K)`

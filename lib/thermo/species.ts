@@ -48,7 +48,12 @@ export function speciesRows(T: Float64Array, grid: TermGrid, order?: readonly nu
   for (let j = 0; j < n; j++) {
     const hkJ = grid.h[j] / 1000;
     rows[order ? order[j] : j] = {
-      tK: T[j], phase: grid.phases[grid.phaseIndex[j]], cpJ: grid.cp[j], hkJ, sJ: grid.s[j], gkJ: hkJ - (T[j] * grid.s[j]) / 1000,
+      tK: T[j],
+      phase: grid.phases[grid.phaseIndex[j]],
+      cpJ: grid.cp[j],
+      hkJ,
+      sJ: grid.s[j],
+      gkJ: hkJ - (T[j] * grid.s[j]) / 1000,
     };
   }
   return rows;

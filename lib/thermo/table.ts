@@ -56,12 +56,7 @@ export function makeTableInterpolant(points: readonly (readonly [number, number]
     const s = (t - x[lo]) / hh;
     const s2 = s * s;
     const s3 = s2 * s;
-    return (
-      (2 * s3 - 3 * s2 + 1) * y[lo] +
-      (s3 - 2 * s2 + s) * hh * d[lo] +
-      (-2 * s3 + 3 * s2) * y[lo + 1] +
-      (s3 - s2) * hh * d[lo + 1]
-    );
+    return (2 * s3 - 3 * s2 + 1) * y[lo] + (s3 - 2 * s2 + s) * hh * d[lo] + (-2 * s3 + 3 * s2) * y[lo + 1] + (s3 - s2) * hh * d[lo + 1];
   }) as TableInterpolant;
   f.knots = x;
   return f;

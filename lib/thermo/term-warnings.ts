@@ -10,13 +10,7 @@ import { termAt, type TermGrid } from "./term";
  * Warnings for one term over a grid span: extrapolation, reference-extrapolation,
  * metastable-phase, phase-change-in-span, nonphysical-cp, segment-jump (edges inside the span).
  */
-export function termWarnings(
-  model: SpeciesModel,
-  phase: string | undefined,
-  T: Float64Array,
-  grid: TermGrid,
-  referenceK: number | null,
-): EngineWarning[] {
+export function termWarnings(model: SpeciesModel, phase: string | undefined, T: Float64Array, grid: TermGrid, referenceK: number | null): EngineWarning[] {
   const key = model.key;
   const ig = model.integrator;
   const out: EngineWarning[] = [];
@@ -62,7 +56,13 @@ export function termWarnings(
     const w = worst[side];
     if (!w) continue;
     out.push({
-      code: "extrapolation", species: key, tK: w.tK, side, byK: w.by, limitK: w.limit, phase: w.phase,
+      code: "extrapolation",
+      species: key,
+      tK: w.tK,
+      side,
+      byK: w.by,
+      limitK: w.limit,
+      phase: w.phase,
       message: `${side} the ${fmt(w.limit)} K ${side === "below" ? "lower" : "upper"} limit of the model by ${fmt(w.by)} K`,
     });
   }
@@ -72,8 +72,12 @@ export function termWarnings(
     if (!covers(chain, referenceK)) {
       const below = referenceK < chain.tminK;
       out.push({
-        code: "reference-extrapolation", species: key, tK: referenceK, phase: chain.phase,
-        side: below ? "below" : "above", byK: below ? chain.tminK - referenceK : referenceK - chain.tmaxK,
+        code: "reference-extrapolation",
+        species: key,
+        tK: referenceK,
+        phase: chain.phase,
+        side: below ? "below" : "above",
+        byK: below ? chain.tminK - referenceK : referenceK - chain.tmaxK,
         message: `the reference temperature ${fmt(referenceK)} K is ${below ? "below" : "above"} the ${fmt(below ? chain.tminK : chain.tmaxK)} K ${below ? "lower" : "upper"} limit of the ${chain.phase} model, so the naive curve starts from extrapolated values`,
       });
     }
@@ -100,7 +104,13 @@ export function termWarnings(
     }
     if (first >= 0) {
       out.push({
-        code: "metastable-phase", species: key, tK: T[first], toK: T[last], phase, stablePhase: worstPhase, dGkJ: worstGap / 1000,
+        code: "metastable-phase",
+        species: key,
+        tK: T[first],
+        toK: T[last],
+        phase,
+        stablePhase: worstPhase,
+        dGkJ: worstGap / 1000,
         message: `${phase} is not the stable phase from ${fmt(T[first])} K to ${fmt(T[last])} K (${worstPhase} is lower in G by up to ${fmt(worstGap / 1000)} kJ/mol); the term keeps the ${phase} phase as written`,
       });
     }
@@ -128,7 +138,12 @@ export function termWarnings(
       const hb = chainAt(ig, cb, at ?? T[i]);
       const ha = chainAt(ig, ca, at ?? T[i]);
       out.push({
-        code: "phase-change-in-span", species: key, tK: at ?? T[i], from: ca.phase, to: cb.phase, dHkJ: (hb.hJ - ha.hJ) / 1000,
+        code: "phase-change-in-span",
+        species: key,
+        tK: at ?? T[i],
+        from: ca.phase,
+        to: cb.phase,
+        dHkJ: (hb.hJ - ha.hJ) / 1000,
         message: `changes from ${ca.phase} to ${cb.phase} at ${fmt(at ?? T[i])} K inside the span (ΔH ${fmt((hb.hJ - ha.hJ) / 1000)} kJ/mol); the lowest-G phase is used on each side`,
       });
     }
@@ -143,7 +158,10 @@ export function termWarnings(
   }
   if (bad >= 0) {
     out.push({
-      code: "nonphysical-cp", species: key, tK: T[bad], minCpJ: minCp,
+      code: "nonphysical-cp",
+      species: key,
+      tK: T[bad],
+      minCpJ: minCp,
       message: `Cp is not positive from ${fmt(T[bad])} K (lowest ${fmt(minCp)} J/(mol·K)); the model is outside the range where it means anything`,
     });
   }
@@ -153,7 +171,13 @@ export function termWarnings(
   for (const j of model.jumps) {
     if (!used.has(j.phase) || j.tK < lo || j.tK > hi) continue;
     out.push({
-      code: "segment-jump", species: key, tK: j.tK, phase: j.phase, dHkJ: j.dHkJ, dSJ: j.dSJ, dCpJ: j.dCpJ,
+      code: "segment-jump",
+      species: key,
+      tK: j.tK,
+      phase: j.phase,
+      dHkJ: j.dHkJ,
+      dSJ: j.dSJ,
+      dCpJ: j.dCpJ,
       message: `the two ${j.phase} segments meeting at ${fmt(j.tK)} K disagree there: H jumps by ${fmt(j.dHkJ)} kJ/mol, S by ${fmt(j.dSJ)} J/(mol·K), Cp by ${fmt(j.dCpJ)} J/(mol·K)`,
     });
   }

@@ -23,7 +23,8 @@ export function termChains(model: SpeciesModel, phase: string | undefined): Chai
   const chain = model.chains.get(phase);
   if (!chain) {
     refuse("missing-phase", `species "${model.key}": the key asks for the ${phase} phase but no segment has phase "${phase}"`, {
-      species: model.key, phase,
+      species: model.key,
+      phase,
     });
   }
   return [chain!];
@@ -95,15 +96,10 @@ export function termAt(model: SpeciesModel, phase: string | undefined, T: number
     const v = { ...chainAt(model.integrator, chain, T), phase: chain.phase };
     const c = covers(chain, T);
     const g = v.hJ - T * v.sJ;
-    if (
-      best === null ||
-      (c && !bestCovers) ||
-      (c === bestCovers && g < best.hJ - T * best.sJ)
-    ) {
+    if (best === null || (c && !bestCovers) || (c === bestCovers && g < best.hJ - T * best.sJ)) {
       best = v;
       bestCovers = c;
     }
   }
   return best!;
 }
-

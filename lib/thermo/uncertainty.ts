@@ -29,7 +29,10 @@ export function parseUncertainty(key: string, entry: ParsedSpecies): SpeciesUnce
   const dfHkJ = u.dfHkJ === undefined ? 0 : parseMolarEnergyKJ(u.dfHkJ, `${field}.dfHkJ`);
   const sJ = u.sJ === undefined ? 0 : parseMolarEntropyJ(u.sJ, `${field}.sJ`);
   const cpRelative = u.cpRelative ?? 0;
-  for (const [name, v] of [["dfHkJ", dfHkJ], ["sJ", sJ]] as const) {
+  for (const [name, v] of [
+    ["dfHkJ", dfHkJ],
+    ["sJ", sJ],
+  ] as const) {
     if (v < 0) refuse("invalid-uncertainty", `${field}.${name}: an uncertainty must not be negative (got ${v})`, { species: key });
   }
   if (dfHkJ === 0 && sJ === 0 && cpRelative === 0) return null;

@@ -16,16 +16,15 @@ export type Decision = (typeof DECISIONS)[number];
 /** Largest grid a case may ask for (the engine's own limit). */
 export const MAX_CASE_POINTS = 100_000;
 
-const quantity = z.union([z.number({ error: "Enter a number." }), z.string().trim().min(1, "Enter a temperature.")], {
-  error: "Enter a temperature.",
-}).refine((q) => splitQuantity(q as Quantity) !== null, { error: "Use a number with K, degC or degF." });
+const quantity = z
+  .union([z.number({ error: "Enter a number." }), z.string().trim().min(1, "Enter a temperature.")], {
+    error: "Enter a temperature.",
+  })
+  .refine((q) => splitQuantity(q as Quantity) !== null, { error: "Use a number with K, degC or degF." });
 
 export const termSchema = strictObject({
   formula: z.string({ error: "Pick a species." }).trim().min(1, "Pick a species.").max(60, "Use at most 60 characters."),
-  phase: z
-    .string()
-    .regex(PHASE_NAME, { error: 'Use a phase of "cr", "l" or "g", or none for the stable phase.' })
-    .nullable(),
+  phase: z.string().regex(PHASE_NAME, { error: 'Use a phase of "cr", "l" or "g", or none for the stable phase.' }).nullable(),
   coefficient: z
     .number({ error: "Enter a coefficient." })
     .refine((n) => n !== 0, { error: "A coefficient cannot be zero; remove the row instead." })
@@ -74,29 +73,30 @@ const caseFields = {
 };
 
 export const caseInputSchema = strictObject({
-    ...caseFields,
-    notes: caseFields.notes.default(""),
-    referenceK: caseFields.referenceK.default(298.15),
-    toleranceKJ: caseFields.toleranceKJ.default(1),
-    toleranceKFactor: caseFields.toleranceKFactor.default(null),
-    equilibrium: caseEquilibriumSchema.nullish(),
-  })
-  .superRefine((v, ctx) => {
-    const keys = new Set<string>();
-    v.terms.forEach((t, i) => {
-      const key = termKey(t);
-      if (keys.has(key)) ctx.addIssue({ code: "custom", path: ["terms", i, "formula"], message: `${key} appears twice; combine the coefficients.` });
-      keys.add(key);
-    });
-    if (v.terms.length >= 2 && !v.terms.some((t) => t.coefficient < 0)) ctx.addIssue({ code: "custom", path: ["terms"], message: "Give at least one reactant a negative coefficient." });
-    if (v.terms.length >= 2 && !v.terms.some((t) => t.coefficient > 0)) ctx.addIssue({ code: "custom", path: ["terms"], message: "Give at least one product a positive coefficient." });
-    // Rows without a species already say "Pick a species."; the balance waits for them.
-    const balance = v.terms.every((t) => t.formula) ? elementBalance(v.terms) : null;
-    if (balance && !balance.ok) ctx.addIssue({ code: "custom", path: ["terms"], message: balance.message });
-    if (v.equilibrium) {
-      for (const issue of feedKeyIssues(v.terms.map(termKey), v.equilibrium)) ctx.addIssue({ code: "custom", path: ["equilibrium", ...issue.path], message: issue.message });
-    }
+  ...caseFields,
+  notes: caseFields.notes.default(""),
+  referenceK: caseFields.referenceK.default(298.15),
+  toleranceKJ: caseFields.toleranceKJ.default(1),
+  toleranceKFactor: caseFields.toleranceKFactor.default(null),
+  equilibrium: caseEquilibriumSchema.nullish(),
+}).superRefine((v, ctx) => {
+  const keys = new Set<string>();
+  v.terms.forEach((t, i) => {
+    const key = termKey(t);
+    if (keys.has(key)) ctx.addIssue({ code: "custom", path: ["terms", i, "formula"], message: `${key} appears twice; combine the coefficients.` });
+    keys.add(key);
   });
+  if (v.terms.length >= 2 && !v.terms.some((t) => t.coefficient < 0))
+    ctx.addIssue({ code: "custom", path: ["terms"], message: "Give at least one reactant a negative coefficient." });
+  if (v.terms.length >= 2 && !v.terms.some((t) => t.coefficient > 0))
+    ctx.addIssue({ code: "custom", path: ["terms"], message: "Give at least one product a positive coefficient." });
+  // Rows without a species already say "Pick a species."; the balance waits for them.
+  const balance = v.terms.every((t) => t.formula) ? elementBalance(v.terms) : null;
+  if (balance && !balance.ok) ctx.addIssue({ code: "custom", path: ["terms"], message: balance.message });
+  if (v.equilibrium) {
+    for (const issue of feedKeyIssues(v.terms.map(termKey), v.equilibrium)) ctx.addIssue({ code: "custom", path: ["equilibrium", ...issue.path], message: issue.message });
+  }
+});
 export type CaseInput = z.infer<typeof caseInputSchema>;
 /** What a case stores as its inputs (title and notes live on the case row). */
 export type CaseInputs = Omit<CaseInput, "title" | "notes">;
@@ -109,17 +109,16 @@ export const lockSchema = strictObject({ lockVersion: z.number({ error: "Send th
  * The service checks the merged case against caseInputSchema.
  */
 export const caseUpdateSchema = strictObject({
-    title: caseFields.title.optional(),
-    notes: caseFields.notes.optional(),
-    terms: caseFields.terms.optional(),
-    temperatures: caseFields.temperatures.optional(),
-    referenceK: caseFields.referenceK.optional(),
-    toleranceKJ: caseFields.toleranceKJ.optional(),
-    toleranceKFactor: caseFields.toleranceKFactor.optional(),
-    equilibrium: caseFields.equilibrium.optional(),
-    lockVersion: lockSchema.shape.lockVersion,
-  })
-  .strict();
+  title: caseFields.title.optional(),
+  notes: caseFields.notes.optional(),
+  terms: caseFields.terms.optional(),
+  temperatures: caseFields.temperatures.optional(),
+  referenceK: caseFields.referenceK.optional(),
+  toleranceKJ: caseFields.toleranceKJ.optional(),
+  toleranceKFactor: caseFields.toleranceKFactor.optional(),
+  equilibrium: caseFields.equilibrium.optional(),
+  lockVersion: lockSchema.shape.lockVersion,
+}).strict();
 export type CaseUpdate = z.infer<typeof caseUpdateSchema>;
 
 export const caseListQuerySchema = strictObject({
@@ -128,16 +127,15 @@ export const caseListQuerySchema = strictObject({
 });
 
 export const decisionSchema = strictObject({
-    decision: z.enum(DECISIONS, { error: "Decide approved or returned." }),
-    reason: z.string().trim().max(2000, "Use at most 2000 characters.").default(""),
-    /** The revision the reviewer looked at; a newer submission makes the decision stale. */
-    revision: z.number().int().positive().optional(),
-  })
-  .superRefine((v, ctx) => {
-    if (v.decision === "returned" && v.reason.length < 5) {
-      ctx.addIssue({ code: "custom", path: ["reason"], message: "Say what needs to change (at least 5 characters)." });
-    }
-  });
+  decision: z.enum(DECISIONS, { error: "Decide approved or returned." }),
+  reason: z.string().trim().max(2000, "Use at most 2000 characters.").default(""),
+  /** The revision the reviewer looked at; a newer submission makes the decision stale. */
+  revision: z.number().int().positive().optional(),
+}).superRefine((v, ctx) => {
+  if (v.decision === "returned" && v.reason.length < 5) {
+    ctx.addIssue({ code: "custom", path: ["reason"], message: "Say what needs to change (at least 5 characters)." });
+  }
+});
 export type DecisionInput = z.infer<typeof decisionSchema>;
 
 export const commentSchema = strictObject({

@@ -9,49 +9,48 @@ const speciesKey = z.string().trim().min(1, "Name a species.").max(80, "Use at m
 
 export const extraTermSchema = strictObject({
   formula: z.string({ error: "Pick a species." }).trim().min(1, "Pick a species.").max(60, "Use at most 60 characters."),
-  phase: z
-    .string()
-    .regex(PHASE_NAME, { error: 'Use a phase of "cr", "l" or "g", or none for the stable phase.' })
-    .nullable(),
+  phase: z.string().regex(PHASE_NAME, { error: 'Use a phase of "cr", "l" or "g", or none for the stable phase.' }).nullable(),
   versionId: z.number({ error: "Pick a model version." }).int({ error: "Pick a model version." }).positive({ error: "Pick a model version." }),
 });
 export type ExtraTerm = z.infer<typeof extraTermSchema>;
 
 export const caseEquilibriumSchema = strictObject({
-    /** Feed amounts per species key (formula with phase marker, as in the reaction). */
-    feed: z.record(speciesKey, z.number({ error: "Enter an amount." }).min(0, "An amount cannot be negative.").max(1e12, "Use at most 1e12.")),
-    feedUnit: z.string().trim().min(1, "Name the unit of amount.").max(24, "Use at most 24 characters.").default("mol"),
-    /** Total pressure: a number in bar, or a number with a unit ("30 bar", "2.5 MPa"). */
-    pressure: z.union([z.number({ error: "Enter a pressure." }), z.string().trim().min(1, "Enter a pressure.").max(40)]).default(1),
-    key: speciesKey.nullable().default(null),
-    /** A simultaneous set; empty means the case's own reaction. */
-    reactions: z.array(z.string().trim().min(1, "Write the reaction.").max(400, "Use at most 400 characters.")).max(12, "Use at most 12 reactions.").default([]),
-    /** Pinned versions for species that appear only in the extra reactions (or inert species that carry heat in the adiabatic balance). */
-    extraTerms: z.array(extraTermSchema).max(20, "Use at most 20 extra species.").default([]),
-    /** Gas-phase model: ideal-gas activities (absent or "ideal"), or Peng–Robinson fugacity coefficients. */
-    gas: z.enum(["ideal", "peng-robinson"], { error: "Pick ideal gas or Peng–Robinson." }).optional(),
-    /** Adiabatic outlet: the feed's inlet temperature (K, or with a unit); null for none. */
-    adiabaticInletK: z.union([z.number({ error: "Enter a temperature." }).positive(aboveZeroKSentence()), z.string().trim().min(1, "Enter a temperature.").max(40)]).nullable().optional(),
-    /** Feed species that take no part in any reaction and only ride along (N2(g) in a reformer). */
-    inert: z.array(speciesKey).max(20, "Use at most 20 inert species.").default([]),
-  })
-  .superRefine((v, ctx) => {
-    // The panel's own checks, so the API refuses an unknown element, unit or a malformed line too.
-    for (const k of Object.keys(v.feed)) {
-      const bad = checkSpeciesKey(k);
-      if (bad) ctx.addIssue({ code: "custom", path: ["feed", k], message: bad });
-    }
-    const unit = checkFeedUnit(v.feedUnit);
-    if (unit) ctx.addIssue({ code: "custom", path: ["feedUnit"], message: unit });
-    const pressure = checkPressure(v.pressure);
-    if (pressure) ctx.addIssue({ code: "custom", path: ["pressure"], message: pressure });
-    v.reactions.forEach((r, i) => {
-      const bad = checkReactionLine(r);
-      if (bad) ctx.addIssue({ code: "custom", path: ["reactions", i], message: bad });
-    });
-    if (!Object.values(v.feed).some((n) => n > 0)) ctx.addIssue({ code: "custom", path: ["feed"], message: "Give at least one species a positive amount." });
-    if (v.key !== null && !(v.feed[v.key] > 0)) ctx.addIssue({ code: "custom", path: ["key"], message: "The key species needs an amount in the feed." });
+  /** Feed amounts per species key (formula with phase marker, as in the reaction). */
+  feed: z.record(speciesKey, z.number({ error: "Enter an amount." }).min(0, "An amount cannot be negative.").max(1e12, "Use at most 1e12.")),
+  feedUnit: z.string().trim().min(1, "Name the unit of amount.").max(24, "Use at most 24 characters.").default("mol"),
+  /** Total pressure: a number in bar, or a number with a unit ("30 bar", "2.5 MPa"). */
+  pressure: z.union([z.number({ error: "Enter a pressure." }), z.string().trim().min(1, "Enter a pressure.").max(40)]).default(1),
+  key: speciesKey.nullable().default(null),
+  /** A simultaneous set; empty means the case's own reaction. */
+  reactions: z.array(z.string().trim().min(1, "Write the reaction.").max(400, "Use at most 400 characters.")).max(12, "Use at most 12 reactions.").default([]),
+  /** Pinned versions for species that appear only in the extra reactions (or inert species that carry heat in the adiabatic balance). */
+  extraTerms: z.array(extraTermSchema).max(20, "Use at most 20 extra species.").default([]),
+  /** Gas-phase model: ideal-gas activities (absent or "ideal"), or Peng–Robinson fugacity coefficients. */
+  gas: z.enum(["ideal", "peng-robinson"], { error: "Pick ideal gas or Peng–Robinson." }).optional(),
+  /** Adiabatic outlet: the feed's inlet temperature (K, or with a unit); null for none. */
+  adiabaticInletK: z
+    .union([z.number({ error: "Enter a temperature." }).positive(aboveZeroKSentence()), z.string().trim().min(1, "Enter a temperature.").max(40)])
+    .nullable()
+    .optional(),
+  /** Feed species that take no part in any reaction and only ride along (N2(g) in a reformer). */
+  inert: z.array(speciesKey).max(20, "Use at most 20 inert species.").default([]),
+}).superRefine((v, ctx) => {
+  // The panel's own checks, so the API refuses an unknown element, unit or a malformed line too.
+  for (const k of Object.keys(v.feed)) {
+    const bad = checkSpeciesKey(k);
+    if (bad) ctx.addIssue({ code: "custom", path: ["feed", k], message: bad });
+  }
+  const unit = checkFeedUnit(v.feedUnit);
+  if (unit) ctx.addIssue({ code: "custom", path: ["feedUnit"], message: unit });
+  const pressure = checkPressure(v.pressure);
+  if (pressure) ctx.addIssue({ code: "custom", path: ["pressure"], message: pressure });
+  v.reactions.forEach((r, i) => {
+    const bad = checkReactionLine(r);
+    if (bad) ctx.addIssue({ code: "custom", path: ["reactions", i], message: bad });
   });
+  if (!Object.values(v.feed).some((n) => n > 0)) ctx.addIssue({ code: "custom", path: ["feed"], message: "Give at least one species a positive amount." });
+  if (v.key !== null && !(v.feed[v.key] > 0)) ctx.addIssue({ code: "custom", path: ["key"], message: "The key species needs an amount in the feed." });
+});
 export type CaseEquilibrium = z.infer<typeof caseEquilibriumSchema>;
 
 /**

@@ -20,15 +20,28 @@ export const FAMILY_LABELS: Record<string, string> = {
 };
 
 const text = (max: number, what: string) =>
-  z.string({ error: `Enter ${what}.` }).trim().min(1, `Enter ${what}.`).max(max, `Use at most ${max} characters.`);
+  z
+    .string({ error: `Enter ${what}.` })
+    .trim()
+    .min(1, `Enter ${what}.`)
+    .max(max, `Use at most ${max} characters.`);
 /** A name or title: one line. */
 const line = (max: number, what: string) => oneLine(text(max, what));
 
 export const listModelsQuerySchema = strictObject({
   q: searchText(80).optional().default(""),
-  phase: z.union([z.literal(""), phaseSchema]).optional().default(""),
-  form: z.union([z.literal(""), z.enum(CP_FORMS, { error: `Choose a form: ${CP_FORMS.join(", ")}.` })]).optional().default(""),
-  status: z.enum(VERSION_STATUS_FILTERS, { error: `Choose a status: ${VERSION_STATUS_FILTERS.join(", ")}.` }).optional().default("current"),
+  phase: z
+    .union([z.literal(""), phaseSchema])
+    .optional()
+    .default(""),
+  form: z
+    .union([z.literal(""), z.enum(CP_FORMS, { error: `Choose a form: ${CP_FORMS.join(", ")}.` })])
+    .optional()
+    .default(""),
+  status: z
+    .enum(VERSION_STATUS_FILTERS, { error: `Choose a status: ${VERSION_STATUS_FILTERS.join(", ")}.` })
+    .optional()
+    .default("current"),
   scope: z.enum(["all", "reference", "team"], { error: "Choose a scope: all, reference or team." }).optional().default("all"),
   page: z.coerce.number({ error: "Expected a page number." }).int().min(1, "Pages start at 1.").optional().default(1),
   pageSize: z.coerce.number({ error: "Expected a page size." }).int().min(1).max(100, "At most 100 per page.").optional().default(20),
@@ -55,10 +68,10 @@ export const createSpeciesSchema = strictObject({
 export type CreateSpeciesInput = z.infer<typeof createSpeciesSchema>;
 
 export const uncertaintySchema = strictObject({
-    dfHkJ: z.number().nonnegative("An uncertainty cannot be negative.").optional(),
-    sJ: z.number().nonnegative("An uncertainty cannot be negative.").optional(),
-    cpRelative: z.number().nonnegative("An uncertainty cannot be negative.").max(1, "Give a fraction, e.g. 0.005 for 0.5 %.").optional(),
-  })
+  dfHkJ: z.number().nonnegative("An uncertainty cannot be negative.").optional(),
+  sJ: z.number().nonnegative("An uncertainty cannot be negative.").optional(),
+  cpRelative: z.number().nonnegative("An uncertainty cannot be negative.").max(1, "Give a fraction, e.g. 0.005 for 0.5 %.").optional(),
+})
   .nullable()
   .optional();
 
@@ -77,20 +90,16 @@ export const editVersionSchema = versionInputSchema.partial().extend({
 export type EditVersionInput = z.input<typeof editVersionSchema>;
 
 export const createModelSchema = strictObject({
-    speciesId: z.number().int().positive().optional(),
-    species: createSpeciesSchema.optional(),
-    name: line(160, "a model name"),
-    family: z.string().trim().min(1).max(40).optional().default("custom"),
-    variant: oneLine(z.string().trim().max(40)).nullable().optional(),
-    version: versionInputSchema,
-  })
-  .refine((v) => v.speciesId !== undefined || v.species !== undefined, { message: "Choose a species or enter a new one.", path: ["speciesId"] });
+  speciesId: z.number().int().positive().optional(),
+  species: createSpeciesSchema.optional(),
+  name: line(160, "a model name"),
+  family: z.string().trim().min(1).max(40).optional().default("custom"),
+  variant: oneLine(z.string().trim().max(40)).nullable().optional(),
+  version: versionInputSchema,
+}).refine((v) => v.speciesId !== undefined || v.species !== undefined, { message: "Choose a species or enter a new one.", path: ["speciesId"] });
 export type CreateModelInput = z.input<typeof createModelSchema>;
 
-export const newVersionSchema = z.union([
-  strictObject({ fromVersionId: z.number().int().positive() }),
-  versionInputSchema,
-]);
+export const newVersionSchema = z.union([strictObject({ fromVersionId: z.number().int().positive() }), versionInputSchema]);
 
 export const rejectSchema = strictObject({
   reason: z.string({ error: "Give a reason for the author." }).trim().min(3, "Give a reason for the author.").max(2000, "Use at most 2000 characters."),
@@ -126,8 +135,14 @@ export const datasetUploadSchema = strictObject({
   filename: z.string().trim().max(255).nullable().optional(),
   text: z.string({ error: "Choose a file or paste the data." }).min(1, "Choose a file or paste the data."),
   /** Units when the header does not say; "" = read them from the header. */
-  tUnit: z.union([z.literal(""), z.enum(T_UNITS)]).optional().default(""),
-  cpUnit: z.union([z.literal(""), z.enum(CP_UNITS)]).optional().default(""),
+  tUnit: z
+    .union([z.literal(""), z.enum(T_UNITS)])
+    .optional()
+    .default(""),
+  cpUnit: z
+    .union([z.literal(""), z.enum(CP_UNITS)])
+    .optional()
+    .default(""),
   speciesId: z.number().int().positive().nullable().optional(),
   /** A new team species, when the measured solid is not in the library yet. */
   species: createSpeciesSchema.optional(),
@@ -139,15 +154,14 @@ export type DatasetUploadInput = z.input<typeof datasetUploadSchema>;
 const positiveK = z.number({ error: "Enter a temperature in K." }).positive(aboveZeroKSentence());
 
 export const fitParamsSchema = strictObject({
-    form: z.enum(FIT_FORMS, { error: `Choose a form to fit: ${FIT_FORMS.join(", ")}.` }),
-    tminK: positiveK.optional(),
-    tmaxK: positiveK.optional(),
-    exponents: z.array(z.int().min(-3).max(4)).optional(),
-    /** Without it: the dataset's phase, else the species' one phase; never a silent "cr". */
-    phase: phaseSchema.optional(),
-    reference: strictObject({ tK: positiveK.optional(), hkJ: z.number({ error: "Enter H in kJ/mol." }), sJ: z.number({ error: "Enter S in J/(mol·K)." }) }).optional(),
-  })
-  .refine((v) => v.tminK === undefined || v.tmaxK === undefined || v.tminK < v.tmaxK, { message: "The lower limit must be below the upper one.", path: ["tmaxK"] });
+  form: z.enum(FIT_FORMS, { error: `Choose a form to fit: ${FIT_FORMS.join(", ")}.` }),
+  tminK: positiveK.optional(),
+  tmaxK: positiveK.optional(),
+  exponents: z.array(z.int().min(-3).max(4)).optional(),
+  /** Without it: the dataset's phase, else the species' one phase; never a silent "cr". */
+  phase: phaseSchema.optional(),
+  reference: strictObject({ tK: positiveK.optional(), hkJ: z.number({ error: "Enter H in kJ/mol." }), sJ: z.number({ error: "Enter S in J/(mol·K)." }) }).optional(),
+}).refine((v) => v.tminK === undefined || v.tmaxK === undefined || v.tminK < v.tmaxK, { message: "The lower limit must be below the upper one.", path: ["tmaxK"] });
 export type FitParams = z.input<typeof fitParamsSchema>;
 
 export const saveFitSchema = strictObject({
@@ -174,8 +188,17 @@ export const exportedVersionSchema = strictObject({
 });
 
 export const exportedModelSchema = strictObject({
-  species: strictObject({ formula: formulaSchema, displayName: z.string().min(1).refine((s) => !hasControl(s), ONE_LINE) }),
-  name: z.string().min(1).refine((s) => !hasControl(s), ONE_LINE),
+  species: strictObject({
+    formula: formulaSchema,
+    displayName: z
+      .string()
+      .min(1)
+      .refine((s) => !hasControl(s), ONE_LINE),
+  }),
+  name: z
+    .string()
+    .min(1)
+    .refine((s) => !hasControl(s), ONE_LINE),
   family: z.string().min(1).max(40),
   variant: z.string().max(40).nullable().optional(),
   versions: z.array(exportedVersionSchema).min(1, "A model needs at least one version."),
@@ -196,7 +219,11 @@ export const exportQuerySchema = strictObject({
     .optional()
     .default("")
     .transform((s, ctx) => {
-      const ids = s.split(",").map((x) => x.trim()).filter(Boolean).map(Number);
+      const ids = s
+        .split(",")
+        .map((x) => x.trim())
+        .filter(Boolean)
+        .map(Number);
       if (ids.some((n) => !Number.isInteger(n) || n <= 0)) {
         ctx.addIssue({ code: "custom", message: "Give model ids separated by commas." });
         return z.NEVER;

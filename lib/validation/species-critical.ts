@@ -13,8 +13,12 @@ const finite = (what: string) => z.number({ error: `Enter ${what} as a number.` 
 
 const CRITICAL_LIMITS = { tcK: 5000, pcBar: 5000, omegaMin: -1, omegaMax: 2 } as const;
 
-const tcK = finite("the critical temperature").gt(0, "A critical temperature must be above 0 K.").max(CRITICAL_LIMITS.tcK, `A critical temperature above ${CRITICAL_LIMITS.tcK} K is not plausible.`);
-const pcBar = finite("the critical pressure").gt(0, "A critical pressure must be above 0 bar.").max(CRITICAL_LIMITS.pcBar, `A critical pressure above ${CRITICAL_LIMITS.pcBar} bar is not plausible.`);
+const tcK = finite("the critical temperature")
+  .gt(0, "A critical temperature must be above 0 K.")
+  .max(CRITICAL_LIMITS.tcK, `A critical temperature above ${CRITICAL_LIMITS.tcK} K is not plausible.`);
+const pcBar = finite("the critical pressure")
+  .gt(0, "A critical pressure must be above 0 bar.")
+  .max(CRITICAL_LIMITS.pcBar, `A critical pressure above ${CRITICAL_LIMITS.pcBar} bar is not plausible.`);
 const omega = finite("the acentric factor")
   .min(CRITICAL_LIMITS.omegaMin, `An acentric factor runs from ${CRITICAL_LIMITS.omegaMin} to ${CRITICAL_LIMITS.omegaMax}.`)
   .max(CRITICAL_LIMITS.omegaMax, `An acentric factor runs from ${CRITICAL_LIMITS.omegaMin} to ${CRITICAL_LIMITS.omegaMax}.`);

@@ -13,7 +13,12 @@ export const ONE_LINE = "Use one line: no line breaks or control characters.";
 export const SEARCH_CONTROL = "Search text cannot hold control characters (such as a NUL byte).";
 
 /** A search box: trimmed, at most `max` characters, no control characters. */
-export const searchText = (max = 80) => z.string().trim().max(max, `Use at most ${max} characters.`).refine((s) => !hasControl(s), SEARCH_CONTROL);
+export const searchText = (max = 80) =>
+  z
+    .string()
+    .trim()
+    .max(max, `Use at most ${max} characters.`)
+    .refine((s) => !hasControl(s), SEARCH_CONTROL);
 
 /** Refine an already-trimmed string schema to one line. */
 export const oneLine = <T extends z.ZodString>(schema: T) => schema.refine((s) => !hasControl(s), ONE_LINE);

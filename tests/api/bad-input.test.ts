@@ -44,7 +44,10 @@ describe("sign-in refusals", () => {
   it("refuses an oversized body with 413 and writes nothing", async () => {
     await signInAs("admin");
     const before = await tableCounts();
-    const response = await invitations.POST(jsonRequest("POST", "/api/v1/team/invitations", { email: "big@example.test", role: "engineer", pad: "x".repeat(1_100_000) }), undefined);
+    const response = await invitations.POST(
+      jsonRequest("POST", "/api/v1/team/invitations", { email: "big@example.test", role: "engineer", pad: "x".repeat(1_100_000) }),
+      undefined,
+    );
     expect(response.status).toBe(413);
     expect(await bodyOf(response)).toMatchObject({ error: { code: "body-too-large" } });
     expect(await tableCounts()).toEqual(before);

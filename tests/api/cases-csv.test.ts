@@ -21,7 +21,9 @@ beforeAll(async () => {
 afterAll(() => closeDb());
 
 async function both(id: number, query = "") {
-  const results = (await bodyOf(await resultsRoute.GET(jsonRequest("GET", `/api/v1/cases/${id}/results${query}`), ctx({ id: String(id) }) as { params: Promise<{ id: string }> }))) as ResultsDto;
+  const results = (await bodyOf(
+    await resultsRoute.GET(jsonRequest("GET", `/api/v1/cases/${id}/results${query}`), ctx({ id: String(id) }) as { params: Promise<{ id: string }> }),
+  )) as ResultsDto;
   const response = await exportRoute.GET(jsonRequest("GET", `/api/v1/cases/${id}/export${query}`), ctx({ id: String(id) }) as { params: Promise<{ id: string }> });
   expect(response.status).toBe(200);
   expect(response.headers.get("content-type")).toMatch(/^text\/csv/);

@@ -120,7 +120,18 @@ describe("GET /api/v1/health?deep=1", () => {
   it("degraded (still 200) when due mail has waited longer than the limit: no worker is claiming", async () => {
     const { models } = await import("@/lib/db");
     const old = new Date(Date.now() - 3_600_000);
-    await models().MailMessage.create({ teamId: null, kind: "invitation", recipients: ["stuck@example.test"], subject: "s", body: "b", nextAttemptAt: old, claimToken: null, claimedAt: null, sentAt: null, lastError: null });
+    await models().MailMessage.create({
+      teamId: null,
+      kind: "invitation",
+      recipients: ["stuck@example.test"],
+      subject: "s",
+      body: "b",
+      nextAttemptAt: old,
+      claimToken: null,
+      claimedAt: null,
+      sentAt: null,
+      lastError: null,
+    });
     const r = await deep();
     expect(r.status).toBe(200);
     expect(r.body.status).toBe("degraded");

@@ -19,12 +19,18 @@ const sp = (n: string): SpeciesInput => speciesEntry("shomate-janaf", n, "g");
 const request = {
   reaction: "CH4(g) + H2O(g) -> CO(g) + 3 H2(g)",
   species: {
-    "CH4(g)": sp("CH4"), "H2O(g)": sp("H2O"), "CO(g)": { ...sp("CO"), uncertainty: { dfHkJ: 0.17, sJ: 0.004 } },
-    "CO2(g)": sp("CO2"), "H2(g)": sp("H2"),
+    "CH4(g)": sp("CH4"),
+    "H2O(g)": sp("H2O"),
+    "CO(g)": { ...sp("CO"), uncertainty: { dfHkJ: 0.17, sJ: 0.004 } },
+    "CO2(g)": sp("CO2"),
+    "H2(g)": sp("H2"),
   },
   temperatures: { fromK: "600 degC", toK: "900 degC", stepK: "100 degC" },
   equilibrium: {
-    feed: { "CH4(g)": 1, "H2O(g)": 3, "N2(g)": 0.05 }, feedUnit: "kmol/h", pressureBar: "2.5 MPa", key: "CH4(g)",
+    feed: { "CH4(g)": 1, "H2O(g)": 3, "N2(g)": 0.05 },
+    feedUnit: "kmol/h",
+    pressureBar: "2.5 MPa",
+    key: "CH4(g)",
     reactions: ["CH4(g) + H2O(g) -> CO(g) + 3 H2(g)", "CO(g) + H2O(g) -> CO2(g) + H2(g)"],
   },
 };

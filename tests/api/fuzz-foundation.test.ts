@@ -20,7 +20,15 @@ describe("generated hostile input never gets a 5xx and writes nothing", () => {
   });
 
   it("invitations (as admin)", async () => {
-    await hammer("invite", "admin", invitations.POST as Handler, "/api/v1/team/invitations", "POST", {}, hostileBody({ email: fc.string(), role: fc.constantFrom("admin", "root", "", "engineer ") }));
+    await hammer(
+      "invite",
+      "admin",
+      invitations.POST as Handler,
+      "/api/v1/team/invitations",
+      "POST",
+      {},
+      hostileBody({ email: fc.string(), role: fc.constantFrom("admin", "root", "", "engineer ") }),
+    );
   });
 
   it("role change (as admin)", async () => {
@@ -35,7 +43,15 @@ describe("generated hostile input never gets a 5xx and writes nothing", () => {
   });
 
   it("invitation acceptance", async () => {
-    await hammer("accept", "anonymous", accept.POST as Handler, "/api/v1/invitations/accept", "POST", {}, hostileBody({ token: fc.string(), name: fc.string(), password: fc.string() }));
+    await hammer(
+      "accept",
+      "anonymous",
+      accept.POST as Handler,
+      "/api/v1/invitations/accept",
+      "POST",
+      {},
+      hostileBody({ token: fc.string(), name: fc.string(), password: fc.string() }),
+    );
   });
 
   it("evaluate", async () => {

@@ -22,7 +22,12 @@ const data = { segments: [{ phase: "cr", form: "constant", tminK: 250, tmaxK: 90
 describe("library API", () => {
   it("PATCH with a stale lockVersion answers 409 with the current version", async () => {
     await signInAs("steward");
-    const created = (await bodyOf(await cpModels.POST(jsonRequest("POST", "/api/v1/models", { species: { formula: "TiO2", displayName: "Titania" }, name: "Titania", version: { data, citation: "Invented" } }), ctx()))) as { version: { id: number } };
+    const created = (await bodyOf(
+      await cpModels.POST(
+        jsonRequest("POST", "/api/v1/models", { species: { formula: "TiO2", displayName: "Titania" }, name: "Titania", version: { data, citation: "Invented" } }),
+        ctx(),
+      ),
+    )) as { version: { id: number } };
     const id = String(created.version.id);
     const first = await version.PATCH(jsonRequest("PATCH", `/api/v1/versions/${id}`, { lockVersion: 0, changeNote: "first" }), ctx({ id }));
     expect(first.status).toBe(200);
@@ -49,7 +54,11 @@ describe("library API", () => {
     const res = await datasets.POST(jsonRequest("POST", "/api/v1/datasets", { name: "Bad", text: "T,Cp\n300,x\n400,31\n" }), ctx());
     expect(res.status).toBe(422);
     expect(await bodyOf(res)).toEqual({
-      error: { code: "invalid-dataset", message: 'Row 2, column "Cp": "x" is not a number.', details: { rows: [{ row: 2, column: "Cp", message: 'Row 2, column "Cp": "x" is not a number.' }] } },
+      error: {
+        code: "invalid-dataset",
+        message: 'Row 2, column "Cp": "x" is not a number.',
+        details: { rows: [{ row: 2, column: "Cp", message: 'Row 2, column "Cp": "x" is not a number.' }] },
+      },
     });
     expect(await tableCounts()).toEqual(before);
   });

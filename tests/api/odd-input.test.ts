@@ -117,7 +117,10 @@ describe("equilibrium feed keys", () => {
     const trial = await preview.POST(jsonRequest("POST", "/api/v1/equilibrium/preview", { caseId: c.id, equilibrium: eq({ feed: { ...feed, "C0(g)": 2 } }) }), ctx());
     expect(trial.status).toBe(422);
     expect(((await bodyOf(trial)) as Refusal).error.details!.fields!["equilibrium.feed.C0(g)"]).toMatch(/not a species/);
-    const save = await saveEquilibrium.PUT(jsonRequest("PUT", `/api/v1/equilibrium/cases/${c.id}`, { lockVersion: c.lockVersion, equilibrium: eq({ feed: { ...feed, "C0(g)": 2 } }) }), ctx({ id: String(c.id) }) as never);
+    const save = await saveEquilibrium.PUT(
+      jsonRequest("PUT", `/api/v1/equilibrium/cases/${c.id}`, { lockVersion: c.lockVersion, equilibrium: eq({ feed: { ...feed, "C0(g)": 2 } }) }),
+      ctx({ id: String(c.id) }) as never,
+    );
     expect(save.status).toBe(422);
     expect(((await bodyOf(save)) as Refusal).error.details!.fields!["equilibrium.feed.C0(g)"]).toMatch(/not a species/);
   });
@@ -127,7 +130,19 @@ describe("CR/LF in titles and names", () => {
   const solidData = { segments: [{ phase: "cr", form: "constant", tminK: 250, tmaxK: 900, coeffs: { cpJ: 120 } }], reference: { tK: 298.15, phase: "cr", hkJ: -1000, sJ: 80 } };
   it.each([
     ["case title", () => cases.POST(jsonRequest("POST", "/api/v1/cases", shiftCase(refs, { title: "Shift check\r\nBcc: someone@example.test" })), ctx()), "title"],
-    ["model name", () => cpModels.POST(jsonRequest("POST", "/api/v1/models", { species: { formula: "Al2O3", displayName: "Alumina" }, name: "Alumina\nfake line", version: { data: solidData, citation: "Invented" } }), ctx()), "name"],
+    [
+      "model name",
+      () =>
+        cpModels.POST(
+          jsonRequest("POST", "/api/v1/models", {
+            species: { formula: "Al2O3", displayName: "Alumina" },
+            name: "Alumina\nfake line",
+            version: { data: solidData, citation: "Invented" },
+          }),
+          ctx(),
+        ),
+      "name",
+    ],
     ["species display name", () => species.POST(jsonRequest("POST", "/api/v1/species", { formula: "C9H20", displayName: "Nonane\r\n" + "x" }), ctx()), "displayName"],
     ["dataset name", () => datasets.POST(jsonRequest("POST", "/api/v1/datasets", { name: "Run\n7", text: "T,Cp\n300,100\n400,110\n" }), ctx()), "name"],
   ])("%s with a line break is refused with a field error", async (_what, call, field) => {

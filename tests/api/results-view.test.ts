@@ -101,7 +101,11 @@ describe("points: the drawing sample", () => {
     const whole = await view(small.id, "?format=columns&points=5000");
     const smallRows = (await results(small.id)).body as ResultsDto;
     expect(whole.result.sample).toEqual({ total: 12, points: 12 });
-    expectColumnsAt(whole.result.columns!, smallRows.result.points, smallRows.result.points.map((_, i) => i));
+    expectColumnsAt(
+      whole.result.columns!,
+      smallRows.result.points,
+      smallRows.result.points.map((_, i) => i),
+    );
 
     const big = await createCase(erin, caseInputSchema.parse(shiftCase(pins, { temperatures: { fromK: 400, toK: 900, stepK: 0.5 } })));
     await submitCase(erin, big.id, 0);

@@ -24,7 +24,10 @@ describe("misspelt fields in request bodies are refused", () => {
     const submitted = await models().Case.findOne({ where: { status: "submitted" } });
     await signInAs("reviewer");
     const before = await tableCounts();
-    const response = await comments.POST(jsonRequest("POST", `/api/v1/cases/${submitted!.id}/comments`, { body: "Check the purge (synthetic, invented for this test).", revison: 1 }), ctx({ id: String(submitted!.id) }) as { params: Promise<{ id: string }> });
+    const response = await comments.POST(
+      jsonRequest("POST", `/api/v1/cases/${submitted!.id}/comments`, { body: "Check the purge (synthetic, invented for this test).", revison: 1 }),
+      ctx({ id: String(submitted!.id) }) as { params: Promise<{ id: string }> },
+    );
     expect(response.status).toBe(422);
     expect(JSON.stringify(await bodyOf(response))).toContain("revison");
     expect(await tableCounts()).toEqual(before);
@@ -37,7 +40,10 @@ describe("misspelt fields in request bodies are refused", () => {
     expect(preview.status).toBe(422);
     expect(JSON.stringify(await bodyOf(preview))).toContain("caseID");
     const before = await tableCounts();
-    const save = await eqSave.PUT(jsonRequest("PUT", `/api/v1/equilibrium/cases/${draft!.id}`, { lockVersion: draft!.lockVersion, equilibrium: null, lockversion: 0 }), ctx({ id: String(draft!.id) }) as { params: Promise<{ id: string }> });
+    const save = await eqSave.PUT(
+      jsonRequest("PUT", `/api/v1/equilibrium/cases/${draft!.id}`, { lockVersion: draft!.lockVersion, equilibrium: null, lockversion: 0 }),
+      ctx({ id: String(draft!.id) }) as { params: Promise<{ id: string }> },
+    );
     expect(save.status).toBe(422);
     expect(JSON.stringify(await bodyOf(save))).toContain("lockversion");
     expect(await tableCounts()).toEqual(before);

@@ -76,7 +76,14 @@ const callerOf = (expect: Expect | ActionExpect): Exclude<Who, "steward2"> =>
 
 const isPlainObject = (v: unknown): v is Record<string, unknown> => typeof v === "object" && v !== null && !Array.isArray(v);
 
-async function refusedUnchanged(row: Row, prepared: { params?: Record<string, string>; headers?: Record<string, string> }, body: unknown, typo: string, meant: string | null, query = "") {
+async function refusedUnchanged(
+  row: Row,
+  prepared: { params?: Record<string, string>; headers?: Record<string, string> },
+  body: unknown,
+  typo: string,
+  meant: string | null,
+  query = "",
+) {
   await signInAs(callerOf(row.expect));
   const before = await databaseChecksum();
   const search = [row.query, query].filter(Boolean).join("&");

@@ -22,7 +22,9 @@ async function statusOf(page: Page) {
 /** The first row of the numbers table against the API's own numbers for the same case. */
 async function tableAgreesWithApi(page: Page, caseId: string) {
   await page.getByTestId("numbers-table").waitFor();
-  const api = (await (await page.request.get(`${baseURL()}/api/v1/cases/${caseId}/results`)).json()) as { result: { points: { tK: number; dGkJ: number; naiveDGkJ: number; diffKJ: number }[] } };
+  const api = (await (await page.request.get(`${baseURL()}/api/v1/cases/${caseId}/results`)).json()) as {
+    result: { points: { tK: number; dGkJ: number; naiveDGkJ: number; diffKJ: number }[] };
+  };
   const cells = page.getByTestId("numbers-table").locator("tbody tr").first().locator("td");
   expect(Number(await cells.nth(0).getAttribute("data-value"))).toBe(api.result.points[0].tK);
   expect(Number(await cells.nth(4).getAttribute("data-value"))).toBe(api.result.points[0].dGkJ);
@@ -87,7 +89,10 @@ describe("engineer → reviewer journey", () => {
     await page.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "Outbox" }).click();
     // Wait for the client navigation to land, or the reloads below would reload the page we came from.
     await page.waitForURL(/\/outbox$/);
-    const mail = page.getByTestId("caught-message").filter({ hasText: `Review requested: ${TITLE} (revision 1)` }).first();
+    const mail = page
+      .getByTestId("caught-message")
+      .filter({ hasText: `Review requested: ${TITLE} (revision 1)` })
+      .first();
     for (let i = 0; i < 20 && (await mail.count()) === 0; i++) {
       await page.waitForTimeout(500);
       await page.reload();

@@ -29,7 +29,11 @@ const query = <T>(sql: string): Promise<T[]> => queryDatabase<T>(prepared!, sql)
 const jsonValue = <T>(v: unknown): T => (typeof v === "string" ? JSON.parse(v) : v) as T;
 
 async function signIn(email: string): Promise<string> {
-  const r = await fetch(`${bases[0]}/api/v1/session`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ email, password: DEMO_PASSWORD }) });
+  const r = await fetch(`${bases[0]}/api/v1/session`, {
+    method: "POST",
+    headers: { "content-type": "application/json" },
+    body: JSON.stringify({ email, password: DEMO_PASSWORD }),
+  });
   expect(r.status).toBe(200);
   return r.headers.get("set-cookie")!.split(";")[0];
 }
@@ -56,12 +60,18 @@ describe("concurrency across two app servers on one database", () => {
   it("50 parallel edits of one draft: one success per lock version, the rest 409, no lost update", async () => {
     const sam = await signIn("sam.steward@example.test");
     const [species] = await query<{ id: number }>("SELECT id FROM species WHERE formula = 'NiAl2O4'");
-    const created = await call(0, sam, "POST", "/api/v1/models", { speciesId: species.id, name: "Concurrency draft", version: { data: solid, citation: "Invented for the concurrency test" } });
+    const created = await call(0, sam, "POST", "/api/v1/models", {
+      speciesId: species.id,
+      name: "Concurrency draft",
+      version: { data: solid, citation: "Invented for the concurrency test" },
+    });
     expect(created.status).toBeLessThan(300);
     const version = created.json.version as { id: number; lockVersion: number };
 
     // Round 1: everyone edits the same lock version.
-    const round1 = await Promise.all(Array.from({ length: 50 }, (_, i) => call(i, sam, "PATCH", `/api/v1/versions/${version.id}`, { lockVersion: version.lockVersion, citation: `edit ${i}` })));
+    const round1 = await Promise.all(
+      Array.from({ length: 50 }, (_, i) => call(i, sam, "PATCH", `/api/v1/versions/${version.id}`, { lockVersion: version.lockVersion, citation: `edit ${i}` })),
+    );
     const statuses = round1.map((r) => r.status);
     expect(statuses.filter((s) => s === 200)).toHaveLength(1);
     expect(statuses.filter((s) => s === 409)).toHaveLength(49);
@@ -84,7 +94,9 @@ describe("concurrency across two app servers on one database", () => {
     expect(landed.every(Boolean)).toBe(true);
     const [row] = await query<{ lock_version: number }>(`SELECT lock_version FROM model_versions WHERE id = ${version.id}`);
     expect(Number(row.lock_version)).toBe(version.lockVersion + 51);
-    const [audits] = await query<{ n: number }>(`SELECT COUNT(*) AS n FROM audit_events WHERE entity_type = 'model-version' AND entity_id = '${version.id}' AND action LIKE '%edit%'`);
+    const [audits] = await query<{ n: number }>(
+      `SELECT COUNT(*) AS n FROM audit_events WHERE entity_type = 'model-version' AND entity_id = '${version.id}' AND action LIKE '%edit%'`,
+    );
     expect(audits.n).toBe(51);
   });
 
@@ -116,9 +128,9 @@ describe("concurrency across two app servers on one database", () => {
     expect(created.map((r) => r.status)).toEqual(emails.map(() => 201));
     // Both servers' workers poll the one queue (and the enqueuing one is woken at once).
     const ours = async () =>
-      (await query<{ recipients: unknown; status: string; attempts: number }>("SELECT recipients, status, attempts FROM mail_messages WHERE kind = 'invitation' ORDER BY id")).filter((m) =>
-        emails.includes(jsonValue<string[]>(m.recipients)[0]),
-      );
+      (
+        await query<{ recipients: unknown; status: string; attempts: number }>("SELECT recipients, status, attempts FROM mail_messages WHERE kind = 'invitation' ORDER BY id")
+      ).filter((m) => emails.includes(jsonValue<string[]>(m.recipients)[0]));
     const until = Date.now() + 60_000;
     while ((await ours()).some((m) => m.status !== "sent") && Date.now() < until) await new Promise((r) => setTimeout(r, 250));
     const sent = await ours();

@@ -11,7 +11,12 @@ import { baseURL, browserForFile, openBrowser, SHOTS, shot, signIn } from "./bro
 const b = browserForFile();
 
 type Results = {
-  result: { points: { tK: number; diffKJ: number; sigmaDGkJ?: number }[]; contributions?: Record<string, number[]>; contributionsSigma?: Record<string, number[]>; warnings: { code: string; species?: string }[] };
+  result: {
+    points: { tK: number; diffKJ: number; sigmaDGkJ?: number }[];
+    contributions?: Record<string, number[]>;
+    contributionsSigma?: Record<string, number[]>;
+    warnings: { code: string; species?: string }[];
+  };
 };
 
 async function openCase(page: Page, title: string): Promise<string> {

@@ -23,7 +23,11 @@ function query<T>(file: string, sql: string): Promise<T[]> {
 }
 
 async function signIn(baseURL: string): Promise<string> {
-  const r = await fetch(`${baseURL}/api/v1/session`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ email: "alex.admin@example.test", password: DEMO_PASSWORD }) });
+  const r = await fetch(`${baseURL}/api/v1/session`, {
+    method: "POST",
+    headers: { "content-type": "application/json" },
+    body: JSON.stringify({ email: "alex.admin@example.test", password: DEMO_PASSWORD }),
+  });
   expect(r.status).toBe(200);
   return r.headers.get("set-cookie")!.split(";")[0];
 }
@@ -61,7 +65,7 @@ describe("crash safety", () => {
     killed = true;
     server.kill("SIGKILL");
     await Promise.all(workers);
-    await new Promise((r) => server!.exitCode !== null || server!.signalCode !== null ? r(null) : server!.once("exit", r));
+    await new Promise((r) => (server!.exitCode !== null || server!.signalCode !== null ? r(null) : server!.once("exit", r)));
     expect(acknowledged.length).toBeGreaterThanOrEqual(30);
 
     server = await startServer(prepared.env, prepared.port);

@@ -12,11 +12,19 @@ describe("the app's database", () => {
 
   it(`is ${pgAdminUrl() ? "PostgreSQL" : "SQLite"}, and a write through the app lands there`, async () => {
     expect(Boolean(target.databaseUrl)).toBe(Boolean(pgAdminUrl()));
-    const session = await fetch(`${baseURL()}/api/v1/session`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ email: "alex.admin@example.test", password: DEMO_PASSWORD }) });
+    const session = await fetch(`${baseURL()}/api/v1/session`, {
+      method: "POST",
+      headers: { "content-type": "application/json" },
+      body: JSON.stringify({ email: "alex.admin@example.test", password: DEMO_PASSWORD }),
+    });
     expect(session.status).toBe(200);
     const cookie = session.headers.get("set-cookie")!.split(";")[0];
     const email = `where-is-it-${Date.now()}@example.test`;
-    const r = await fetch(`${baseURL()}/api/v1/team/invitations`, { method: "POST", headers: { "content-type": "application/json", cookie }, body: JSON.stringify({ email, role: "engineer" }) });
+    const r = await fetch(`${baseURL()}/api/v1/team/invitations`, {
+      method: "POST",
+      headers: { "content-type": "application/json", cookie },
+      body: JSON.stringify({ email, role: "engineer" }),
+    });
     expect(r.status).toBe(201);
     expect(await queryDatabase<{ email: string }>(target, `SELECT email FROM invitations WHERE email = '${email}'`)).toEqual([{ email }]);
   });

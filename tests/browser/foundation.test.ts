@@ -31,7 +31,12 @@ describe.each(larkspur)("demo $role", (account) => {
       await expect(nav.getByRole("link", { name: label }).count()).resolves.toBe(1);
     }
     await shot(page, `home-${account.role}`);
-    for (const [label, heading] of [["Library", "Cp library"], ["Cases", "Cases"], ["Reviews", "Reviews"], ["Team", "Larkspur Hydrogen Works"]]) {
+    for (const [label, heading] of [
+      ["Library", "Cp library"],
+      ["Cases", "Cases"],
+      ["Reviews", "Reviews"],
+      ["Team", "Larkspur Hydrogen Works"],
+    ]) {
       await nav.getByRole("link", { name: label }).click();
       await page.getByRole("heading", { level: 1, name: heading }).waitFor();
       expect(await nav.getByRole("link", { name: label }).getAttribute("aria-current")).toBe("page");

@@ -34,9 +34,13 @@ describe("security headers", () => {
       body: JSON.stringify({ email: "erin.engineer@example.test", password: "larkspur-demo-2026" }),
     });
     const cookie = signIn.headers.get("set-cookie")!.split(";")[0];
-    const cross = await fetch(`${baseURL()}/api/v1/evaluate`, { method: "POST", headers: { cookie, origin: "http://evil.example.test", "content-type": "application/json" }, body: "{}" });
+    const cross = await fetch(`${baseURL()}/api/v1/evaluate`, {
+      method: "POST",
+      headers: { cookie, origin: "http://evil.example.test", "content-type": "application/json" },
+      body: "{}",
+    });
     expect(cross.status).toBe(403);
-    const bad = await fetch(`${baseURL()}/api/v1/evaluate`, { method: "POST", headers: { cookie, "content-type": "application/json" }, body: "{\"reaction\": " });
+    const bad = await fetch(`${baseURL()}/api/v1/evaluate`, { method: "POST", headers: { cookie, "content-type": "application/json" }, body: '{"reaction": ' });
     expect(bad.status).toBe(400);
     const text = await bad.text();
     expect(text).not.toMatch(/at \w+ \(|\.ts:\d+|SQLITE|SELECT /);
@@ -48,7 +52,11 @@ describe("nonce-based CSP and no-store", () => {
   it("allows only this response's nonce for scripts: no 'unsafe-inline', a fresh nonce each time, on every script tag", async () => {
     const one = await fetch(`${baseURL()}/sign-in`);
     const two = await fetch(`${baseURL()}/sign-in`);
-    const scriptSrc = (r: Response) => (r.headers.get("content-security-policy") ?? "").split(";").map((d) => d.trim()).find((d) => d.startsWith("script-src")) ?? "";
+    const scriptSrc = (r: Response) =>
+      (r.headers.get("content-security-policy") ?? "")
+        .split(";")
+        .map((d) => d.trim())
+        .find((d) => d.startsWith("script-src")) ?? "";
     expect(scriptSrc(one)).toMatch(/^script-src 'self' 'nonce-[A-Za-z0-9+/=]{20,}' 'strict-dynamic'$/);
     expect(scriptSrc(one)).not.toContain("unsafe-inline");
     expect(scriptSrc(one)).not.toBe(scriptSrc(two));

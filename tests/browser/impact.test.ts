@@ -34,24 +34,37 @@ describe("impact of a model version on pinned cases", () => {
       return r.body.versions.find((v) => v.status === "approved" && v.scope === "reference" && v.phases.includes("g") && v.family === "nasa7-2015")!.versionId;
     };
     const created = await api<{ case: { id: number } }>(page, "POST", "/api/v1/cases", {
-      title, notes: "Impact panel test (invented).",
+      title,
+      notes: "Impact panel test (invented).",
       terms: [
         { formula: "CH4", phase: "g", coefficient: -1, versionId: copy.approvedVersionId },
         { formula: "H2O", phase: "g", coefficient: -1, versionId: await pin("H2O") },
         { formula: "CO", phase: "g", coefficient: 1, versionId: await pin("CO") },
         { formula: "H2", phase: "g", coefficient: 3, versionId: await pin("H2") },
       ],
-      temperatures: { fromK: 900, toK: 1200, stepK: 50 }, referenceK: 298.15, toleranceKJ: 1, toleranceKFactor: null,
+      temperatures: { fromK: 900, toK: 1200, stepK: 50 },
+      referenceK: 298.15,
+      toleranceKJ: 1,
+      toleranceKFactor: null,
     });
     expect(created.status).toBe(201);
     await signOut(page);
 
     await signIn(page, "sam.steward@example.test");
-    const draft = await api<{ version: { id: number; lockVersion: number; data: { segments: ShomateSeg[] } } }>(page, "POST", `/api/v1/models/${copy.id}/versions`, { fromVersionId: copy.approvedVersionId });
+    const draft = await api<{ version: { id: number; lockVersion: number; data: { segments: ShomateSeg[] } } }>(page, "POST", `/api/v1/models/${copy.id}/versions`, {
+      fromVersionId: copy.approvedVersionId,
+    });
     expect(draft.status).toBe(201);
     versionId = draft.body.version.id;
-    const data = { ...draft.body.version.data, segments: draft.body.version.data.segments.map((s) => ({ ...s, coeffs: { ...s.coeffs, F: s.coeffs.F + 1.5, H: s.coeffs.H + 1.5 } })) };
-    const edited = await api(page, "PATCH", `/api/v1/versions/${versionId}`, { lockVersion: draft.body.version.lockVersion, data, changeNote: "ΔfH° raised by 1.5 kJ/mol (synthetic, for the impact test)." });
+    const data = {
+      ...draft.body.version.data,
+      segments: draft.body.version.data.segments.map((s) => ({ ...s, coeffs: { ...s.coeffs, F: s.coeffs.F + 1.5, H: s.coeffs.H + 1.5 } })),
+    };
+    const edited = await api(page, "PATCH", `/api/v1/versions/${versionId}`, {
+      lockVersion: draft.body.version.lockVersion,
+      data,
+      changeNote: "ΔfH° raised by 1.5 kJ/mol (synthetic, for the impact test).",
+    });
     expect(edited.status).toBe(200);
     expect((await api(page, "POST", `/api/v1/versions/${versionId}/propose`)).status).toBe(200);
     await signOut(page);

@@ -61,7 +61,10 @@ describe("the case page asks for its results once", () => {
       // The next page of the table: that page only; back to the first: nothing asked.
       const results = page.getByTestId("results");
       await results.getByRole("button", { name: "Next" }).click();
-      await page.getByTestId("table-range").filter({ hasText: `Rows 51–${Math.min(100, points)} of ${points}` }).waitFor();
+      await page
+        .getByTestId("table-range")
+        .filter({ hasText: `Rows 51–${Math.min(100, points)} of ${points}` })
+        .waitFor();
       await page.waitForLoadState("networkidle");
       expect(seen).toHaveLength(2);
       expect(query(seen[1])).toEqual({ format: "columns", offset: "50", limit: "50" });
@@ -70,7 +73,10 @@ describe("the case page asks for its results once", () => {
       expect(Number(await first.nth(0).getAttribute("data-value"))).toBe(api.result.points[50].tK);
       expect(Number(await first.nth(4).getAttribute("data-value"))).toBe(api.result.points[50].dGkJ);
       await results.getByRole("button", { name: "Previous" }).click();
-      await page.getByTestId("table-range").filter({ hasText: `Rows 1–50 of ${points}` }).waitFor();
+      await page
+        .getByTestId("table-range")
+        .filter({ hasText: `Rows 1–50 of ${points}` })
+        .waitFor();
       expect(Number(await first.nth(0).getAttribute("data-value"))).toBe(api.result.points[0].tK);
       expect(seen).toHaveLength(2);
     });

@@ -12,7 +12,14 @@ import { baseURL, browserForFile, shot, signIn, signOut } from "./browser";
 const b = browserForFile();
 
 const AMMONIA = "Ammonia loop near 700 K";
-type CaseJson = { case: { id: number; lockVersion: number; status: string; inputs: { temperatures: { fromK: number; toK: number; stepK: number }; equilibrium: { feed: Record<string, number>; pressure: string | number; feedUnit: string } | null } } };
+type CaseJson = {
+  case: {
+    id: number;
+    lockVersion: number;
+    status: string;
+    inputs: { temperatures: { fromK: number; toK: number; stepK: number }; equilibrium: { feed: Record<string, number>; pressure: string | number; feedUnit: string } | null };
+  };
+};
 
 async function openCase(page: Page, title: string): Promise<string> {
   await page.goto(`${baseURL()}/cases`);
@@ -122,7 +129,9 @@ describe("a case edit keeps what the form does not show (item 1) and review is c
     await page.getByTestId("comments").getByText("Purge at 2 %").waitFor();
     // Drop the feed on purpose (a PATCH that names it) and start the span in extrapolation, then resubmit.
     const c = await caseJson(page, id);
-    const patched = await page.request.patch(`${baseURL()}/api/v1/cases/${id}`, { data: { equilibrium: null, temperatures: { fromK: 150, toK: 800, stepK: 10 }, lockVersion: c.lockVersion } });
+    const patched = await page.request.patch(`${baseURL()}/api/v1/cases/${id}`, {
+      data: { equilibrium: null, temperatures: { fromK: 150, toK: 800, stepK: 10 }, lockVersion: c.lockVersion },
+    });
     expect(patched.status()).toBe(200);
     await page.reload();
     await page.getByRole("button", { name: "Resubmit for review" }).click();
@@ -408,7 +417,9 @@ describe("the audit trail on screen, and proposals from Home (item 13)", () => {
     const species = (await (await page.request.get(`${baseURL()}/api/v1/species?q=N2`)).json()) as { items: { id: number; formula: string }[] };
     const n2 = species.items.find((x) => x.formula === "N2")!;
     const data = { segments: [{ phase: "g", form: "constant", tminK: 298.15, tmaxK: 1000, coeffs: { cpJ: 29.1 } }], reference: { tK: 298.15, phase: "g", hkJ: 0, sJ: 191.6 } };
-    const created = await page.request.post(`${baseURL()}/api/v1/models`, { data: { speciesId: n2.id, name: "N2 home-link check (synthetic)", version: { data, citation: "Synthetic, invented for this test" } } });
+    const created = await page.request.post(`${baseURL()}/api/v1/models`, {
+      data: { speciesId: n2.id, name: "N2 home-link check (synthetic)", version: { data, citation: "Synthetic, invented for this test" } },
+    });
     expect(created.status()).toBe(201);
     const versionId = ((await created.json()) as { version: { id: number } }).version.id;
     expect((await page.request.post(`${baseURL()}/api/v1/versions/${versionId}/propose`)).status()).toBe(200);

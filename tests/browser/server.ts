@@ -76,7 +76,14 @@ export async function prepareDatabase(extraEnv: Record<string, string> = {}, opt
   const baseURL = `http://127.0.0.1:${port}`;
   const admin = options.dialect === "sqlite" ? undefined : pgAdminUrl();
   const databaseUrl = admin ? await createPgDatabase(admin) : undefined;
-  const env: NodeJS.ProcessEnv = { ...process.env, HEATPATH_MODE: "demo", DATABASE_PATH: path.join(dir, "heatpath.sqlite"), APP_URL: baseURL, MAIL_CATCHER_PORT: String(await freePort()), ...extraEnv };
+  const env: NodeJS.ProcessEnv = {
+    ...process.env,
+    HEATPATH_MODE: "demo",
+    DATABASE_PATH: path.join(dir, "heatpath.sqlite"),
+    APP_URL: baseURL,
+    MAIL_CATCHER_PORT: String(await freePort()),
+    ...extraEnv,
+  };
   if (databaseUrl) env.DATABASE_URL = databaseUrl;
   else delete env.DATABASE_URL;
   for (const step of ["migrate", "seed"]) {

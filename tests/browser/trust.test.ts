@@ -98,10 +98,18 @@ describe("four-eyes on the version page (walked in chromium)", () => {
     const sam = await cookieFor("sam.steward@example.test");
     // Constant Cp of a solid with an anchor: synthetic, invented for this test.
     const data = { segments: [{ phase: "cr", form: "constant", tminK: 250, tmaxK: 900, coeffs: { cpJ: 120 } }], reference: { tK: 298.15, phase: "cr", hkJ: -1000, sJ: 80 } };
-    const created = await fetch(`${baseURL()}/api/v1/models`, { method: "POST", headers: json(erin), body: JSON.stringify({ species: { formula: "ZrO2", displayName: "Zirconia" }, name: "Four-eyes walk", version: { data, citation: "Invented for the browser test" } }) });
+    const created = await fetch(`${baseURL()}/api/v1/models`, {
+      method: "POST",
+      headers: json(erin),
+      body: JSON.stringify({ species: { formula: "ZrO2", displayName: "Zirconia" }, name: "Four-eyes walk", version: { data, citation: "Invented for the browser test" } }),
+    });
     expect(created.status).toBe(201);
     const id = ((await created.json()) as { version: { id: number } }).version.id;
-    const edited = await fetch(`${baseURL()}/api/v1/versions/${id}`, { method: "PATCH", headers: json(sam), body: JSON.stringify({ lockVersion: 0, data: { ...data, segments: [{ ...data.segments[0], coeffs: { cpJ: 999 } }] } }) });
+    const edited = await fetch(`${baseURL()}/api/v1/versions/${id}`, {
+      method: "PATCH",
+      headers: json(sam),
+      body: JSON.stringify({ lockVersion: 0, data: { ...data, segments: [{ ...data.segments[0], coeffs: { cpJ: 999 } }] } }),
+    });
     expect(edited.status).toBe(200);
     expect((await fetch(`${baseURL()}/api/v1/versions/${id}/propose`, { method: "POST", headers: { cookie: erin } })).status).toBe(200);
     expect((await fetch(`${baseURL()}/api/v1/versions/${id}/approve`, { method: "POST", headers: { cookie: sam } })).status).toBe(403);

@@ -17,11 +17,29 @@ describe("model_version_contributors backfill", () => {
     const stella = await models().User.findOne({ where: { email: "stella.steward@example.test" } });
     const model = await models().CpModel.findOne({ where: { name: DEMO_MODEL_NAME } });
     const v2 = await models().ModelVersion.findOne({ where: { modelId: model!.id, versionNumber: 2 } });
-    await models().AuditEvent.create({ teamId: v2!.teamId, actorId: stella!.id, action: "model-version.edited", entityType: "model-version", entityId: String(v2!.id), before: null, after: null });
+    await models().AuditEvent.create({
+      teamId: v2!.teamId,
+      actorId: stella!.id,
+      action: "model-version.edited",
+      entityType: "model-version",
+      entityId: String(v2!.id),
+      before: null,
+      after: null,
+    });
     await migrator(sequelize).up();
-    const rows = await models().ModelVersionContributor.findAll({ where: { versionId: v2!.id }, order: [["userId", "ASC"], ["role", "ASC"]] });
+    const rows = await models().ModelVersionContributor.findAll({
+      where: { versionId: v2!.id },
+      order: [
+        ["userId", "ASC"],
+        ["role", "ASC"],
+      ],
+    });
     expect(rows.map((r) => [r.userId, r.role])).toEqual(
-      [[sam!.id, "author"], [sam!.id, "proposer"], [stella!.id, "editor"]].sort((a, b) => Number(a[0]) - Number(b[0]) || String(a[1]).localeCompare(String(b[1]))),
+      [
+        [sam!.id, "author"],
+        [sam!.id, "proposer"],
+        [stella!.id, "editor"],
+      ].sort((a, b) => Number(a[0]) - Number(b[0]) || String(a[1]).localeCompare(String(b[1]))),
     );
   });
 });

@@ -114,13 +114,24 @@ describe(`db:copy SQLite → ${admin ? "PostgreSQL" : "SQLite (no PostgreSQL in 
       expect(await counts(s)).toEqual(sourceCounts);
       const snaps = await s.query<Record<string, unknown>>("SELECT * FROM case_snapshots ORDER BY id", { type: QueryTypes.SELECT });
       const parse = (v: unknown) => (typeof v === "string" ? JSON.parse(v) : v);
-      for (const r of snaps) expect(canonicalSha256({ inputs: parse(r.inputs), pins: parse(r.pins), engineVersion: r.engine_version, request: parse(r.request), result: parse(r.result) })).toBe(r.hash);
+      for (const r of snaps)
+        expect(canonicalSha256({ inputs: parse(r.inputs), pins: parse(r.pins), engineVersion: r.engine_version, request: parse(r.request), result: parse(r.result) })).toBe(r.hash);
       // The guards are live: a frozen snapshot cannot change.
-      await expect(s.query(`UPDATE case_snapshots SET hash = 'x' WHERE id = ${Number(snaps[0].id)}`)).rejects.toSatisfy((e: unknown) => /case snapshots are immutable/.test(String((e as { parent?: Error }).parent?.message ?? e)));
+      await expect(s.query(`UPDATE case_snapshots SET hash = 'x' WHERE id = ${Number(snaps[0].id)}`)).rejects.toSatisfy((e: unknown) =>
+        /case snapshots are immutable/.test(String((e as { parent?: Error }).parent?.message ?? e)),
+      );
       // The sequences were moved past the copied ids: the app's next insert does not collide.
       const m = defineModels(s);
       const team = await m.Team.findOne({ order: [["id", "ASC"]] });
-      const ev = await m.AuditEvent.create({ teamId: team!.id, actorId: null, action: "copy.checked", entityType: "team", entityId: String(team!.id), before: null, after: null } as never);
+      const ev = await m.AuditEvent.create({
+        teamId: team!.id,
+        actorId: null,
+        action: "copy.checked",
+        entityType: "team",
+        entityId: String(team!.id),
+        before: null,
+        after: null,
+      } as never);
       expect(ev.id).toBeGreaterThan(sourceCounts.audit_events);
     });
   });
@@ -166,9 +177,20 @@ describe(`db:copy SQLite → ${admin ? "PostgreSQL" : "SQLite (no PostgreSQL in 
   });
 
   it("foreign-key order puts parents first and refuses a cycle", () => {
-    const deps = new Map([["b", new Set(["a"])], ["a", new Set<string>()], ["c", new Set(["b", "c"])]]);
+    const deps = new Map([
+      ["b", new Set(["a"])],
+      ["a", new Set<string>()],
+      ["c", new Set(["b", "c"])],
+    ]);
     expect(foreignKeyOrder(deps)).toEqual(["a", "b", "c"]);
-    expect(() => foreignKeyOrder(new Map([["x", new Set(["y"])], ["y", new Set(["x"])]]))).toThrow(/cycle/);
+    expect(() =>
+      foreignKeyOrder(
+        new Map([
+          ["x", new Set(["y"])],
+          ["y", new Set(["x"])],
+        ]),
+      ),
+    ).toThrow(/cycle/);
   });
 
   it("the CLI: --dry-run exits 0 with the plan; a non-empty target exits 1 naming the refusal; bad usage exits 2", async () => {

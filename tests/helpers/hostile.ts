@@ -6,13 +6,12 @@ import { bodyOf, ctx, jsonRequest } from "./request";
 
 export type Handler = (request: Request, context: { params: Promise<Record<string, string>> }) => Promise<Response>;
 
-
 /** Strings a careless parser trips on: formulas for spreadsheets, path tricks, odd Unicode, markup. */
 export const nastyString = fc.oneof(
   fc.string(),
   fc.string({ unit: "grapheme", maxLength: 40 }),
   fc.constantFrom(
-    "=HYPERLINK(\"http://evil.example.test\")",
+    '=HYPERLINK("http://evil.example.test")',
     "+cmd|' /C calc'!A0",
     "-2+3",
     "@SUM(1)",
@@ -42,10 +41,27 @@ export function hostileBody(shape: Record<string, fc.Arbitrary<unknown>>, option
   );
   return fc.oneof(
     mutated.map((v) => JSON.stringify(v)),
-    fc.anything().filter((v) => typeof v !== "object" || v === null || Array.isArray(v)).map((v) => JSON.stringify(v) ?? "null"),
-    fc.constantFrom("NaN", "Infinity", "-Infinity", "{\"a\": NaN}", "{\"fromK\": 1e999}", "", "{", "}", "[]", "null", "\"\"", "{\"__proto__\": {\"polluted\": true}}", "{\"constructor\": {\"prototype\": {\"x\": 1}}}"),
+    fc
+      .anything()
+      .filter((v) => typeof v !== "object" || v === null || Array.isArray(v))
+      .map((v) => JSON.stringify(v) ?? "null"),
+    fc.constantFrom(
+      "NaN",
+      "Infinity",
+      "-Infinity",
+      '{"a": NaN}',
+      '{"fromK": 1e999}',
+      "",
+      "{",
+      "}",
+      "[]",
+      "null",
+      '""',
+      '{"__proto__": {"polluted": true}}',
+      '{"constructor": {"prototype": {"x": 1}}}',
+    ),
     fc.integer({ min: 1000, max: 20000 }).map((depth) => "[".repeat(depth) + "]".repeat(depth)),
-    fc.integer({ min: 100, max: 3000 }).map((depth) => "{\"a\":".repeat(depth) + "1" + "}".repeat(depth)),
+    fc.integer({ min: 100, max: 3000 }).map((depth) => '{"a":'.repeat(depth) + "1" + "}".repeat(depth)),
     fc.string({ unit: "binary" }),
   );
 }
@@ -68,4 +84,3 @@ export async function hammer(name: string, who: Who, handler: Handler, url: stri
   expect(await databaseChecksum()).toBe(before);
   return seen;
 }
-

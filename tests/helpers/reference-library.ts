@@ -29,10 +29,18 @@ export async function ensureReferenceLibrary(): Promise<Record<RefFormula, numbe
   for (const formula of FORMULAS) {
     const [species] = await Species.findOrCreate({
       where: { teamId: null, formula },
-      defaults: { teamId: null, formula, displayName: formula, elements: parseFormula(formula).elements, molarMassGPerMol: parseFormula(formula).molarMassGPerMol, identifiers: null },
+      defaults: {
+        teamId: null,
+        formula,
+        displayName: formula,
+        elements: parseFormula(formula).elements,
+        molarMassGPerMol: parseFormula(formula).molarMassGPerMol,
+        identifiers: null,
+      },
     });
     const existing = await CpModel.findOne({ where: { speciesId: species.id, teamId: null, family: FAMILY }, order: [["id", "ASC"]] });
-    const model = existing ?? (await CpModel.create({ speciesId: species.id, teamId: null, name: `${formula}, NASA-7 (2015)`, family: FAMILY, copiedFromId: null, createdById: null }));
+    const model =
+      existing ?? (await CpModel.create({ speciesId: species.id, teamId: null, name: `${formula}, NASA-7 (2015)`, family: FAMILY, copiedFromId: null, createdById: null }));
     const approved = await ModelVersion.findOne({ where: { modelId: model.id, status: "approved" }, order: [["versionNumber", "DESC"]] });
     if (approved) {
       out[formula] = approved.id;

@@ -15,7 +15,10 @@ describe("downsample (drawing only)", () => {
   });
 
   it("leaves a short series alone", () => {
-    const rows = [{ tK: 1, y: 1 }, { tK: 2, y: 2 }];
+    const rows = [
+      { tK: 1, y: 1 },
+      { tK: 2, y: 2 },
+    ];
     expect(downsample(rows, ["y"])).toEqual(rows);
   });
 });
@@ -69,9 +72,26 @@ describe("temperatures as entered", () => {
 
 describe("element balance", () => {
   it("names the elements that do not balance, products minus reactants", () => {
-    expect(elementBalance([{ formula: "N2", coefficient: -1 }, { formula: "H2", coefficient: -3 }, { formula: "NH3", coefficient: 2 }])).toEqual({ ok: true, elements: { N: 0, H: 0 } });
-    const off = elementBalance([{ formula: "CH4", coefficient: -1 }, { formula: "H2O", coefficient: -1 }, { formula: "CO", coefficient: 1 }, { formula: "H2", coefficient: 2 }]);
+    expect(
+      elementBalance([
+        { formula: "N2", coefficient: -1 },
+        { formula: "H2", coefficient: -3 },
+        { formula: "NH3", coefficient: 2 },
+      ]),
+    ).toEqual({ ok: true, elements: { N: 0, H: 0 } });
+    const off = elementBalance([
+      { formula: "CH4", coefficient: -1 },
+      { formula: "H2O", coefficient: -1 },
+      { formula: "CO", coefficient: 1 },
+      { formula: "H2", coefficient: 2 },
+    ]);
     expect(off).toMatchObject({ ok: false, message: "Not balanced: H -2 (products minus reactants)." });
-    expect(reactionText([{ key: "N2(g)", coefficient: -1 }, { key: "H2(g)", coefficient: -3 }, { key: "NH3(g)", coefficient: 2 }])).toBe("N2(g) + 3 H2(g) → 2 NH3(g)");
+    expect(
+      reactionText([
+        { key: "N2(g)", coefficient: -1 },
+        { key: "H2(g)", coefficient: -3 },
+        { key: "NH3(g)", coefficient: 2 },
+      ]),
+    ).toBe("N2(g) + 3 H2(g) → 2 NH3(g)");
   });
 });

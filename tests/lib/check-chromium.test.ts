@@ -21,7 +21,10 @@ describe("scripts/check-chromium.mjs (first step of npm test and test:browser)",
   });
 
   it("fails naming the one command when it cannot install (not root, or no apt-get), without trying", () => {
-    for (const machine of [{ isRoot: false, hasAptGet: true }, { isRoot: true, hasAptGet: false }]) {
+    for (const machine of [
+      { isRoot: false, hasAptGet: true },
+      { isRoot: true, hasAptGet: false },
+    ]) {
       let tried = false;
       const r = run({ ...quiet, ...machine, exists: () => false, install: () => (tried = true) });
       expect(r.ok).toBe(false);

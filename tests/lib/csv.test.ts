@@ -4,7 +4,7 @@ import { neutraliseCell, toCsv } from "@/lib/csv";
 // OWASP "CSV Injection": cells starting with = + - @ tab or CR run as formulas (common practice).
 describe("CSV cells", () => {
   it.each([
-    ["=HYPERLINK(\"http://evil.example.test\")", "'=HYPERLINK(\"http://evil.example.test\")"],
+    ['=HYPERLINK("http://evil.example.test")', '\'=HYPERLINK("http://evil.example.test")'],
     ["+cmd|' /C calc'!A0", "'+cmd|' /C calc'!A0"],
     ["-2+3", "'-2+3"],
     ["@SUM(A1)", "'@SUM(A1)"],
@@ -20,6 +20,14 @@ describe("CSV cells", () => {
   });
 
   it("neutralises headers and cells, keeps numbers as written", () => {
-    expect(toCsv(["tK", "=x"], [[300, "=1+1"], [-12.5, null]])).toBe("tK,'=x\n300,'=1+1\n-12.5,\n");
+    expect(
+      toCsv(
+        ["tK", "=x"],
+        [
+          [300, "=1+1"],
+          [-12.5, null],
+        ],
+      ),
+    ).toBe("tK,'=x\n300,'=1+1\n-12.5,\n");
   });
 });

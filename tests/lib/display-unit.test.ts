@@ -64,7 +64,9 @@ describe("sign-case sentence", () => {
 
   it("names a crossing the naive line never makes, and one the corrected curve does not make", () => {
     expect(signCaseSentence(base({ naiveK: null, naiveInSpan: false, correctedK: [850] }, false))).toContain("crosses zero at 850.0 K, which the naive line never does");
-    expect(signCaseSentence(base({ naiveK: 700, naiveInSpan: true, correctedK: [] }, false))).toContain("the naive line crosses zero at 700.0 K, but the corrected ΔrG keeps one sign");
+    expect(signCaseSentence(base({ naiveK: 700, naiveInSpan: true, correctedK: [] }, false))).toContain(
+      "the naive line crosses zero at 700.0 K, but the corrected ΔrG keeps one sign",
+    );
   });
 
   it("counts several corrected crossings", () => {

@@ -77,7 +77,7 @@ describe("engine pool, odd payloads", () => {
     const pooled = await refusalOf(runEngine(deep));
     expect(pooled).toBeInstanceOf(EngineRefusal);
     expect((pooled as EngineRefusal).toJSON()).toEqual(direct!.toJSON());
-    const nested = { ...smallRequest(), species: { "H2(g)": JSON.parse("{\"a\":".repeat(3000) + "1" + "}".repeat(3000)) } };
+    const nested = { ...smallRequest(), species: { "H2(g)": JSON.parse('{"a":'.repeat(3000) + "1" + "}".repeat(3000)) } };
     await expect(runEngine(nested)).rejects.toBeInstanceOf(EngineRefusal);
   });
 });

@@ -52,7 +52,9 @@ describe("the feed unit's hint", () => {
       // A mass unit goes through the molar mass; the panel's table of mass units says so and names the engine's amount unit.
       expect(MASS_FEED_UNITS[unit] ?? unit, unit).toBe(amountUnit);
       expect(Boolean(MASS_FEED_UNITS[unit]), unit).toBe(molarMass !== undefined);
-      expect(feedUnitHint(unit), unit).toBe(molarMass ? `A mass: each species is converted with its molar mass (from its formula); moles come back in ${amountUnit}.` : "Moles come back in the same unit.");
+      expect(feedUnitHint(unit), unit).toBe(
+        molarMass ? `A mass: each species is converted with its molar mass (from its formula); moles come back in ${amountUnit}.` : "Moles come back in the same unit.",
+      );
     }
   });
 });

@@ -51,7 +51,9 @@ describe("session secret", () => {
     // A cookie sealed with the published value does not open with the demo's secret.
     const forged = await sealData({ userId: 1, teamId: 1, issuedAt: Date.now() }, { password: DEVELOPMENT_SESSION_SECRET });
     expect(await unsealData(forged, { password: secret })).toEqual({});
-    expect(() => resolveSessionSecret({ HEATPATH_MODE: "production", SESSION_SECRET: DEVELOPMENT_SESSION_SECRET, DATABASE_PATH: path.join(dir, "db.sqlite") })).toThrow(/example secret/);
+    expect(() => resolveSessionSecret({ HEATPATH_MODE: "production", SESSION_SECRET: DEVELOPMENT_SESSION_SECRET, DATABASE_PATH: path.join(dir, "db.sqlite") })).toThrow(
+      /example secret/,
+    );
     expect(() => resolveSessionSecret({ HEATPATH_MODE: "production", SESSION_SECRET: undefined, DATABASE_PATH: path.join(dir, "db.sqlite") })).toThrow(/required in production/);
   });
 

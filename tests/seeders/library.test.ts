@@ -25,8 +25,20 @@ afterAll(() => closeDb());
 
 async function referenceVersions() {
   const { models } = registry();
-  const rows = await models.ModelVersion.findAll({ where: { teamId: null }, include: [{ model: models.CpModel, as: "model", include: [{ model: models.Species, as: "species" }] }] });
-  return rows.map((v) => ({ id: v.id, status: v.status, formula: v.model!.species!.formula, family: v.model!.family, variant: v.model!.variant, name: v.model!.name, data: v.data as SpeciesInput, citation: v.citation }));
+  const rows = await models.ModelVersion.findAll({
+    where: { teamId: null },
+    include: [{ model: models.CpModel, as: "model", include: [{ model: models.Species, as: "species" }] }],
+  });
+  return rows.map((v) => ({
+    id: v.id,
+    status: v.status,
+    formula: v.model!.species!.formula,
+    family: v.model!.family,
+    variant: v.model!.variant,
+    name: v.model!.name,
+    data: v.data as SpeciesInput,
+    citation: v.citation,
+  }));
 }
 
 describe("reference library seeder", () => {
@@ -52,11 +64,41 @@ describe("reference library seeder", () => {
     const versions = await referenceVersions();
     const formulas = new Set(versions.map((v) => v.formula));
     expect(formulas).toEqual(
-      new Set(["H2", "O2", "N2", "H2O", "CO", "CO2", "CH4", "NH3", "C", "CH3OH", "C2H6", "C2H4", "C2H2", "C3H8", "Ar", "He", "NO", "NO2", "N2O", "SO2", "H2S", "HCl", "Cl2", "O", "H", "OH", "HCN", "CH2O"]),
+      new Set([
+        "H2",
+        "O2",
+        "N2",
+        "H2O",
+        "CO",
+        "CO2",
+        "CH4",
+        "NH3",
+        "C",
+        "CH3OH",
+        "C2H6",
+        "C2H4",
+        "C2H2",
+        "C3H8",
+        "Ar",
+        "He",
+        "NO",
+        "NO2",
+        "N2O",
+        "SO2",
+        "H2S",
+        "HCl",
+        "Cl2",
+        "O",
+        "H",
+        "OH",
+        "HCN",
+        "CH2O",
+      ]),
     );
     const pairs = new Set(versions.flatMap((v) => v.data.segments.map((s) => `${v.formula}(${s.phase})`)));
     expect(pairs.size).toBeGreaterThanOrEqual(30);
-    for (const k of ["C(cr)", "CH3OH(g)", "C2H6(g)", "C2H4(g)", "C2H2(g)", "C3H8(g)", "Ar(g)", "NO(g)", "NO2(g)", "SO2(g)", "H2S(g)", "OH(g)", "O(g)", "H(g)"]) expect(pairs).toContain(k);
+    for (const k of ["C(cr)", "CH3OH(g)", "C2H6(g)", "C2H4(g)", "C2H2(g)", "C3H8(g)", "Ar(g)", "NO(g)", "NO2(g)", "SO2(g)", "H2S(g)", "OH(g)", "O(g)", "H(g)"])
+      expect(pairs).toContain(k);
     // Every added set keeps its citation: the publication of its record.
     for (const v of versions.filter((x) => ["C", "CH3OH", "Cl2", "Ar"].includes(x.formula))) {
       expect(v.citation).toMatch(/Goos, Burcat, Ruscic|GRI-Mech 3\.0|NIST-JANAF/);

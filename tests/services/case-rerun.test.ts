@@ -22,8 +22,20 @@ async function newerH2(): Promise<number> {
   const v1 = (await ModelVersion.findByPk(pins.H2))!;
   const latest = (await ModelVersion.max<number, typeof v1>("versionNumber", { where: { modelId: v1.modelId } })) ?? 1;
   const v2 = await ModelVersion.create({
-    modelId: v1.modelId, teamId: v1.teamId, versionNumber: latest + 1, status: "approved", data: v1.data, citation: v1.citation,
-    uncertainty: v1.uncertainty, changeNote: "re-approved for the re-run test", decisionReason: null, datasetId: null, authorId: null, decidedById: null, proposedAt: null, decidedAt: new Date(),
+    modelId: v1.modelId,
+    teamId: v1.teamId,
+    versionNumber: latest + 1,
+    status: "approved",
+    data: v1.data,
+    citation: v1.citation,
+    uncertainty: v1.uncertainty,
+    changeNote: "re-approved for the re-run test",
+    decisionReason: null,
+    datasetId: null,
+    authorId: null,
+    decidedById: null,
+    proposedAt: null,
+    decidedAt: new Date(),
   });
   await v1.update({ status: "superseded" });
   return v2.id;

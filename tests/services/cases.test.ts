@@ -48,7 +48,10 @@ describe("drafts", () => {
     const erin = await actorOf("engineer");
     const bad = shiftCase(pins);
     bad.terms[0].versionId = pins.CH4;
-    await expect(createCase(erin, caseInputSchema.parse(bad))).rejects.toMatchObject({ status: 422, details: { fields: { "terms.0.versionId": "That version belongs to CH4, not CO." } } });
+    await expect(createCase(erin, caseInputSchema.parse(bad))).rejects.toMatchObject({
+      status: 422,
+      details: { fields: { "terms.0.versionId": "That version belongs to CH4, not CO." } },
+    });
   });
 
   it("refuses an unbalanced reaction in the schema", () => {
@@ -116,8 +119,20 @@ describe("submission freezes a snapshot", () => {
     const { ModelVersion } = models();
     const h2 = await ModelVersion.findByPk(pins.H2);
     const draft = await ModelVersion.create({
-      modelId: h2!.modelId, teamId: erin.teamId, versionNumber: 900, status: "draft", data: h2!.data, citation: "test draft copy",
-      uncertainty: null, changeNote: null, decisionReason: null, datasetId: null, authorId: erin.userId, decidedById: null, proposedAt: null, decidedAt: null,
+      modelId: h2!.modelId,
+      teamId: erin.teamId,
+      versionNumber: 900,
+      status: "draft",
+      data: h2!.data,
+      citation: "test draft copy",
+      uncertainty: null,
+      changeNote: null,
+      decisionReason: null,
+      datasetId: null,
+      authorId: erin.userId,
+      decidedById: null,
+      proposedAt: null,
+      decidedAt: null,
     });
     const input = shiftCase(pins);
     input.terms[3].versionId = draft.id;
@@ -157,7 +172,13 @@ describe("snapshot hash", () => {
 
     const content = { inputs: sa!.inputs, pins: sa!.pins, engineVersion: sa!.engineVersion, request: sa!.request, result: sa!.result };
     const reordered = JSON.parse(JSON.stringify(content, Object.keys(content).reverse()));
-    const shuffled = { result: content.result, request: content.request, engineVersion: content.engineVersion, pins: content.pins, inputs: { ...reordered.inputs, ...content.inputs } };
+    const shuffled = {
+      result: content.result,
+      request: content.request,
+      engineVersion: content.engineVersion,
+      pins: content.pins,
+      inputs: { ...reordered.inputs, ...content.inputs },
+    };
     expect(snapshotHash(shuffled)).toBe(sa!.hash);
     const changed = { ...content, inputs: { ...content.inputs, toleranceKJ: 2 } };
     expect(snapshotHash(changed)).not.toBe(sa!.hash);

@@ -67,7 +67,13 @@ describe("upload, fit, save as draft", () => {
     const sam = await actorOf("steward");
     const erin = await actorOf("engineer");
     const dataset = await ds.uploadDataset(erin, { name: "Exact run", filename: "exact.csv", text: exact, species: MAGNESIA });
-    expect(dataset).toMatchObject({ pointCount: 13, rangeK: [300, 900], tUnit: "K", sizeBytes: Buffer.byteLength(exact), sha256: crypto.createHash("sha256").update(exact).digest("hex") });
+    expect(dataset).toMatchObject({
+      pointCount: 13,
+      rangeK: [300, 900],
+      tUnit: "K",
+      sizeBytes: Buffer.byteLength(exact),
+      sha256: crypto.createHash("sha256").update(exact).digest("hex"),
+    });
     // Engineers upload; fitting is steward work.
     expect((await refusal(ds.fitDataset(erin, dataset.id, { form: "maier-kelley" }))).status).toBe(403);
     const fit = await ds.fitDataset(sam, dataset.id, { form: "maier-kelley", phase: "cr", reference: MGO_ANCHOR });
@@ -78,7 +84,9 @@ describe("upload, fit, save as draft", () => {
     expect(fit.rmsJ).toBeLessThan(1e-9);
     expect(fit.residuals).toHaveLength(13);
     // No phase asked and none on the dataset: refused, never a silent "cr".
-    expect((await refusal(ds.fitDataset(sam, dataset.id, { form: "maier-kelley", tminK: 400, tmaxK: 800 }))).message).toBe("phase: say which phase the measurements are for (cr, l or g); the dataset does not say.");
+    expect((await refusal(ds.fitDataset(sam, dataset.id, { form: "maier-kelley", tminK: 400, tmaxK: 800 }))).message).toBe(
+      "phase: say which phase the measurements are for (cr, l or g); the dataset does not say.",
+    );
     const ranged = await ds.fitDataset(sam, dataset.id, { form: "maier-kelley", phase: "cr", tminK: 400, tmaxK: 800 });
     expect([ranged.points, ranged.tminK, ranged.tmaxK, ranged.data]).toEqual([9, 400, 800, null]);
 

@@ -23,7 +23,15 @@ beforeAll(async () => {
 afterAll(() => closeDb());
 
 // Larkspur Hydrogen Works shift converter (invented demo scenario): steam-to-CO 3, 30 bar.
-const equilibrium = { feed: { "CO(g)": 1, "H2O(g)": 3, "CO2(g)": 0.1, "H2(g)": 0.5 }, feedUnit: "kmol/h", pressure: "30 bar", key: "CO(g)" as string | null, reactions: [], extraTerms: [], inert: [] as string[] };
+const equilibrium = {
+  feed: { "CO(g)": 1, "H2O(g)": 3, "CO2(g)": 0.1, "H2(g)": 0.5 },
+  feedUnit: "kmol/h",
+  pressure: "30 bar",
+  key: "CO(g)" as string | null,
+  reactions: [],
+  extraTerms: [],
+  inert: [] as string[],
+};
 
 describe("a case with an equilibrium", () => {
   it("builds the request, freezes the composition in the snapshot and exports it", async () => {
@@ -101,7 +109,10 @@ describe("the reformer with shift as a case (invented demo scenario)", () => {
       temperatures: { fromK: 900, toK: 1200, stepK: 50 },
     });
   const eq = {
-    feed: { "CH4(g)": 1, "H2O(g)": 3 }, feedUnit: "kmol/h", pressure: "25 bar", key: "CH4(g)",
+    feed: { "CH4(g)": 1, "H2O(g)": 3 },
+    feedUnit: "kmol/h",
+    pressure: "25 bar",
+    key: "CH4(g)",
     reactions: ["CH4(g) + H2O(g) -> CO(g) + 3 H2(g)", "CO(g) + H2O(g) -> CO2(g) + H2(g)"],
     extraTerms: [{ formula: "CO2", phase: "g", versionId: 0 }],
   };
@@ -124,7 +135,9 @@ describe("the reformer with shift as a case (invented demo scenario)", () => {
     const before = await tableCounts();
     await expect(saveCaseEquilibrium(await actorOf("reviewer"), c.id, async () => ({ lockVersion: 0, equilibrium: null }))).rejects.toMatchObject({ status: 403 });
     await expect(saveCaseEquilibrium(await actorOf("steward"), c.id, async () => ({ lockVersion: 0, equilibrium: null }))).rejects.toMatchObject({ status: 403 });
-    await expect(saveCaseEquilibrium(erin, c.id, async () => ({ lockVersion: 0, equilibrium: { ...eq, extraTerms: [{ formula: "CO2", phase: "g", versionId: 999999 }] } }))).rejects.toMatchObject({
+    await expect(
+      saveCaseEquilibrium(erin, c.id, async () => ({ lockVersion: 0, equilibrium: { ...eq, extraTerms: [{ formula: "CO2", phase: "g", versionId: 999999 }] } })),
+    ).rejects.toMatchObject({
       status: 422,
     });
     await expect(previewCaseEquilibrium(await actorOf("other"), async () => ({ caseId: c.id, equilibrium: { feed: eq.feed } }))).rejects.toMatchObject({ status: 404 });

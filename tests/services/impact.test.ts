@@ -38,14 +38,36 @@ beforeAll(async () => {
   const ref = await models().ModelVersion.findByPk(pins.CO);
   const refModel = await models().CpModel.findByPk(ref!.modelId);
   // A Larkspur model of CO: v1 approved (the reference data), v2 a draft whose ΔfH° is 0.6 kJ/mol higher.
-  const model = await models().CpModel.create({ speciesId: refModel!.speciesId, teamId: sam.teamId, name: "CO · Larkspur working set (invented)", family: "custom", variant: null, copiedFromId: null, createdById: sam.userId });
-  const common = { modelId: model.id, teamId: sam.teamId, citation: "Copied from the reference set (test)", uncertainty: null, changeNote: null, decisionReason: null, datasetId: null, decidedById: null, proposedAt: null };
+  const model = await models().CpModel.create({
+    speciesId: refModel!.speciesId,
+    teamId: sam.teamId,
+    name: "CO · Larkspur working set (invented)",
+    family: "custom",
+    variant: null,
+    copiedFromId: null,
+    createdById: sam.userId,
+  });
+  const common = {
+    modelId: model.id,
+    teamId: sam.teamId,
+    citation: "Copied from the reference set (test)",
+    uncertainty: null,
+    changeNote: null,
+    decisionReason: null,
+    datasetId: null,
+    decidedById: null,
+    proposedAt: null,
+  };
   v1 = (await models().ModelVersion.create({ ...common, versionNumber: 1, status: "approved", data: ref!.data, authorId: sam.userId, decidedAt: new Date() })).id;
-  v2 = (await models().ModelVersion.create({ ...common, versionNumber: 2, status: "draft", data: shifted(ref!.data as SpeciesInput, 0.6), authorId: erin.userId, decidedAt: null })).id;
+  v2 = (await models().ModelVersion.create({ ...common, versionNumber: 2, status: "draft", data: shifted(ref!.data as SpeciesInput, 0.6), authorId: erin.userId, decidedAt: null }))
+    .id;
   const withV1 = { ...pins, CO: v1 };
   // Two cases by Erin (tolerance 1 and 0.5 kJ/mol), one by Sam, one untouched (reference CO).
   const a = await createCase(erin, caseInputSchema.parse(shiftCase(withV1, { title: "Shift on the working set", toleranceKJ: 1 })));
-  const b = await createCase(erin, caseInputSchema.parse(shiftCase(withV1, { title: "Shift, tight tolerance", toleranceKJ: 0.5, temperatures: { fromK: 900, toK: 1200, stepK: 50 } })));
+  const b = await createCase(
+    erin,
+    caseInputSchema.parse(shiftCase(withV1, { title: "Shift, tight tolerance", toleranceKJ: 0.5, temperatures: { fromK: 900, toK: 1200, stepK: 50 } })),
+  );
   const c = await createCase(sam, caseInputSchema.parse(shiftCase(withV1, { title: "Sam's shift check", toleranceKJ: 1 })));
   await createCase(erin, caseInputSchema.parse(shiftCase(pins, { title: "Shift on the reference set" })));
   caseIds = [a.id, b.id, c.id];
@@ -120,8 +142,29 @@ describe("impact of a new version on the pinned cases", () => {
     const v = await models().ModelVersion.findByPk(v2);
     // v3 has a gap in its gas chain between 600 and 700 K (synthetic): the engine refuses it for every case.
     const [lo, hi] = (v!.data as SpeciesInput).segments;
-    const short = { ...(v!.data as SpeciesInput), segments: [{ ...lo, tmaxK: 600 }, { ...hi, tminK: 700 }] };
-    const v3 = await models().ModelVersion.create({ modelId: v!.modelId, teamId: sam.teamId, versionNumber: 3, status: "proposed", data: short, citation: "test", uncertainty: null, changeNote: null, decisionReason: null, datasetId: null, authorId: sam.userId, decidedById: null, proposedAt: new Date(), decidedAt: null });
+    const short = {
+      ...(v!.data as SpeciesInput),
+      segments: [
+        { ...lo, tmaxK: 600 },
+        { ...hi, tminK: 700 },
+      ],
+    };
+    const v3 = await models().ModelVersion.create({
+      modelId: v!.modelId,
+      teamId: sam.teamId,
+      versionNumber: 3,
+      status: "proposed",
+      data: short,
+      citation: "test",
+      uncertainty: null,
+      changeNote: null,
+      decisionReason: null,
+      datasetId: null,
+      authorId: sam.userId,
+      decidedById: null,
+      proposedAt: new Date(),
+      decidedAt: null,
+    });
     await startImpact(sam, v3.id);
     await runQueuedImpactJobs();
     const r = await getImpact(sam, v3.id);

@@ -67,7 +67,10 @@ describe("proposal, four-eyes decision and supersession", () => {
     await lib.proposeVersion(sam, v2.id);
     await lib.approveVersion(stella, v2.id);
     const detail = await lib.getModel(sam, model.id);
-    expect(detail.versions.map((v) => [v.versionNumber, v.status])).toEqual([[2, "approved"], [1, "superseded"]]);
+    expect(detail.versions.map((v) => [v.versionNumber, v.status])).toEqual([
+      [2, "approved"],
+      [1, "superseded"],
+    ]);
 
     const trail = await lib.versionAudit(sam, v1.id);
     expect(trail.map((e) => e.action)).toEqual(["model-version.created", "model-version.proposed", "model-version.approved", "model-version.superseded"]);
@@ -82,7 +85,12 @@ describe("proposal, four-eyes decision and supersession", () => {
     await lib.proposeVersion(erin, version.id);
     const proposedMail = await models().MailMessage.findAll({ where: { kind: "model-proposed" }, order: [["id", "ASC"]] });
     // Both Larkspur stewards hear of Erin's proposal.
-    expect(proposedMail.slice(-2).flatMap((m) => m.recipients).sort()).toEqual(["sam.steward@example.test", "stella.steward@example.test"]);
+    expect(
+      proposedMail
+        .slice(-2)
+        .flatMap((m) => m.recipients)
+        .sort(),
+    ).toEqual(["sam.steward@example.test", "stella.steward@example.test"]);
     const rejected = await lib.rejectVersion(stella, version.id, "Range stops at 900 K; the reformer runs at 1100 K.");
     expect(rejected).toMatchObject({ status: "rejected", decisionReason: "Range stops at 900 K; the reformer runs at 1100 K." });
     const decided = await models().MailMessage.findOne({ where: { kind: "model-decided" }, order: [["id", "DESC"]] });
@@ -218,7 +226,12 @@ describe("export and import", () => {
       formatVersion: 1,
       models: [
         { species: { formula: "SiO2", displayName: "Silica" }, name: "Silica", family: "custom", versions: [{ versionNumber: 1, status: "draft", data: solid(), citation: "ok" }] },
-        { species: { formula: "SiO2", displayName: "Silica" }, name: "Silica 2", family: "custom", versions: [{ versionNumber: 1, status: "draft", data: { segments: [{ phase: "cr", form: "nasa7", tminK: 300, tmaxK: 900, coeffs: [1, 2, 3] }] }, citation: "ok" }] },
+        {
+          species: { formula: "SiO2", displayName: "Silica" },
+          name: "Silica 2",
+          family: "custom",
+          versions: [{ versionNumber: 1, status: "draft", data: { segments: [{ phase: "cr", form: "nasa7", tminK: 300, tmaxK: 900, coeffs: [1, 2, 3] }] }, citation: "ok" }],
+        },
       ],
     };
     const e = await refusal(lib.importLibrary(sam, bad));
@@ -239,7 +252,9 @@ describe("curves", () => {
     expect(at.hkJ).toBeCloseTo(-1000 + (120 * (400 - 298.15)) / 1000, 9);
     await expect(lib.previewCurve(sam, { data: { segments: [] } })).rejects.toMatchObject({ name: "EngineRefusal" });
     // An empty span is the engine's refusal too (the route answers it 422), not an HTTP error thrown from the computation.
-    expect(() => computeCurve(solid(), { fromK: 500, toK: 400 })).toThrow(expect.objectContaining({ name: "EngineRefusal", code: "invalid-request", message: "toK: the upper temperature must be above the lower one." }));
+    expect(() => computeCurve(solid(), { fromK: 500, toK: 400 })).toThrow(
+      expect.objectContaining({ name: "EngineRefusal", code: "invalid-request", message: "toK: the upper temperature must be above the lower one." }),
+    );
   });
 });
 

@@ -32,7 +32,9 @@ describe("the Outbox keeps each team's mail to that team", () => {
     const erin = await actorOf("engineer");
     // Larkspur's own mail: an invitation (with its link) and a review decision for Erin.
     await invite(alex, { email: "nell.newcomer@example.test", role: "steward" });
-    await db().transaction((t) => enqueueMail(t, { kind: "review-decided", teamId: alex.teamId, to: erin.email, subject: "Case returned: Larkspur reformer", text: "Reason: check the steam ratio." }));
+    await db().transaction((t) =>
+      enqueueMail(t, { kind: "review-decided", teamId: alex.teamId, to: erin.email, subject: "Case returned: Larkspur reformer", text: "Reason: check the steam ratio." }),
+    );
     await deliverDueMail(createMailTransport());
 
     // Tom invites the same two addresses (allowed: a pending invitation or membership elsewhere is no bar).

@@ -24,7 +24,11 @@ const data = {
 describe("pin options", () => {
   it("a range stored with units reads in kelvin (0 °C = 273.15 K, common practice), phases in segment order", async () => {
     const sam = await actorOf("steward");
-    const { version } = await createModel(sam, { species: { formula: "H2Se", displayName: "Test selenide" }, name: "Quantity limits", version: { data, citation: "Synthetic, invented for this test" } });
+    const { version } = await createModel(sam, {
+      species: { formula: "H2Se", displayName: "Test selenide" },
+      name: "Quantity limits",
+      version: { data, citation: "Synthetic, invented for this test" },
+    });
     const option = (await listPinOptions(sam, { formula: "H2Se" })).find((o) => o.versionId === version.id)!;
     expect(option.phases).toEqual(["l", "g"]);
     expect(option.tminK).toBeCloseTo(298.15, 9);

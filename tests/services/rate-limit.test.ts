@@ -62,7 +62,9 @@ describe("sign-in rate limit", () => {
     const row = await models().RateLimit.findByPk(key);
     expect(row!.count).toBe(env.SIGNIN_LIMIT_PER_ACCOUNT);
     await row!.update({ windowStartedAt: new Date(Date.now() - (env.SIGNIN_WINDOW_SECONDS + 1) * 1000) });
-    await expect(authenticate({ email: "sam.steward@example.test", password: DEMO_PASSWORD }, { clientAddress: "10.1.0.1" })).resolves.toMatchObject({ userId: expect.any(Number) });
+    await expect(authenticate({ email: "sam.steward@example.test", password: DEMO_PASSWORD }, { clientAddress: "10.1.0.1" })).resolves.toMatchObject({
+      userId: expect.any(Number),
+    });
     expect(await models().RateLimit.findByPk(key)).toBeNull();
   });
 });

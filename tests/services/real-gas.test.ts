@@ -25,7 +25,15 @@ beforeAll(async () => {
 afterAll(() => closeDb());
 
 // Larkspur Hydrogen Works shift converter (invented demo scenario).
-const eq = { feed: { "CO(g)": 13, "H2O(g)": 38, "CO2(g)": 6, "H2(g)": 40, "CH4(g)": 3 }, feedUnit: "kmol/h", pressure: "30 bar", key: "CO(g)" as string | null, reactions: [], extraTerms: [], inert: ["CH4(g)"] };
+const eq = {
+  feed: { "CO(g)": 13, "H2O(g)": 38, "CO2(g)": 6, "H2(g)": 40, "CH4(g)": 3 },
+  feedUnit: "kmol/h",
+  pressure: "30 bar",
+  key: "CO(g)" as string | null,
+  reactions: [],
+  extraTerms: [],
+  inert: ["CH4(g)"],
+};
 
 describe("critical constants in the library", () => {
   it("every reference species carries them, cited (Poling, Prausnitz & O'Connell, 5th ed., from memory)", async () => {

@@ -115,7 +115,10 @@ describe("frozen snapshots", () => {
     const r1 = await getResults(erin, c.id);
     const returned = await decideCase(rory, c.id, decisionSchema.parse({ decision: "returned", reason: "Extend the span to 800 K." }));
     const before = frozenResultsCache().size;
-    const edited = await updateCase(erin, c.id, { ...caseInputSchema.parse(shiftCase(pins, { title: "Cache: revisions", temperatures: { fromK: 480, toK: 800, stepK: 20 } })), lockVersion: returned.lockVersion });
+    const edited = await updateCase(erin, c.id, {
+      ...caseInputSchema.parse(shiftCase(pins, { title: "Cache: revisions", temperatures: { fromK: 480, toK: 800, stepK: 20 } })),
+      lockVersion: returned.lockVersion,
+    });
     const live = await getResults(erin, c.id);
     expect(live.source).toBe("live");
     expect(frozenResultsCache().size).toBe(before);

@@ -76,7 +76,10 @@ describe("return, revise, resubmit, approve", () => {
     expect(told[0].body).toContain(CAUTION_TEXT);
 
     // A returned case is edited and evaluated live again.
-    const edited = await updateCase(erin, c.id, { ...caseInputSchema.parse(shiftCase(pins, { title: "Shift for review", temperatures: { fromK: 480, toK: 800, stepK: 20 } })), lockVersion: returned.lockVersion });
+    const edited = await updateCase(erin, c.id, {
+      ...caseInputSchema.parse(shiftCase(pins, { title: "Shift for review", temperatures: { fromK: 480, toK: 800, stepK: 20 } })),
+      lockVersion: returned.lockVersion,
+    });
     expect((await getResults(erin, c.id)).source).toBe("live");
     const again = await submitCase(erin, c.id, edited.lockVersion);
     expect(again.snapshots.map((s) => s.revision)).toEqual([1, 2]);

@@ -33,10 +33,30 @@ beforeAll(async () => {
   const { Species, CpModel, ModelVersion } = models();
   const s = await Species.create({ teamId: sam.teamId, formula: "C4H10", displayName: "n-Butane", elements: { C: 4, H: 10 }, molarMassGPerMol: 58.122, identifiers: null });
   butaneId = s.id;
-  const m = await CpModel.create({ speciesId: s.id, teamId: sam.teamId, name: "Butane (team, synthetic)", family: "custom", variant: null, copiedFromId: null, createdById: sam.userId });
+  const m = await CpModel.create({
+    speciesId: s.id,
+    teamId: sam.teamId,
+    name: "Butane (team, synthetic)",
+    family: "custom",
+    variant: null,
+    copiedFromId: null,
+    createdById: sam.userId,
+  });
   const v = await ModelVersion.create({
-    modelId: m.id, teamId: sam.teamId, versionNumber: 1, status: "approved", data: gasData, citation: "Synthetic, invented for this test", uncertainty: null, changeNote: null,
-    decisionReason: null, datasetId: null, authorId: sam.userId, decidedById: null, proposedAt: null, decidedAt: new Date(),
+    modelId: m.id,
+    teamId: sam.teamId,
+    versionNumber: 1,
+    status: "approved",
+    data: gasData,
+    citation: "Synthetic, invented for this test",
+    uncertainty: null,
+    changeNote: null,
+    decisionReason: null,
+    datasetId: null,
+    authorId: sam.userId,
+    decidedById: null,
+    proposedAt: null,
+    decidedAt: new Date(),
   });
   butaneVersion = v.id;
 });
@@ -44,7 +64,16 @@ afterAll(() => closeDb());
 
 // Larkspur shift converter at 30 bar with butane riding along (invented demo scenario).
 const feed = { "CO(g)": 13, "H2O(g)": 38, "CO2(g)": 6, "H2(g)": 40, "C4H10(g)": 3 };
-const pinned = () => ({ feed, feedUnit: "kmol/h", pressure: "30 bar", key: "CO(g)", reactions: [], extraTerms: [{ formula: "C4H10", phase: "g", versionId: butaneVersion }], inert: [], gas: "peng-robinson" as const });
+const pinned = () => ({
+  feed,
+  feedUnit: "kmol/h",
+  pressure: "30 bar",
+  key: "CO(g)",
+  reactions: [],
+  extraTerms: [{ formula: "C4H10", phase: "g", versionId: butaneVersion }],
+  inert: [],
+  gas: "peng-robinson" as const,
+});
 const inert = () => ({ feed, feedUnit: "kmol/h", pressure: "30 bar", key: "CO(g)", reactions: [], extraTerms: [], inert: ["C4H10(g)"], gas: "peng-robinson" as const });
 
 describe("who may set them", () => {
@@ -108,7 +137,16 @@ describe("refusals", () => {
       fc.integer(),
       fc.array(fc.double()),
     );
-    await hammer("species critical", "steward", speciesOne.PATCH as Handler, `/api/v1/species/${butaneId}`, "PATCH", { id: String(butaneId) }, hostileBody({ critical: badCritical }, { exact: true }), 200);
+    await hammer(
+      "species critical",
+      "steward",
+      speciesOne.PATCH as Handler,
+      `/api/v1/species/${butaneId}`,
+      "PATCH",
+      { id: String(butaneId) },
+      hostileBody({ critical: badCritical }, { exact: true }),
+      200,
+    );
     expect(await tableCounts()).toEqual(before);
   });
 });

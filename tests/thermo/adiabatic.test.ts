@@ -54,8 +54,11 @@ describe("hand-worked example: equimolar CO + H2O entering at 600 K, constant Cp
    * Naive (ΔrH and ΔrS at T°, no ΔCp): 68 (T − 600) + ξn(T) ΔrH° = 0 → T = 924.92 K, ξn = 0.5369.
    */
   const req: EvaluateRequest = {
-    reaction: SHIFT, species: constantSet(), temperatures: { listK: [600] },
-    equilibrium: { feed: { "CO(g)": 1, "H2O(g)": 1 }, pressureBar: 1 }, adiabatic: { inletK: 600 },
+    reaction: SHIFT,
+    species: constantSet(),
+    temperatures: { listK: [600] },
+    equilibrium: { feed: { "CO(g)": 1, "H2O(g)": 1 }, pressureBar: 1 },
+    adiabatic: { inletK: 600 },
   };
   const r = evaluate(req);
   const a = r.adiabatic!;
@@ -116,8 +119,11 @@ describe("closed-form energy balance for constant Cp", () => {
   for (const f of feeds) {
     it(`feed ${JSON.stringify(f.feed)} at ${f.inletK} K: outlet T from the closed form at the engine's ξ to 1e-6 K`, () => {
       const r = evaluate({
-        reaction: SHIFT, species: constantSet(), temperatures: { listK: [f.inletK] },
-        equilibrium: { feed: f.feed, pressureBar: f.pBar }, adiabatic: { inletK: f.inletK },
+        reaction: SHIFT,
+        species: constantSet(),
+        temperatures: { listK: [f.inletK] },
+        equilibrium: { feed: f.feed, pressureBar: f.pBar },
+        adiabatic: { inletK: f.inletK },
       });
       const a = r.adiabatic!;
       const sumCp = Object.entries(f.feed).reduce((s, [k, n]) => s + n * CP[k.replace("(g)", "")], 0);
@@ -141,8 +147,12 @@ describe("published-data systems (Shomate fits to NIST-JANAF)", () => {
     const species = Object.fromEntries(["CO", "H2O", "CO2", "H2", "CH4"].map((n) => [`${n}(g)`, shomate(n)]));
     const feed = { "CO(g)": 13, "H2O(g)": 38, "CO2(g)": 6, "H2(g)": 40, "CH4(g)": 3 };
     const req = {
-      reaction: SHIFT, species, temperatures: { listK: [600, 700] }, include: ["species"] as "species"[],
-      equilibrium: { feed, pressureBar: 30 }, adiabatic: { inletK: 600 },
+      reaction: SHIFT,
+      species,
+      temperatures: { listK: [600, 700] },
+      include: ["species"] as "species"[],
+      equilibrium: { feed, pressureBar: 30 },
+      adiabatic: { inletK: 600 },
     };
     const a = evaluate(req).adiabatic!;
     // Derived from the closed form above: ξ ≤ 13 (all the CO), ΔrH ≈ −39 kJ/mol and Σ n0 Cp ≈ 3.4 kJ/K bound the
@@ -166,7 +176,9 @@ describe("published-data systems (Shomate fits to NIST-JANAF)", () => {
   it("steam reforming at 1100 K cools (endothermic), searched downward; ammonia bed heats, with Peng–Robinson too", () => {
     const species = Object.fromEntries(["CH4", "H2O", "CO", "H2", "CO2"].map((n) => [`${n}(g)`, shomate(n)]));
     const ref = evaluate({
-      reaction: "CH4(g) + H2O(g) -> CO(g) + 3 H2(g)", species, temperatures: { listK: [1100] },
+      reaction: "CH4(g) + H2O(g) -> CO(g) + 3 H2(g)",
+      species,
+      temperatures: { listK: [1100] },
       equilibrium: { feed: { "CH4(g)": 1, "H2O(g)": 3 }, pressureBar: 25, reactions: ["CH4(g) + H2O(g) -> CO(g) + 3 H2(g)", "CO(g) + H2O(g) -> CO2(g) + H2(g)"] },
       adiabatic: { inletK: 1100 },
     }).adiabatic!;
@@ -187,7 +199,9 @@ describe("published-data systems (Shomate fits to NIST-JANAF)", () => {
 
 describe("adiabatic refusals", () => {
   const base = {
-    reaction: SHIFT, species: constantSet(), temperatures: { listK: [600] },
+    reaction: SHIFT,
+    species: constantSet(),
+    temperatures: { listK: [600] },
     equilibrium: { feed: { "CO(g)": 1, "H2O(g)": 1 } },
   };
   it("needs an equilibrium feed", () => {

@@ -20,8 +20,26 @@ const shift = (u: boolean) => {
 describe("the columnar answer", () => {
   const cases: [string, Record<string, unknown>][] = [
     ["plain grid with a tolerance", { reaction: "CO(g) + H2O(g) -> CO2(g) + H2(g)", species: shift(false), temperatures: { fromK: 400, toK: 1400, stepK: 0.7 }, toleranceKJ: 0.5 }],
-    ["uncertainty, species rows and contributions", { reaction: "CO(g) + H2O(g) -> CO2(g) + H2(g)", species: shift(true), temperatures: { fromK: 400, toK: 1400, stepK: 25 }, include: ["species", "contributions"], toleranceKFactor: 1.5 }],
-    ["equilibrium and adiabatic outlet", { reaction: "CO(g) + H2O(g) -> CO2(g) + H2(g)", species: shift(false), temperatures: { listK: [500, 600, 800] }, equilibrium: { feed: { "CO(g)": 1, "H2O(g)": 1 }, pressureBar: 20 }, adiabatic: { inletK: 600 } }],
+    [
+      "uncertainty, species rows and contributions",
+      {
+        reaction: "CO(g) + H2O(g) -> CO2(g) + H2(g)",
+        species: shift(true),
+        temperatures: { fromK: 400, toK: 1400, stepK: 25 },
+        include: ["species", "contributions"],
+        toleranceKFactor: 1.5,
+      },
+    ],
+    [
+      "equilibrium and adiabatic outlet",
+      {
+        reaction: "CO(g) + H2O(g) -> CO2(g) + H2(g)",
+        species: shift(false),
+        temperatures: { listK: [500, 600, 800] },
+        equilibrium: { feed: { "CO(g)": 1, "H2O(g)": 1 }, pressureBar: 20 },
+        adiabatic: { inletK: 600 },
+      },
+    ],
   ];
   for (const [name, request] of cases) {
     it(`${name}: same numbers and key order as the rows turned into columns`, () => {

@@ -155,7 +155,7 @@ describe("contributions: corrected − naive ΔrG split by species", () => {
         const e = speciesEntry(s.family, s.species, "g");
         const a = closed(e, p.tK);
         const b = closed(e, 298.15);
-        const h = 1000 * (u.dfHkJ as number ?? 0);
+        const h = 1000 * ((u.dfHkJ as number) ?? 0);
         const t = p.tK * ((u.sJ as number) ?? 0);
         const c = (u.cpRelative ?? 0) * (a.h - b.h - p.tK * (a.s - b.s));
         return Math.abs(s.nu) * Math.sqrt(h * h + t * t + c * c);

@@ -60,9 +60,7 @@ describe("linear uncertainty vs a seeded Monte Carlo", () => {
   const draw = normals(20261201);
   const samples: { dG: number[]; lk: number[]; nDG: number[]; x: number[]; nx: number[]; h2: number[] }[] = [];
   for (let s = 0; s < N; s++) {
-    const species = Object.fromEntries(
-      names.map((n) => [`${n}(g)`, perturbed(base(n), U[n].dfHkJ * draw(), U[n].sJ * draw(), U[n].cpRelative * draw())]),
-    );
+    const species = Object.fromEntries(names.map((n) => [`${n}(g)`, perturbed(base(n), U[n].dfHkJ * draw(), U[n].sJ * draw(), U[n].cpRelative * draw())]));
     const r = evaluate(request(species));
     samples.push({
       dG: r.points.map((p) => p.dGkJ),
@@ -95,9 +93,7 @@ describe("linear uncertainty vs a seeded Monte Carlo", () => {
     const over = linear.points.filter((p) => Math.abs(p.diffKJ) > p.sigmaDGkJ!).map((p) => p.tK);
     expect(linear.uncertainty!.naiveExceedsK).toEqual(over);
     expect(linear.points.map((p) => p.naiveExceedsUncertainty)).toEqual(linear.points.map((p) => over.includes(p.tK)));
-    expect(linear.equilibriumInfo!.naiveExceedsUncertaintyK).toEqual(
-      linear.equilibrium!.filter((p) => Math.abs(p.keyFractionDiff) > p.sigma!.keyFraction!).map((p) => p.tK),
-    );
+    expect(linear.equilibriumInfo!.naiveExceedsUncertaintyK).toEqual(linear.equilibrium!.filter((p) => Math.abs(p.keyFractionDiff) > p.sigma!.keyFraction!).map((p) => p.tK));
     // 900 K is 600 K from the reference: the naive shortcut is off by more than the data's 1σ (docs/engine.md).
     expect(linear.uncertainty!.naiveExceedsK).toContain(900);
     expect(linear.uncertainty!.species["CO(g)"]).toEqual(U.CO);
@@ -144,8 +140,6 @@ describe("sources side by side", () => {
     });
   });
   it("refuses a single variant", () => {
-    expect(() => compareSources(req, [{ label: "only", species: setOf("shomate-janaf") }])).toThrow(
-      "compareSources: give at least two variants to compare",
-    );
+    expect(() => compareSources(req, [{ label: "only", species: setOf("shomate-janaf") }])).toThrow("compareSources: give at least two variants to compare");
   });
 });

@@ -151,7 +151,9 @@ describe("ammonia synthesis vs the published K", () => {
   it("pressure raises the ammonia fraction (Le Chatelier, common practice)", () => {
     const at = (p: number) =>
       run({
-        reaction: AMMONIA, species: gasSet("N2", "H2", "NH3"), temperatures: { listK: [700] },
+        reaction: AMMONIA,
+        species: gasSet("N2", "H2", "NH3"),
+        temperatures: { listK: [700] },
         equilibrium: { feed: { "N2(g)": 1, "H2(g)": 3 }, pressureBar: p },
       }).equilibrium![0].moleFractions["NH3(g)"];
     expect(at(200)).toBeGreaterThan(at(50));
@@ -162,7 +164,7 @@ describe("ammonia synthesis vs the published K", () => {
     const a = run({ ...base, equilibrium: { feed: { "N2(g)": 1, "H2(g)": 3 }, pressureBar: "10 MPa" } });
     const b = run({ ...base, equilibrium: { feed: { "N2(g)": 1, "H2(g)": 3 }, pressureBar: 100 } });
     expect(a.equilibrium![0].extent).toBe(b.equilibrium![0].extent);
-    expect(run({ ...base, equilibrium: { feed: { "N2(g)": 1 , "H2(g)": 3 }, pressureBar: "1 atm" } }).equilibriumInfo!.pressureBar).toBeCloseTo(1.01325, 12);
+    expect(run({ ...base, equilibrium: { feed: { "N2(g)": 1, "H2(g)": 3 }, pressureBar: "1 atm" } }).equilibriumInfo!.pressureBar).toBeCloseTo(1.01325, 12);
   });
 });
 
@@ -200,8 +202,11 @@ describe("simultaneous reactions: reformer with shift", () => {
   });
   it("the set solver agrees with the single-reaction search on one reaction", () => {
     const p: EquilibriumProblem = {
-      n0: Float64Array.from([1, 3, 0.2, 0]), nu: [[-1, -1, 1, 1]], gas: [true, true, true, true],
-      g: Float64Array.from([0, 0, -1.3, 0]), lnP: Math.log(10),
+      n0: Float64Array.from([1, 3, 0.2, 0]),
+      nu: [[-1, -1, 1, 1]],
+      gas: [true, true, true, true],
+      g: Float64Array.from([0, 0, -1.3, 0]),
+      lnP: Math.log(10),
     };
     const a = solveSingle(p);
     const b = solveSet(p);
@@ -270,13 +275,17 @@ describe("extreme K and bounds", () => {
   const R = 8.314462618;
   const shiftG = (log10K: number, T: number) => (-log10K * Math.LN10 * R * T) / 1000; // kJ/mol
   const species = (dG: number) => ({
-    "CO(g)": toy(0, 200), "H2O(g)": toy(0, 200), "H2(g)": toy(0, 200),
+    "CO(g)": toy(0, 200),
+    "H2O(g)": toy(0, 200),
+    "H2(g)": toy(0, 200),
     "CO2(g)": toy(dG, 200),
   });
   it.each([300, -300])("log10 K ≈ %s: finite numbers, the exhausted species at its exact trace amount", (lk) => {
     const dG = shiftG(lk, 1000);
     const r = run({
-      reaction: SHIFT, species: species(dG), temperatures: { listK: [500, 1000] },
+      reaction: SHIFT,
+      species: species(dG),
+      temperatures: { listK: [500, 1000] },
       equilibrium: { feed: { "CO(g)": 1, "H2O(g)": 2 } },
     });
     expect(JSON.stringify(r.equilibrium)).not.toMatch(/NaN|Infinity|null/);
@@ -304,7 +313,9 @@ describe("extreme K and bounds", () => {
     expect(ch4.janafTable).toBe("C-067");
     const sp = { ...species(shiftG(300, 1000)), "CH4(g)": toy(ch4.dfH!, ch4.S) };
     const r = run({
-      reaction: SHIFT, species: sp, temperatures: { listK: [1000] },
+      reaction: SHIFT,
+      species: sp,
+      temperatures: { listK: [1000] },
       equilibrium: { feed: { "CH4(g)": 1, "H2O(g)": 3 }, reactions: [REFORM, SHIFT] },
     });
     expect(JSON.stringify(r.equilibrium)).not.toMatch(/NaN|Infinity/);
@@ -314,7 +325,9 @@ describe("extreme K and bounds", () => {
     // NASA-7 liquid and gas water (nasa7-2015: third-millennium database, 2015 update; cp-coefficients.json).
     const sp = { "H2O(l)": speciesEntry("nasa7-2015", "H2O", "l"), "H2O(g)": speciesEntry("nasa7-2015", "H2O", "g") };
     const r = run({
-      reaction: "H2O(l) -> H2O(g)", species: sp, temperatures: { listK: [330, 400] },
+      reaction: "H2O(l) -> H2O(g)",
+      species: sp,
+      temperatures: { listK: [330, 400] },
       equilibrium: { feed: { "H2O(l)": 1, "N2(g)": 1 }, pressureBar: 1 },
     });
     const [cool, hot] = r.equilibrium!;
@@ -358,11 +371,7 @@ describe("refusals with exact messages", () => {
     [{ feed: { "CO(g)": 1, "H2O(g)": 1 }, key: "CO2(g)" }, "invalid-key", 'equilibrium.key: "CO2(g)" has no amount in the feed, so its conversion is undefined'],
     [{ feed: { "CO(g)": 1, "H2O(g)": 1 }, key: "Ar(g)" }, "invalid-key", 'equilibrium.key: "Ar(g)" is neither in the feed nor in the reactions'],
     [{ feed: { "CO(g)": 1, "H2O(g)": 1 }, pressureBar: 0 }, "nonpositive-pressure", "equilibrium.pressureBar: the pressure must be above 0 bar (got 0 bar)"],
-    [
-      { feed: { "CO(g)": 1, "H2O(g)": 1 }, pressureBar: "3 kg" },
-      "unit-error",
-      'equilibrium.pressureBar: "3 kg" is not a pressure (bar, Pa, kPa, MPa, atm, psi)',
-    ],
+    [{ feed: { "CO(g)": 1, "H2O(g)": 1 }, pressureBar: "3 kg" }, "unit-error", 'equilibrium.pressureBar: "3 kg" is not a pressure (bar, Pa, kPa, MPa, atm, psi)'],
     [
       { feed: { "CH4(g)": 1 }, reactions: [SHIFT, "CH4(g) + CO2(g) -> 2 CO(g) + 2 H2(g)"] },
       "unreachable-species",

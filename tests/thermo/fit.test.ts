@@ -20,7 +20,10 @@ const janaf = (species: string, tK: number, table: string) => {
 const co = speciesEntry("shomate-janaf", "CO", "g").segments[0];
 if (co.form !== "shomate") throw new Error("expected the CO Shomate set");
 const { A, B, C, D, E } = co.coeffs;
-const cpShomate = (T: number) => { const t = T / 1000; return A + B * t + C * t * t + D * t ** 3 + E / (t * t); };
+const cpShomate = (T: number) => {
+  const t = T / 1000;
+  return A + B * t + C * t * t + D * t ** 3 + E / (t * t);
+};
 
 function synthetic(n: number, sigma: number, seed: number, lo = 298, hi = 1300) {
   const normal = rng(seed);
@@ -83,7 +86,10 @@ describe("fitCp", () => {
     ["a1", "a2", "a3", "a4", "a5"].forEach((k, i) => expect(Math.abs(nasa.coefficients[k] / a[i] - 1)).toBeLessThan(1e-7));
     expect(nasa.segment!.form).toBe("nasa7");
     // Maier–Kelley and power data made in the test from the CO set's A, B, E terms.
-    const mkPts = Array.from({ length: 30 }, (_, i) => { const T = 300 + 30 * i; return { tK: T, cpJ: A + (B / 1e3) * T + (E * 1e6) / T ** 2 }; });
+    const mkPts = Array.from({ length: 30 }, (_, i) => {
+      const T = 300 + 30 * i;
+      return { tK: T, cpJ: A + (B / 1e3) * T + (E * 1e6) / T ** 2 };
+    });
     const mk = fitCp({ form: "maier-kelley", points: mkPts });
     expect(mk.coefficients.a).toBeCloseTo(A, 8);
     expect(mk.coefficients.b).toBeCloseTo(B / 1e3, 11);
@@ -95,16 +101,92 @@ describe("fitCp", () => {
   });
 
   const refusal = (fn: () => unknown) => {
-    try { fn(); } catch (e) { if (e instanceof EngineRefusal) return e; throw e; }
+    try {
+      fn();
+    } catch (e) {
+      if (e instanceof EngineRefusal) return e;
+      throw e;
+    }
     throw new Error("expected a refusal");
   };
   it.each([
-    ["fewer points than coefficients", { form: "shomate", points: [{ tK: 300, cpJ: 29 }, { tK: 400, cpJ: 30 }] }, "fit-too-few-points", "fit: 2 points cannot determine the 5 coefficients of the shomate form"],
-    ["duplicate temperatures only", { form: "maier-kelley", points: [{ tK: 300, cpJ: 29 }, { tK: 300, cpJ: 29.1 }, { tK: 300, cpJ: 28.9 }] }, "fit-duplicate-temperatures", "fit: only 1 distinct temperature for the 3 coefficients of the maier-kelley form; repeated temperatures add no information"],
-    ["a non-finite value", { form: "maier-kelley", points: [{ tK: 300, cpJ: 29 }, { tK: 400, cpJ: Number.NaN }, { tK: 500, cpJ: 31 }] }, "fit-nonfinite", "fit: point 2 has a non-finite value"],
-    ["an infinite temperature", { form: "maier-kelley", points: [{ tK: Infinity, cpJ: 29 }, { tK: 400, cpJ: 30 }, { tK: 500, cpJ: 31 }] }, "fit-nonfinite", "fit: point 1 has a non-finite value"],
-    ["negative kelvin", { form: "maier-kelley", points: [{ tK: 300, cpJ: 29 }, { tK: -40, cpJ: 30 }, { tK: 500, cpJ: 31 }] }, "fit-nonpositive-temperature", "fit: point 2 is at -40 K; temperatures must be above 0 K"],
-    ["a non-positive sigma", { form: "maier-kelley", points: [{ tK: 300, cpJ: 29, sigmaJ: 0 }, { tK: 400, cpJ: 30 }, { tK: 500, cpJ: 31 }] }, "fit-invalid-sigma", "fit: point 1 has sigmaJ 0; an uncertainty must be positive"],
+    [
+      "fewer points than coefficients",
+      {
+        form: "shomate",
+        points: [
+          { tK: 300, cpJ: 29 },
+          { tK: 400, cpJ: 30 },
+        ],
+      },
+      "fit-too-few-points",
+      "fit: 2 points cannot determine the 5 coefficients of the shomate form",
+    ],
+    [
+      "duplicate temperatures only",
+      {
+        form: "maier-kelley",
+        points: [
+          { tK: 300, cpJ: 29 },
+          { tK: 300, cpJ: 29.1 },
+          { tK: 300, cpJ: 28.9 },
+        ],
+      },
+      "fit-duplicate-temperatures",
+      "fit: only 1 distinct temperature for the 3 coefficients of the maier-kelley form; repeated temperatures add no information",
+    ],
+    [
+      "a non-finite value",
+      {
+        form: "maier-kelley",
+        points: [
+          { tK: 300, cpJ: 29 },
+          { tK: 400, cpJ: Number.NaN },
+          { tK: 500, cpJ: 31 },
+        ],
+      },
+      "fit-nonfinite",
+      "fit: point 2 has a non-finite value",
+    ],
+    [
+      "an infinite temperature",
+      {
+        form: "maier-kelley",
+        points: [
+          { tK: Infinity, cpJ: 29 },
+          { tK: 400, cpJ: 30 },
+          { tK: 500, cpJ: 31 },
+        ],
+      },
+      "fit-nonfinite",
+      "fit: point 1 has a non-finite value",
+    ],
+    [
+      "negative kelvin",
+      {
+        form: "maier-kelley",
+        points: [
+          { tK: 300, cpJ: 29 },
+          { tK: -40, cpJ: 30 },
+          { tK: 500, cpJ: 31 },
+        ],
+      },
+      "fit-nonpositive-temperature",
+      "fit: point 2 is at -40 K; temperatures must be above 0 K",
+    ],
+    [
+      "a non-positive sigma",
+      {
+        form: "maier-kelley",
+        points: [
+          { tK: 300, cpJ: 29, sigmaJ: 0 },
+          { tK: 400, cpJ: 30 },
+          { tK: 500, cpJ: 31 },
+        ],
+      },
+      "fit-invalid-sigma",
+      "fit: point 1 has sigmaJ 0; an uncertainty must be positive",
+    ],
     ["an unknown form", { form: "cubic", points: [] }, "invalid-request", 'invalid fit request: form: Invalid option: expected one of "shomate"|"nasa7"|"maier-kelley"|"power"'],
   ] as const)("refuses %s", (_n, req, code, message) => {
     const e = refusal(() => fitCp(req as never));

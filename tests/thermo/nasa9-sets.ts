@@ -8,10 +8,7 @@
  */
 import type { SpeciesInput } from "@/lib/thermo";
 
-export const NASA9_WATER_LIQUID_COEFFS = [
-  1.326371304e9, -2.448295388e7, 1.879428776e5, -7.67899505e2, 1.761556813, -2.151167128e-3, 1.092570813e-6,
-  1.101760476e8, -9.77970097e5,
-];
+export const NASA9_WATER_LIQUID_COEFFS = [1.326371304e9, -2.448295388e7, 1.879428776e5, -7.67899505e2, 1.761556813, -2.151167128e-3, 1.092570813e-6, 1.101760476e8, -9.77970097e5];
 
 export const nasa9WaterLiquid = (): SpeciesInput => ({
   segments: [{ phase: "l", form: "nasa9", tminK: 273.15, tmaxK: 373.15, coeffs: [...NASA9_WATER_LIQUID_COEFFS] }],
@@ -24,15 +21,18 @@ export const nasa9WaterLiquid = (): SpeciesInput => ({
  */
 export const NASA9_N2_RANGES: { tminK: number; tmaxK: number; coeffs: number[] }[] = [
   {
-    tminK: 200, tmaxK: 1000,
+    tminK: 200,
+    tmaxK: 1000,
     coeffs: [2.210371497e4, -3.81846182e2, 6.08273836, -8.53091441e-3, 1.384646189e-5, -9.62579362e-9, 2.519705809e-12, 7.10846086e2, -1.076003744e1],
   },
   {
-    tminK: 1000, tmaxK: 6000,
+    tminK: 1000,
+    tmaxK: 6000,
     coeffs: [5.87712406e5, -2.239249073e3, 6.06694922, -6.1396855e-4, 1.491806679e-7, -1.923105485e-11, 1.061954386e-15, 1.283210415e4, -1.586640027e1],
   },
   {
-    tminK: 6000, tmaxK: 20000,
+    tminK: 6000,
+    tmaxK: 20000,
     coeffs: [8.31013916e8, -6.42073354e5, 2.020264635e2, -3.065092046e-2, 2.486903333e-6, -9.70595411e-11, 1.437538881e-15, 4.93870704e6, -1.67209974e3],
   },
 ];

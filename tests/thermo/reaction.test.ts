@@ -104,7 +104,20 @@ describe("crossover temperatures", () => {
     // ΔrS(500 K) = 0 and ΔrG(500 K) = +0.05 J/mol, so ΔrG = 0.05 − 0.05 (T − 500)² exactly.
     const a: SpeciesInput = { segments: [{ phase: "g", form: "constant", tminK: 300, tmaxK: 700, coeffs: { cpJ: 50 } }], reference: { tK: 500, phase: "g", hkJ: 0, sJ: 200 } };
     const b: SpeciesInput = {
-      segments: [{ phase: "g", form: "power", tminK: 300, tmaxK: 700, coeffs: { terms: [{ k: 0, c: 50 }, { k: 1, c: 0.1 }] } }],
+      segments: [
+        {
+          phase: "g",
+          form: "power",
+          tminK: 300,
+          tmaxK: 700,
+          coeffs: {
+            terms: [
+              { k: 0, c: 50 },
+              { k: 1, c: 0.1 },
+            ],
+          },
+        },
+      ],
       reference: { tK: 500, phase: "g", hkJ: 0.05e-3, sJ: 200 },
     };
     const r = evaluate({ reaction: "C2H5OH(g) -> CH3OCH3(g)", species: { "C2H5OH(g)": a, "CH3OCH3(g)": b }, temperatures: { fromK: 400, toK: 603, stepK: 7 } });
@@ -185,7 +198,10 @@ describe("warnings", () => {
 
   it("nonphysical-cp where a model's Cp is not positive", () => {
     // Synthetic, invented for this test: Cp = 30 − 0.1 T crosses zero at 300 K.
-    const made: SpeciesInput = { segments: [{ phase: "g", form: "expression", tminK: 200, tmaxK: 400, coeffs: { cp: "30 - 0.1*T" } }], reference: { tK: 250, phase: "g", hkJ: 0, sJ: 100 } };
+    const made: SpeciesInput = {
+      segments: [{ phase: "g", form: "expression", tminK: 200, tmaxK: 400, coeffs: { cp: "30 - 0.1*T" } }],
+      reference: { tK: 250, phase: "g", hkJ: 0, sJ: 100 },
+    };
     const out = speciesProperties(made, [250, 290, 310, 350]);
     expect(out.warnings.find((w) => w.code === "nonphysical-cp")).toMatchObject({ tK: 310 });
   });

@@ -119,7 +119,17 @@ describe("mixture fugacity coefficients against an independent route", () => {
   const cases = [
     // Compositions and kij values synthetic, invented for this test.
     { name: "ammonia loop gas at 700 K, 300 bar", tK: 700, pBar: 300, species: ["N2", "H2", "NH3", "CH4"], y: [0.2, 0.6, 0.15, 0.05], k: [[0, 3, 0.03]] },
-    { name: "shift gas at 500 K, 30 bar", tK: 500, pBar: 30, species: ["CO", "H2O", "CO2", "H2", "CH4"], y: [0.03, 0.35, 0.12, 0.47, 0.03], k: [[1, 2, 0.12], [2, 4, 0.09]] },
+    {
+      name: "shift gas at 500 K, 30 bar",
+      tK: 500,
+      pBar: 30,
+      species: ["CO", "H2O", "CO2", "H2", "CH4"],
+      y: [0.03, 0.35, 0.12, 0.47, 0.03],
+      k: [
+        [1, 2, 0.12],
+        [2, 4, 0.09],
+      ],
+    },
     { name: "CO2-rich gas at 320 K, 80 bar", tK: 320, pBar: 80, species: ["CO2", "CH4", "N2"], y: [0.5, 0.4, 0.1], k: [] as number[][] },
   ];
   for (const c of cases) {
@@ -143,16 +153,33 @@ describe("ammonia synthesis at high pressure against Larson & Dodge (1923)", () 
   // public pages (2026-12-04) found only the paper's abstract-level citations and rounded school
   // tables, no reproduction of the measured table to cite, so the rows stay recalled.
   const measured: { c: number; atm: number; nh3: number }[] = [
-    { c: 400, atm: 10, nh3: 3.85 }, { c: 400, atm: 30, nh3: 10.09 }, { c: 400, atm: 50, nh3: 15.27 }, { c: 400, atm: 100, nh3: 25.12 },
-    { c: 400, atm: 300, nh3: 47.0 }, { c: 400, atm: 600, nh3: 65.2 }, { c: 400, atm: 1000, nh3: 79.82 },
-    { c: 450, atm: 10, nh3: 2.04 }, { c: 450, atm: 30, nh3: 5.8 }, { c: 450, atm: 50, nh3: 9.17 }, { c: 450, atm: 100, nh3: 16.36 },
-    { c: 450, atm: 300, nh3: 35.5 }, { c: 450, atm: 600, nh3: 53.6 }, { c: 450, atm: 1000, nh3: 69.4 },
-    { c: 500, atm: 10, nh3: 1.2 }, { c: 500, atm: 30, nh3: 3.5 }, { c: 500, atm: 50, nh3: 5.58 }, { c: 500, atm: 100, nh3: 10.61 },
-    { c: 500, atm: 300, nh3: 26.44 }, { c: 500, atm: 600, nh3: 42.15 }, { c: 500, atm: 1000, nh3: 57.47 },
+    { c: 400, atm: 10, nh3: 3.85 },
+    { c: 400, atm: 30, nh3: 10.09 },
+    { c: 400, atm: 50, nh3: 15.27 },
+    { c: 400, atm: 100, nh3: 25.12 },
+    { c: 400, atm: 300, nh3: 47.0 },
+    { c: 400, atm: 600, nh3: 65.2 },
+    { c: 400, atm: 1000, nh3: 79.82 },
+    { c: 450, atm: 10, nh3: 2.04 },
+    { c: 450, atm: 30, nh3: 5.8 },
+    { c: 450, atm: 50, nh3: 9.17 },
+    { c: 450, atm: 100, nh3: 16.36 },
+    { c: 450, atm: 300, nh3: 35.5 },
+    { c: 450, atm: 600, nh3: 53.6 },
+    { c: 450, atm: 1000, nh3: 69.4 },
+    { c: 500, atm: 10, nh3: 1.2 },
+    { c: 500, atm: 30, nh3: 3.5 },
+    { c: 500, atm: 50, nh3: 5.58 },
+    { c: 500, atm: 100, nh3: 10.61 },
+    { c: 500, atm: 300, nh3: 26.44 },
+    { c: 500, atm: 600, nh3: 42.15 },
+    { c: 500, atm: 1000, nh3: 57.47 },
   ];
   const solve = (atm: number) =>
     evaluate({
-      reaction: AMMONIA, species: ammoniaSpecies(), temperatures: { listK: [673.15, 723.15, 773.15] },
+      reaction: AMMONIA,
+      species: ammoniaSpecies(),
+      temperatures: { listK: [673.15, 723.15, 773.15] },
       equilibrium: { feed: { "N2(g)": 1, "H2(g)": 3 }, pressureBar: `${atm} atm`, gas: "peng-robinson" },
     }).equilibrium!;
   const byAtm = new Map([10, 30, 50, 100, 300, 600, 1000].map((a) => [a, solve(a)]));
@@ -184,7 +211,9 @@ describe("ammonia synthesis at high pressure against Larson & Dodge (1923)", () 
 
   it("the solution satisfies K = Π (φ_i y_i p/p°)^ν_i with the reported φ, and the element balance", () => {
     const R300 = evaluate({
-      reaction: AMMONIA, species: ammoniaSpecies(), temperatures: { listK: [700, 800] },
+      reaction: AMMONIA,
+      species: ammoniaSpecies(),
+      temperatures: { listK: [700, 800] },
       equilibrium: { feed: { "N2(g)": 1, "H2(g)": 3, "NH3(g)": 0.04 }, pressureBar: 300, gas: "peng-robinson" },
     });
     const nu: Record<string, number> = { "N2(g)": -1, "H2(g)": -3, "NH3(g)": 2 };
@@ -209,7 +238,9 @@ describe("ammonia synthesis at high pressure against Larson & Dodge (1923)", () 
 
 describe("gas model selection", () => {
   const base = (eq: Record<string, unknown>, species: Record<string, SpeciesInput> = ammoniaSpecies()): EvaluateRequest => ({
-    reaction: AMMONIA, species, temperatures: { listK: [700] },
+    reaction: AMMONIA,
+    species,
+    temperatures: { listK: [700] },
     equilibrium: { feed: { "N2(g)": 1, "H2(g)": 3 }, pressureBar: 150, ...eq } as EvaluateRequest["equilibrium"],
   });
 
@@ -249,8 +280,15 @@ describe("gas model selection", () => {
   it("reforming and shift together converge with Peng–Robinson at 25 bar, elements balanced", () => {
     const species = Object.fromEntries(["CH4", "H2O", "CO", "H2", "CO2"].map((n) => [`${n}(g)`, gas(n)]));
     const r = evaluate({
-      reaction: "CH4(g) + H2O(g) -> CO(g) + 3 H2(g)", species, temperatures: { listK: [900, 1000, 1100] },
-      equilibrium: { feed: { "CH4(g)": 1, "H2O(g)": 3 }, pressureBar: 25, gas: "peng-robinson", reactions: ["CH4(g) + H2O(g) -> CO(g) + 3 H2(g)", "CO(g) + H2O(g) -> CO2(g) + H2(g)"] },
+      reaction: "CH4(g) + H2O(g) -> CO(g) + 3 H2(g)",
+      species,
+      temperatures: { listK: [900, 1000, 1100] },
+      equilibrium: {
+        feed: { "CH4(g)": 1, "H2O(g)": 3 },
+        pressureBar: 25,
+        gas: "peng-robinson",
+        reactions: ["CH4(g) + H2O(g) -> CO(g) + 3 H2(g)", "CO(g) + H2O(g) -> CO2(g) + H2(g)"],
+      },
     });
     for (const p of r.equilibrium!) {
       expect(p.converged).toBe(true);
@@ -271,7 +309,9 @@ describe("gas model selection", () => {
 
 describe("real-gas refusals", () => {
   const req = (over: Record<string, unknown> = {}, species: Record<string, SpeciesInput> = ammoniaSpecies()) => ({
-    reaction: AMMONIA, species, temperatures: { listK: [700] },
+    reaction: AMMONIA,
+    species,
+    temperatures: { listK: [700] },
     equilibrium: { feed: { "N2(g)": 1, "H2(g)": 3 }, pressureBar: 150, gas: "peng-robinson", ...over },
   });
 
@@ -280,9 +320,13 @@ describe("real-gas refusals", () => {
     delete (sp["NH3(g)"] as { critical?: unknown }).critical;
     const e = refusal(req({}, sp));
     expect(e.code).toBe("missing-critical");
-    expect(e.message).toBe('equilibrium.gas: "peng-robinson" needs critical constants for every gas of the mixture; "NH3(g)" has none (give species["NH3(g)"].critical as { tcK, pcBar, omega })');
+    expect(e.message).toBe(
+      'equilibrium.gas: "peng-robinson" needs critical constants for every gas of the mixture; "NH3(g)" has none (give species["NH3(g)"].critical as { tcK, pcBar, omega })',
+    );
     const inert = refusal(req({ feed: { "N2(g)": 1, "H2(g)": 3, "Ar(g)": 0.1 } }));
-    expect(inert.message).toBe('equilibrium.gas: "peng-robinson" needs critical constants for every gas of the mixture; "Ar(g)" has none (give equilibrium.critical["Ar(g)"] as { tcK, pcBar, omega })');
+    expect(inert.message).toBe(
+      'equilibrium.gas: "peng-robinson" needs critical constants for every gas of the mixture; "Ar(g)" has none (give equilibrium.critical["Ar(g)"] as { tcK, pcBar, omega })',
+    );
   });
 
   it("constants given twice, or for a species not in the mixture", () => {

@@ -64,7 +64,9 @@ describe("cp-coefficients-more.json as the README describes it", () => {
 });
 
 describe("numerical integration reproduces each range's own equations (1e-10 relative, 1e-9 floor)", () => {
-  const cases = more.flatMap((r, i) => segmentsOf(r).map((seg) => ({ name: `${familyOf(r)} ${r.species}(${r.phase}) record ${i} ${seg.tminK}–${seg.tmaxK} K`, seg, p: r.standardPressurePa })));
+  const cases = more.flatMap((r, i) =>
+    segmentsOf(r).map((seg) => ({ name: `${familyOf(r)} ${r.species}(${r.phase}) record ${i} ${seg.tminK}–${seg.tmaxK} K`, seg, p: r.standardPressurePa })),
+  );
   it.each(cases.map((c) => [c.name, c] as const))("%s", (_n, c) => {
     const e: SpeciesInput = { segments: [c.seg], standardPressurePa: c.p };
     const lo = Number(c.seg.tminK);
@@ -85,7 +87,10 @@ describe("checks the README runs on every set", () => {
   const twoRange = more.filter((r) => r.form === "nasa7" && r.tmid !== undefined);
   it.each(twoRange.map((r) => [`${familyOf(r)} ${r.species}`, r] as const))("%s: the two ranges meet at 1000 K as published", (_n, r) => {
     // README: |ΔCp| ≤ 4e-6 J/(mol·K), |ΔH| ≤ 5e-6 kJ/mol, |ΔS| ≤ 1.3e-5 J/(mol·K), except GRI C3H8 (7e-4, 1e-4, 1.5e-4).
-    const tol = r.species === "C3H8" && familyOf(r) === "nasa7-gri30" ? { cp: stated("7e-4"), h: stated("1e-4"), s: stated("1.5e-4") } : { cp: stated("4e-6"), h: stated("5e-6"), s: stated("1.3e-5") };
+    const tol =
+      r.species === "C3H8" && familyOf(r) === "nasa7-gri30"
+        ? { cp: stated("7e-4"), h: stated("1e-4"), s: stated("1.5e-4") }
+        : { cp: stated("4e-6"), h: stated("5e-6"), s: stated("1.3e-5") };
     const [low, high] = segmentsOf(r);
     const a = closedForm(low, r.tmid!);
     const b = closedForm(high, r.tmid!);
@@ -153,7 +158,9 @@ describe("against published values (JANAF, CODATA key values, Gurvich), README t
 });
 
 describe("across families (README: GRI vs third-millennium within 0.004 J/(mol·K) in Cp and S, 0.0003 kJ/mol in H − H298, except C3H8)", () => {
-  const both = [...new Set(more.filter((r) => familyOf(r) === "nasa7-gri30").map((r) => r.species))].filter((s) => more.some((r) => r.species === s && familyOf(r) === "nasa7-2015"));
+  const both = [...new Set(more.filter((r) => familyOf(r) === "nasa7-gri30").map((r) => r.species))].filter((s) =>
+    more.some((r) => r.species === s && familyOf(r) === "nasa7-2015"),
+  );
   it("covers the 13 species both families publish", () => expect(both).toHaveLength(13));
   it.each(both.filter((s) => s !== "C3H8").flatMap((s) => [298.15, 1000].map((t) => [`${s} at ${t} K`, s, t] as const)))("%s", (_n, s, t) => {
     const a = entry("nasa7-2015", s);

@@ -18,8 +18,7 @@ const DIFFERS_BY_DESIGN = new Set(["CH4", "NH3"]);
 
 const rows = janafRows();
 /** ΔfH°(298.15 K) from the JANAF row; elements in their reference state are 0. */
-const dfH298 = (species: string, phase: string) =>
-  rows.find((r) => r.species === species && r.phase === phase && r.T === 298.15)?.dfH ?? 0;
+const dfH298 = (species: string, phase: string) => rows.find((r) => r.species === species && r.phase === phase && r.T === 298.15)?.dfH ?? 0;
 
 describe("published sets vs NIST-JANAF Tables, 4th ed. (Chase 1998), 1 bar", () => {
   const cases = recordGroups().flatMap((g) =>
@@ -34,19 +33,16 @@ describe("published sets vs NIST-JANAF Tables, 4th ed. (Chase 1998), 1 bar", () 
     expect(cases.length).toBeGreaterThanOrEqual(40);
   });
 
-  it.each(cases.map((c) => [`${c.family} ${c.species}(${c.phase}) #${c.variant} at ${c.row.T} K (JANAF ${c.row.janafTable})`, c] as const))(
-    "%s",
-    (_name, c) => {
-      const tol = c.family === "shomate-janaf" ? TOL.shomate : c.phase === "l" ? TOL.nasa7Liquid : TOL.nasa7Gas;
-      // The GRI-Mech N2 set is on 1 atm; after the engine converts it, S is within 0.04.
-      const sTol = c.family === "nasa7-gri30" && c.species === "N2" ? 0.04 : tol.s;
-      const { rows: out } = speciesProperties(c.entry, [c.row.T]);
-      const p = out[0];
-      expect(Math.abs(p.cpJ - c.row.Cp), "Cp").toBeLessThanOrEqual(tol.cp);
-      expect(Math.abs(p.sJ - c.row.S), "S").toBeLessThanOrEqual(sTol);
-      expect(Math.abs(p.hkJ - (dfH298(c.species, c.phase) + c.row.HmH298)), "H").toBeLessThanOrEqual(tol.h);
-    },
-  );
+  it.each(cases.map((c) => [`${c.family} ${c.species}(${c.phase}) #${c.variant} at ${c.row.T} K (JANAF ${c.row.janafTable})`, c] as const))("%s", (_name, c) => {
+    const tol = c.family === "shomate-janaf" ? TOL.shomate : c.phase === "l" ? TOL.nasa7Liquid : TOL.nasa7Gas;
+    // The GRI-Mech N2 set is on 1 atm; after the engine converts it, S is within 0.04.
+    const sTol = c.family === "nasa7-gri30" && c.species === "N2" ? 0.04 : tol.s;
+    const { rows: out } = speciesProperties(c.entry, [c.row.T]);
+    const p = out[0];
+    expect(Math.abs(p.cpJ - c.row.Cp), "Cp").toBeLessThanOrEqual(tol.cp);
+    expect(Math.abs(p.sJ - c.row.S), "S").toBeLessThanOrEqual(sTol);
+    expect(Math.abs(p.hkJ - (dfH298(c.species, c.phase) + c.row.HmH298)), "H").toBeLessThanOrEqual(tol.h);
+  });
 
   it("GRI-Mech 3.0 N2 (1 atm basis) is within S 0.04 of JANAF only after the 1 atm → 1 bar conversion", () => {
     const gri = speciesEntry("nasa7-gri30", "N2", "g");
@@ -94,15 +90,38 @@ describe("reactions from sets of one family vs NIST-JANAF (Chase 1998) log Kf an
   const formation = (species: string, phase: string) => (T: number) => ({ logK: janaf(species, phase, T).logKf!, dG: janaf(species, phase, T).dfG! });
   const reactions: Rx[] = [
     // JANAF H-064 (H2O(g)) log Kf and ΔfG at 298.15 and 1000 K
-    { name: "H2O(g) formation", reaction: "H2(g) + 0.5 O2(g) -> H2O(g)", keys: { "H2(g)": ["H2", "g"], "O2(g)": ["O2", "g"], "H2O(g)": ["H2O", "g"] }, temps: [298.15, 1000], janaf: formation("H2O", "g"), nasa: true },
+    {
+      name: "H2O(g) formation",
+      reaction: "H2(g) + 0.5 O2(g) -> H2O(g)",
+      keys: { "H2(g)": ["H2", "g"], "O2(g)": ["O2", "g"], "H2O(g)": ["H2O", "g"] },
+      temps: [298.15, 1000],
+      janaf: formation("H2O", "g"),
+      nasa: true,
+    },
     // JANAF H-063 (H2O(l)) at 298.15 and 400 K
-    { name: "H2O(l) formation", reaction: "H2(g) + 1/2 O2(g) = H2O(l)", keys: { "H2(g)": ["H2", "g"], "O2(g)": ["O2", "g"], "H2O(l)": ["H2O", "l"] }, temps: [298.15, 400], janaf: formation("H2O", "l"), nasa: true },
+    {
+      name: "H2O(l) formation",
+      reaction: "H2(g) + 1/2 O2(g) = H2O(l)",
+      keys: { "H2(g)": ["H2", "g"], "O2(g)": ["O2", "g"], "H2O(l)": ["H2O", "l"] },
+      temps: [298.15, 400],
+      janaf: formation("H2O", "l"),
+      nasa: true,
+    },
     // JANAF H-083 (NH3) at 298.15 and 1000 K
-    { name: "NH3 formation", reaction: "0.5 N2(g) + 1.5 H2(g) -> NH3(g)", keys: { "N2(g)": ["N2", "g"], "H2(g)": ["H2", "g"], "NH3(g)": ["NH3", "g"] }, temps: [298.15, 1000], janaf: formation("NH3", "g"), nasa: false },
+    {
+      name: "NH3 formation",
+      reaction: "0.5 N2(g) + 1.5 H2(g) -> NH3(g)",
+      keys: { "N2(g)": ["N2", "g"], "H2(g)": ["H2", "g"], "NH3(g)": ["NH3", "g"] },
+      temps: [298.15, 1000],
+      janaf: formation("NH3", "g"),
+      nasa: false,
+    },
     // JANAF C-095 − C-093 − H-064: log K = log Kf(CO2) − log Kf(CO) − log Kf(H2O)
     {
-      name: "water-gas shift", reaction: "CO(g) + H2O(g) -> CO2(g) + H2(g)",
-      keys: { "CO(g)": ["CO", "g"], "H2O(g)": ["H2O", "g"], "CO2(g)": ["CO2", "g"], "H2(g)": ["H2", "g"] }, temps: [298.15, 1000],
+      name: "water-gas shift",
+      reaction: "CO(g) + H2O(g) -> CO2(g) + H2(g)",
+      keys: { "CO(g)": ["CO", "g"], "H2O(g)": ["H2O", "g"], "CO2(g)": ["CO2", "g"], "H2(g)": ["H2", "g"] },
+      temps: [298.15, 1000],
       janaf: (T) => ({
         logK: janaf("CO2", "g", T).logKf! - janaf("CO", "g", T).logKf! - janaf("H2O", "g", T).logKf!,
         dG: janaf("CO2", "g", T).dfG! - janaf("CO", "g", T).dfG! - janaf("H2O", "g", T).dfG!,
@@ -111,8 +130,10 @@ describe("reactions from sets of one family vs NIST-JANAF (Chase 1998) log Kf an
     },
     // JANAF C-093 − C-067 − H-064
     {
-      name: "steam reforming", reaction: "CH4(g) + H2O(g) -> CO(g) + 3 H2(g)",
-      keys: { "CH4(g)": ["CH4", "g"], "H2O(g)": ["H2O", "g"], "CO(g)": ["CO", "g"], "H2(g)": ["H2", "g"] }, temps: [298.15, 1000],
+      name: "steam reforming",
+      reaction: "CH4(g) + H2O(g) -> CO(g) + 3 H2(g)",
+      keys: { "CH4(g)": ["CH4", "g"], "H2O(g)": ["H2O", "g"], "CO(g)": ["CO", "g"], "H2(g)": ["H2", "g"] },
+      temps: [298.15, 1000],
       janaf: (T) => ({
         logK: janaf("CO", "g", T).logKf! - janaf("CH4", "g", T).logKf! - janaf("H2O", "g", T).logKf!,
         dG: janaf("CO", "g", T).dfG! - janaf("CH4", "g", T).dfG! - janaf("H2O", "g", T).dfG!,
@@ -143,8 +164,14 @@ function closedForm(seg: SegmentInput): { h: (T: number) => number; s: (T: numbe
   if (seg.form === "shomate") {
     const { A, B, C, D, E, F, G } = seg.coeffs;
     return {
-      h: (T) => { const t = T / 1000; return A * t + (B * t ** 2) / 2 + (C * t ** 3) / 3 + (D * t ** 4) / 4 - E / t + F; },
-      s: (T) => { const t = T / 1000; return A * Math.log(t) + B * t + (C * t ** 2) / 2 + (D * t ** 3) / 3 - E / (2 * t ** 2) + G; },
+      h: (T) => {
+        const t = T / 1000;
+        return A * t + (B * t ** 2) / 2 + (C * t ** 3) / 3 + (D * t ** 4) / 4 - E / t + F;
+      },
+      s: (T) => {
+        const t = T / 1000;
+        return A * Math.log(t) + B * t + (C * t ** 2) / 2 + (D * t ** 3) / 3 - E / (2 * t ** 2) + G;
+      },
     };
   }
   if (seg.form === "nasa7") {
@@ -208,7 +235,11 @@ describe("numerical integration reproduces each set's closed form (1e-10 relativ
     const probes = probeTemperatures(segs);
     const sCorr = g.entry.standardPressurePa === 101325 ? R * Math.log(101325 / 100000) : 0;
     for (const referenceK of [298.15, 1000]) {
-      const { rows: out } = speciesProperties(g.entry, probes.map((p) => p.tK), { referenceK });
+      const { rows: out } = speciesProperties(
+        g.entry,
+        probes.map((p) => p.tK),
+        { referenceK },
+      );
       probes.forEach((p, i) => {
         const cf = closedForm(p.seg);
         expectClose(out[i].hkJ, cf.h(p.tK), `H at ${p.tK} K (Tref ${referenceK})`);
@@ -231,7 +262,22 @@ describe("numerical integration reproduces each set's closed form (1e-10 relativ
   const ref = { tK: 298.15, phase: "g", hkJ: cf.h(298.15), sJ: cf.s(298.15) };
   const range = { phase: "g", tminK: 298, tmaxK: 1300 };
   const rewrites: [string, SegmentInput][] = [
-    ["power form (k = 0, 1, 2, 3, −2)", { ...range, form: "power", coeffs: { terms: [{ k: 0, c: A }, { k: 1, c: B / 1e3 }, { k: 2, c: C / 1e6 }, { k: 3, c: D / 1e9 }, { k: -2, c: E * 1e6 }] } }],
+    [
+      "power form (k = 0, 1, 2, 3, −2)",
+      {
+        ...range,
+        form: "power",
+        coeffs: {
+          terms: [
+            { k: 0, c: A },
+            { k: 1, c: B / 1e3 },
+            { k: 2, c: C / 1e6 },
+            { k: 3, c: D / 1e9 },
+            { k: -2, c: E * 1e6 },
+          ],
+        },
+      },
+    ],
     ["expression form", { ...range, form: "expression", coeffs: { cp: `${A} + ${B}e-3*T + ${C}e-6*T^2 + ${D}e-9*T^3 + ${E}e6/T^2` } }],
   ];
   it.each(rewrites)("the CO Shomate set (Chase 1998 fit) rewritten in the %s matches the Shomate closed form", (_n, seg) => {
@@ -245,7 +291,9 @@ describe("numerical integration reproduces each set's closed form (1e-10 relativ
 
   it("maier-kelley and constant forms match their antiderivatives", () => {
     // Derived model (CO Shomate A, B, E terms only), checked against its own closed form, not data.
-    const a = A, b = B / 1e3, c = E * 1e6;
+    const a = A,
+      b = B / 1e3,
+      c = E * 1e6;
     const mk: SpeciesInput = { segments: [{ ...range, form: "maier-kelley", coeffs: { a, b, c } }], reference: ref };
     const h = (T: number) => ref.hkJ + (a * (T - 298.15) + (b / 2) * (T ** 2 - 298.15 ** 2) - c * (1 / T - 1 / 298.15)) / 1000;
     const s = (T: number) => ref.sJ + a * Math.log(T / 298.15) + b * (T - 298.15) - (c / 2) * (1 / T ** 2 - 1 / 298.15 ** 2);
@@ -255,7 +303,10 @@ describe("numerical integration reproduces each set's closed form (1e-10 relativ
       expectClose(r.sJ, s(temps[i]), "maier-kelley S");
     });
     // Common practice: liquid water Cp 75.3 J/(mol·K) near 273–373 K; H and S from the JANAF H-063 row at 298.15 K.
-    const water: SpeciesInput = { segments: [{ phase: "l", form: "constant", tminK: 273.15, tmaxK: 373.15, coeffs: { cpJ: 75.3 } }], reference: { tK: 298.15, phase: "l", hkJ: -285.83, sJ: 69.95 } };
+    const water: SpeciesInput = {
+      segments: [{ phase: "l", form: "constant", tminK: 273.15, tmaxK: 373.15, coeffs: { cpJ: 75.3 } }],
+      reference: { tK: 298.15, phase: "l", hkJ: -285.83, sJ: 69.95 },
+    };
     speciesProperties(water, [273.15, 350]).rows.forEach((r) => {
       expectClose(r.hkJ, -285.83 + (75.3 * (r.tK - 298.15)) / 1000, "constant H");
       expectClose(r.sJ, 69.95 + 75.3 * Math.log(r.tK / 298.15), "constant S");
@@ -263,7 +314,10 @@ describe("numerical integration reproduces each set's closed form (1e-10 relativ
   });
 
   it("a table sampled from the CO Shomate set every 50 K (monotone cubic) stays within the Shomate tolerances of JANAF C-093 at 1000 K", () => {
-    const cp = (T: number) => { const t = T / 1000; return A + B * t + C * t ** 2 + D * t ** 3 + E / t ** 2; };
+    const cp = (T: number) => {
+      const t = T / 1000;
+      return A + B * t + C * t ** 2 + D * t ** 3 + E / t ** 2;
+    };
     const points: [number, number][] = [];
     for (let T = 250; T <= 1300; T += 50) points.push([T, cp(T)]);
     const table: SpeciesInput = { segments: [{ ...range, tminK: 250, form: "table", coeffs: { points } }], reference: ref };

@@ -45,18 +45,52 @@ const cases: [string, () => unknown, string, string][] = [
     "invalid-request",
     'invalid request: species["CO(g)"].segments[0].form: expected form to be one of constant, shomate, nasa7, nasa9, maier-kelley, power, table, expression',
   ],
-  ["an unbalanced reaction, naming the elements", () => evaluate({ ...base(), reaction: "CO(g) + H2O(g) -> CO2(g)" }), "unbalanced-reaction", "the reaction is not balanced: H -2 (products minus reactants)"],
-  ["an unbalanced reaction with two elements", () => evaluate({ ...base(), reaction: "2 CO(g) + H2O(g) -> CO2(g) + H2(g)" }), "unbalanced-reaction", "the reaction is not balanced: C -1, O -1 (products minus reactants)"],
-  ["a reaction without an arrow", () => evaluate({ ...base(), reaction: "CO(g) + H2O(g)" }), "invalid-reaction", 'reaction "CO(g) + H2O(g)": expected reactants and products separated by one "->" or "="'],
-  ["a missing species key", () => evaluate({ ...base(), species: { ...base().species, "H2(g)": undefined as unknown as SpeciesInput } }), "invalid-request", 'invalid request: species["H2(g)"]: required'],
+  [
+    "an unbalanced reaction, naming the elements",
+    () => evaluate({ ...base(), reaction: "CO(g) + H2O(g) -> CO2(g)" }),
+    "unbalanced-reaction",
+    "the reaction is not balanced: H -2 (products minus reactants)",
+  ],
+  [
+    "an unbalanced reaction with two elements",
+    () => evaluate({ ...base(), reaction: "2 CO(g) + H2O(g) -> CO2(g) + H2(g)" }),
+    "unbalanced-reaction",
+    "the reaction is not balanced: C -1, O -1 (products minus reactants)",
+  ],
+  [
+    "a reaction without an arrow",
+    () => evaluate({ ...base(), reaction: "CO(g) + H2O(g)" }),
+    "invalid-reaction",
+    'reaction "CO(g) + H2O(g)": expected reactants and products separated by one "->" or "="',
+  ],
+  [
+    "a missing species key",
+    () => evaluate({ ...base(), species: { ...base().species, "H2(g)": undefined as unknown as SpeciesInput } }),
+    "invalid-request",
+    'invalid request: species["H2(g)"]: required',
+  ],
   [
     "a species key absent from species",
-    () => { const r = base(); delete r.species["H2(g)"]; return evaluate(r); },
+    () => {
+      const r = base();
+      delete r.species["H2(g)"];
+      return evaluate(r);
+    },
     "missing-species",
     'species "H2(g)" is used in the reaction but has no entry in species',
   ],
-  ["T = 0 K in a grid", () => evaluate({ ...base(), temperatures: { fromK: 0, toK: 700, stepK: 100 } }), "nonpositive-temperature", "temperatures.fromK: temperatures must be above 0 K (got 0 K)"],
-  ["T < 0 K in a list (with a unit)", () => evaluate({ ...base(), temperatures: { listK: [500, "-300 degC"] } }), "nonpositive-temperature", "temperatures.listK[1]: temperatures must be above 0 K (got -26.850000000000023 K)"],
+  [
+    "T = 0 K in a grid",
+    () => evaluate({ ...base(), temperatures: { fromK: 0, toK: 700, stepK: 100 } }),
+    "nonpositive-temperature",
+    "temperatures.fromK: temperatures must be above 0 K (got 0 K)",
+  ],
+  [
+    "T < 0 K in a list (with a unit)",
+    () => evaluate({ ...base(), temperatures: { listK: [500, "-300 degC"] } }),
+    "nonpositive-temperature",
+    "temperatures.listK[1]: temperatures must be above 0 K (got -26.850000000000023 K)",
+  ],
   ["a reference temperature of 0 K", () => evaluate({ ...base(), referenceK: 0 }), "nonpositive-temperature", "referenceK: temperatures must be above 0 K (got 0 K)"],
   [
     "a gap in a chain",
@@ -86,7 +120,12 @@ const cases: [string, () => unknown, string, string][] = [
     "missing-phase",
     'species "CO(l)": the key asks for the l phase but no segment has phase "l"',
   ],
-  ["a step with the wrong dimension", () => evaluate({ ...base(), temperatures: { fromK: 500, toK: 700, stepK: "10 kJ/mol" } }), "unit-error", 'temperatures.stepK: "10 kJ/mol" is not a temperature (K, degC or degF)'],
+  [
+    "a step with the wrong dimension",
+    () => evaluate({ ...base(), temperatures: { fromK: 500, toK: 700, stepK: "10 kJ/mol" } }),
+    "unit-error",
+    'temperatures.stepK: "10 kJ/mol" is not a temperature (K, degC or degF)',
+  ],
   [
     "an enthalpy with the wrong dimension",
     () => evaluate({ ...base(), species: { ...base().species, "H2(g)": constantGas({ reference: { tK: 298.15, phase: "g", hkJ: "5 K", sJ: 130 } }) } }),
@@ -99,12 +138,37 @@ const cases: [string, () => unknown, string, string][] = [
     "unit-error",
     'referenceK: cannot read "warm" as a quantity; expected a temperature (K, degC or degF)',
   ],
-  ["more than 100 000 points", () => evaluate({ ...base(), temperatures: { fromK: 300, toK: 1300, stepK: 0.001 } }), "too-many-points", "temperatures: 1000001 points exceed the limit of 100000; use a larger stepK"],
+  [
+    "more than 100 000 points",
+    () => evaluate({ ...base(), temperatures: { fromK: 300, toK: 1300, stepK: 0.001 } }),
+    "too-many-points",
+    "temperatures: 1000001 points exceed the limit of 100000; use a larger stepK",
+  ],
   [
     "a table range beyond its points",
-    () => speciesProperties({ segments: [{ phase: "g", form: "table", tminK: 300, tmaxK: 600, coeffs: { points: [[300, 29], [500, 30]] } }], reference: { tK: 300, phase: "g", hkJ: 0, sJ: 100 } }, [400]),
+    () =>
+      speciesProperties(
+        {
+          segments: [
+            {
+              phase: "g",
+              form: "table",
+              tminK: 300,
+              tmaxK: 600,
+              coeffs: {
+                points: [
+                  [300, 29],
+                  [500, 30],
+                ],
+              },
+            },
+          ],
+          reference: { tK: 300, phase: "g", hkJ: 0, sJ: 100 },
+        },
+        [400],
+      ),
     "invalid-table",
-    'species.segments[0]: the range 300–600 K runs beyond the table points (300–500 K); a table is not extrapolated silently',
+    "species.segments[0]: the range 300–600 K runs beyond the table points (300–500 K); a table is not extrapolated silently",
   ],
 ];
 
@@ -122,7 +186,7 @@ describe("Cp expressions: compiled once, T the only symbol, dangerous features r
     speciesProperties({ segments: [{ phase: "g", form: "expression", tminK: 300, tmaxK: 1000, coeffs: { cp } }], reference: { tK: 300, phase: "g", hkJ: 0, sJ: 100 } }, [500]);
   const label = "species.segments[0].coeffs.cp";
   it.each([
-    ['import({x: 1})', `${label}: "import" is not allowed in a Cp expression`],
+    ["import({x: 1})", `${label}: "import" is not allowed in a Cp expression`],
     ['createUnit("foo")', `${label}: "createUnit" is not allowed in a Cp expression`],
     ['evaluate("1 + 1")', `${label}: "evaluate" is not allowed in a Cp expression`],
     ['parse("T")', `${label}: "parse" is not allowed in a Cp expression`],
@@ -140,7 +204,10 @@ describe("Cp expressions: compiled once, T the only symbol, dangerous features r
   it("allows whitelisted functions of T", () => {
     // Synthetic, invented for this test.
     const out = speciesProperties(
-      { segments: [{ phase: "g", form: "expression", tminK: 300, tmaxK: 1000, coeffs: { cp: "29 + 2*exp(-300/T) + sqrt(T)/100" } }], reference: { tK: 300, phase: "g", hkJ: 0, sJ: 100 } },
+      {
+        segments: [{ phase: "g", form: "expression", tminK: 300, tmaxK: 1000, coeffs: { cp: "29 + 2*exp(-300/T) + sqrt(T)/100" } }],
+        reference: { tK: 300, phase: "g", hkJ: 0, sJ: 100 },
+      },
       [300, 600],
     );
     expect(out.rows[1].cpJ).toBeCloseTo(29 + 2 * Math.exp(-0.5) + Math.sqrt(600) / 100, 12);

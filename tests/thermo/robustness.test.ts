@@ -62,68 +62,65 @@ const H9 = (T: number) => R * (-W[0] / T + W[1] * Math.log(T) + T * (W[2] + T * 
 const S9 = (T: number) => R * (-W[0] / (2 * T * T) - W[1] / T + W[2] * Math.log(T) + T * (W[3] + T * (W[4] / 2 + T * (W[5] / 3 + T * (W[6] / 4)))) + W[8]);
 
 describe("1. integration: rounding-aware tolerance and a work budget", () => {
-  it(
-    "NASA-9 liquid water (McBride, Zehe & Gordon 2002; coefficients of order 1e9) on listK [300, 310] takes a few dozen Cp evaluations and matches its closed form",
-    () => {
-      const integrator = new Integrator(WORK_BUDGET);
-      const r = evaluate({
+  it("NASA-9 liquid water (McBride, Zehe & Gordon 2002; coefficients of order 1e9) on listK [300, 310] takes a few dozen Cp evaluations and matches its closed form", () => {
+    const integrator = new Integrator(WORK_BUDGET);
+    const r = evaluate(
+      {
         reaction: "H2O(l) -> H2O(g)",
         species: { "H2O(l)": nasa9WaterLiquid(), "H2O(g)": speciesEntry("nasa7-2015", "H2O", "g") },
         temperatures: { listK: [300, 310] },
         include: ["species"],
-      }, { integrator });
-      // Before: ~34 s of bisection to the depth limit (about 1e8 evaluations).
-      expect(integrator.evaluations).toBeLessThan(5000);
-      for (const row of r.species!["H2O(l)"]) {
-        // The closed form itself carries ~2e-7 J/mol (H) and ~2e-9 J/(mol·K) (S) of rounding at these term sizes.
-        expect(Math.abs(row.hkJ * 1000 - H9(row.tK))).toBeLessThan(1e-6);
-        expect(Math.abs(row.sJ - S9(row.tK))).toBeLessThan(1e-8);
-      }
-      // The card against NIST-JANAF H2O(l) at 298.15 K (Chase 1998, ../shared/reference/janaf-check-rows.json): S 69.95.
-      const janaf = janafRows().find((j) => j.species === "H2O" && j.phase === "l" && j.T === 298.15)!;
-      const at = speciesProperties(nasa9WaterLiquid(), [298.15]).rows[0];
-      expect(Math.abs(at.sJ - janaf.S)).toBeLessThan(0.05);
-      expect(Math.abs(at.hkJ - -285.83)).toBeLessThan(0.005); // the card's dfH298, −285.830 kJ/mol
-    },
-    180_000,
-  );
+      },
+      { integrator },
+    );
+    // Before: ~34 s of bisection to the depth limit (about 1e8 evaluations).
+    expect(integrator.evaluations).toBeLessThan(5000);
+    for (const row of r.species!["H2O(l)"]) {
+      // The closed form itself carries ~2e-7 J/mol (H) and ~2e-9 J/(mol·K) (S) of rounding at these term sizes.
+      expect(Math.abs(row.hkJ * 1000 - H9(row.tK))).toBeLessThan(1e-6);
+      expect(Math.abs(row.sJ - S9(row.tK))).toBeLessThan(1e-8);
+    }
+    // The card against NIST-JANAF H2O(l) at 298.15 K (Chase 1998, ../shared/reference/janaf-check-rows.json): S 69.95.
+    const janaf = janafRows().find((j) => j.species === "H2O" && j.phase === "l" && j.T === 298.15)!;
+    const at = speciesProperties(nasa9WaterLiquid(), [298.15]).rows[0];
+    expect(Math.abs(at.sJ - janaf.S)).toBeLessThan(0.05);
+    expect(Math.abs(at.hkJ - -285.83)).toBeLessThan(0.005); // the card's dfH298, −285.830 kJ/mol
+  }, 180_000);
 
-  it(
-    "the NASA-9 N2 set's 6000–20000 K range (a1 ≈ 8e8) on 10 000 points stays a few evaluations per point; N2 matches NIST-JANAF",
-    () => {
-      const list = Array.from({ length: 10000 }, (_, i) => 6000 + (14000 * i) / 9999);
-      const integrator = new Integrator(WORK_BUDGET);
-      const r = speciesProperties(nasa9N2(), list, { integrator });
-      // Before: more than 60 s.
-      expect(integrator.evaluations).toBeLessThan(100_000);
-      // Closed form of the 6000–20000 K range from its own constants (the reference README's
-      // 1e-9 kJ/mol and 1e-9 J/(mol·K) floors; the closed form itself rounds at ~1e-8 J/mol here).
-      const c = NASA9_N2_RANGES[2].coeffs;
-      const h = (T: number) => R * (-c[0] / T + c[1] * Math.log(T) + T * (c[2] + T * (c[3] / 2 + T * (c[4] / 3 + T * (c[5] / 4 + T * (c[6] / 5)))))) + R * c[7];
-      const s = (T: number) => R * (-c[0] / (2 * T * T) - c[1] / T + c[2] * Math.log(T) + T * (c[3] + T * (c[4] / 2 + T * (c[5] / 3 + T * (c[6] / 4)))) + c[8]);
-      for (const row of r.rows) {
-        if (row.tK <= 6000) continue;
-        expect(Math.abs(row.hkJ * 1000 - h(row.tK))).toBeLessThan(1e-6);
-        expect(Math.abs(row.sJ - s(row.tK))).toBeLessThan(1e-9);
-      }
-      // NIST-JANAF N2 (table N-023, Chase 1998; ../shared/reference/janaf-check-rows.json), at the README's Shomate
-      // tolerances (Cp 0.05, S 0.02 J/(mol·K), H 0.005 kJ/mol).
-      const rows = speciesProperties(nasa9N2(), [298.15, 1000]).rows;
-      for (const j of janafRows().filter((x) => x.species === "N2")) {
-        const row = rows.find((x) => x.tK === j.T)!;
-        expect(Math.abs(row.cpJ - j.Cp)).toBeLessThan(0.05);
-        expect(Math.abs(row.sJ - j.S)).toBeLessThan(0.02);
-        expect(Math.abs(row.hkJ - j.HmH298)).toBeLessThan(0.005);
-      }
-    },
-    300_000,
-  );
+  it("the NASA-9 N2 set's 6000–20000 K range (a1 ≈ 8e8) on 10 000 points stays a few evaluations per point; N2 matches NIST-JANAF", () => {
+    const list = Array.from({ length: 10000 }, (_, i) => 6000 + (14000 * i) / 9999);
+    const integrator = new Integrator(WORK_BUDGET);
+    const r = speciesProperties(nasa9N2(), list, { integrator });
+    // Before: more than 60 s.
+    expect(integrator.evaluations).toBeLessThan(100_000);
+    // Closed form of the 6000–20000 K range from its own constants (the reference README's
+    // 1e-9 kJ/mol and 1e-9 J/(mol·K) floors; the closed form itself rounds at ~1e-8 J/mol here).
+    const c = NASA9_N2_RANGES[2].coeffs;
+    const h = (T: number) => R * (-c[0] / T + c[1] * Math.log(T) + T * (c[2] + T * (c[3] / 2 + T * (c[4] / 3 + T * (c[5] / 4 + T * (c[6] / 5)))))) + R * c[7];
+    const s = (T: number) => R * (-c[0] / (2 * T * T) - c[1] / T + c[2] * Math.log(T) + T * (c[3] + T * (c[4] / 2 + T * (c[5] / 3 + T * (c[6] / 4)))) + c[8]);
+    for (const row of r.rows) {
+      if (row.tK <= 6000) continue;
+      expect(Math.abs(row.hkJ * 1000 - h(row.tK))).toBeLessThan(1e-6);
+      expect(Math.abs(row.sJ - s(row.tK))).toBeLessThan(1e-9);
+    }
+    // NIST-JANAF N2 (table N-023, Chase 1998; ../shared/reference/janaf-check-rows.json), at the README's Shomate
+    // tolerances (Cp 0.05, S 0.02 J/(mol·K), H 0.005 kJ/mol).
+    const rows = speciesProperties(nasa9N2(), [298.15, 1000]).rows;
+    for (const j of janafRows().filter((x) => x.species === "N2")) {
+      const row = rows.find((x) => x.tK === j.T)!;
+      expect(Math.abs(row.cpJ - j.Cp)).toBeLessThan(0.05);
+      expect(Math.abs(row.sJ - j.S)).toBeLessThan(0.02);
+      expect(Math.abs(row.hkJ - j.HmH298)).toBeLessThan(0.005);
+    }
+  }, 300_000);
 
   it("a Cp that cannot be integrated within the work budget is refused as integration-budget, naming species and range", () => {
     // Cp oscillating a million times per kelvin (synthetic, invented for this test).
     const e = refusal(() => evaluate(withExpression("30 + sin(1e6 * T)"), { integrator: new Integrator(200_000) }));
     expect(e.code).toBe("integration-budget");
-    expect(e.message).toMatch(/^species "H2O\(g\)": the g segment 200–1500 K: integrating Cp between [\d.]+ K and [\d.]+ K exceeded the work budget of \d+ Cp evaluations for one request; /);
+    expect(e.message).toMatch(
+      /^species "H2O\(g\)": the g segment 200–1500 K: integrating Cp between [\d.]+ K and [\d.]+ K exceeded the work budget of \d+ Cp evaluations for one request; /,
+    );
   });
 });
 
@@ -176,7 +173,11 @@ describe("2 (and issue 10 item 3). the expression budget", () => {
 
 describe("3. every object of the request is strict", () => {
   const cases: [string, (r: ReturnType<typeof shift> & Record<string, unknown>) => void, string][] = [
-    ["equilibrium.presureBar", (r) => (r.equilibrium = { feed: { "CO(g)": 1, "H2O(g)": 1 }, presureBar: 300 }), 'invalid request: equilibrium: unknown field "presureBar" (did you mean "pressureBar"?)'],
+    [
+      "equilibrium.presureBar",
+      (r) => (r.equilibrium = { feed: { "CO(g)": 1, "H2O(g)": 1 }, presureBar: 300 }),
+      'invalid request: equilibrium: unknown field "presureBar" (did you mean "pressureBar"?)',
+    ],
     ["referenceT", (r) => (r.referenceT = 500), 'invalid request: request: unknown field "referenceT" (did you mean "referenceK"?)'],
     ["equilibrum", (r) => (r.equilibrum = { feed: { "CO(g)": 1 } }), 'invalid request: request: unknown field "equilibrum" (did you mean "equilibrium"?)'],
     [
@@ -195,7 +196,11 @@ describe("3. every object of the request is strict", () => {
       'invalid request: species["CO(g)"].segments[0].coeffs: unknown field "Q" (known fields: A, B, C, D, E, F, G, H)',
     ],
     ["a grid field", (r) => (r.temperatures = { fromK: 500, toK: 700, stpK: 100 }), 'invalid request: temperatures: unknown field "stpK" (did you mean "stepK"?)'],
-    ["a species entry", (r) => (r.species["CO(g)"] = { ...r.species["CO(g)"], refrence: {} } as never), 'invalid request: species["CO(g)"]: unknown field "refrence" (did you mean "reference"?)'],
+    [
+      "a species entry",
+      (r) => (r.species["CO(g)"] = { ...r.species["CO(g)"], refrence: {} } as never),
+      'invalid request: species["CO(g)"]: unknown field "refrence" (did you mean "reference"?)',
+    ],
   ];
   for (const [name, edit, message] of cases) {
     it(`${name} is refused, naming the nearest known field`, () => {
@@ -219,7 +224,9 @@ describe("4. non-finite or divergent Cp", () => {
   it('"30 + 1/(T-500)^2" on 200–1500 K is refused across its pole at 500 K', () => {
     const e = refusal(() => evaluate(withExpression("30 + 1/(T-500)^2", { listK: [600] })));
     expect(e.code).toBe("nonfinite-cp");
-    expect(e.message).toMatch(/^species "H2O\(g\)": the g segment 200–1500 K: Cp (grows without bound near 500(\.\d+)? K and cannot be integrated across it|is not finite at 500 K \(got Infinity\); the model cannot be integrated there)$/);
+    expect(e.message).toMatch(
+      /^species "H2O\(g\)": the g segment 200–1500 K: Cp (grows without bound near 500(\.\d+)? K and cannot be integrated across it|is not finite at 500 K \(got Infinity\); the model cannot be integrated there)$/,
+    );
   });
   it("a step in Cp (a conditional expression) is integrable and still answered", () => {
     const r = evaluate(withExpression("T < 500 ? 30 : 40", { listK: [600] }));
@@ -290,7 +297,9 @@ describe("7. feedUnit is a closed set; mass units go through the molar mass", ()
     expect(e.code).toBe("unit-error");
     expect(e.message).toBe('equilibrium.feed["CO(g)"]: "28 kg" is an amount but feedUnit "kmol/h" is a rate; give every feed amount as a rate');
     const odd = refusal(() => evaluate(eqRequest({ feed: { "CO(g)": "1 banana", "H2O(g)": 3 } })));
-    expect(odd.message).toBe('equilibrium.feed["CO(g)"]: cannot read "1 banana" as a feed amount; expected a number with one of mol, kmol, mol/s, kmol/s, kmol/h, g, kg, kg/h, t/h');
+    expect(odd.message).toBe(
+      'equilibrium.feed["CO(g)"]: cannot read "1 banana" as a feed amount; expected a number with one of mol, kmol, mol/s, kmol/s, kmol/h, g, kg, kg/h, t/h',
+    );
   });
 });
 
@@ -299,7 +308,9 @@ describe("8. the equilibrium convergence test is scaled to the rounding floor", 
   const reactions = ["CH4(g) + H2O(g) -> CO(g) + 3 H2(g)", "CO(g) + H2O(g) -> CO2(g) + H2(g)"];
   it("5 000-point reforming + shift at 25 bar (Shomate fits to JANAF): no rows near 541 K falsely flagged", () => {
     const r = evaluate({
-      reaction: reactions[0], species: species(), temperatures: { fromK: 500, toK: 1200, stepK: 700 / 4999 },
+      reaction: reactions[0],
+      species: species(),
+      temperatures: { fromK: 500, toK: 1200, stepK: 700 / 4999 },
       equilibrium: { feed: { "CH4(g)": 1, "H2O(g)": 3 }, pressureBar: 25, reactions },
     });
     expect(r.warnings.filter((w) => w.code === "equilibrium-not-converged")).toEqual([]);
@@ -308,7 +319,9 @@ describe("8. the equilibrium convergence test is scaled to the rounding floor", 
   it("the warning says which rows are corrected and which naive", () => {
     // Near 300 K the reforming extent is ~1e-15 of the feed and the solver stops short (a real miss).
     const r = evaluate({
-      reaction: reactions[0], species: species(), temperatures: { listK: [301.2, 301.44, 301.68, 700] },
+      reaction: reactions[0],
+      species: species(),
+      temperatures: { listK: [301.2, 301.44, 301.68, 700] },
       equilibrium: { feed: { "CH4(g)": 1, "H2O(g)": 3 }, pressureBar: 25, reactions },
     });
     const w = r.warnings.find((x) => x.code === "equilibrium-not-converged")!;

@@ -8,15 +8,7 @@ import fs from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import { describe, expect, it } from "vitest";
-import {
-  evaluate,
-  parseFormula,
-  parseMolarEnergyKJ,
-  parseReaction,
-  parseTemperatureDifferenceK,
-  parseTemperatureK,
-  type SpeciesInput,
-} from "@/lib/thermo";
+import { evaluate, parseFormula, parseMolarEnergyKJ, parseReaction, parseTemperatureDifferenceK, parseTemperatureK, type SpeciesInput } from "@/lib/thermo";
 import { repoRoot, speciesEntry } from "./reference-data";
 
 describe("units", () => {

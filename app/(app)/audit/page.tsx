@@ -67,21 +67,43 @@ const COLUMNS: Column<AuditEventDto>[] = [
       const href = recordHref(e);
       return (
         <>
-          {href ? <Link className="underline" href={href}>{e.entityType} {e.entityId}</Link> : `${e.entityType} ${e.entityId}`}{" "}
-          <Link className="text-xs text-frost-700 underline" href={`/audit?entityType=${encodeURIComponent(e.entityType)}&entityId=${encodeURIComponent(e.entityId)}`} aria-label={`Only ${e.entityType} ${e.entityId}`}>
+          {href ? (
+            <Link className="underline" href={href}>
+              {e.entityType} {e.entityId}
+            </Link>
+          ) : (
+            `${e.entityType} ${e.entityId}`
+          )}{" "}
+          <Link
+            className="text-xs text-frost-700 underline"
+            href={`/audit?entityType=${encodeURIComponent(e.entityType)}&entityId=${encodeURIComponent(e.entityId)}`}
+            aria-label={`Only ${e.entityType} ${e.entityId}`}
+          >
             only this
           </Link>
         </>
       );
     },
   },
-  { key: "change", header: "Change", className: "max-w-md break-all font-mono text-xs text-ink-soft", cell: (e) => change(e).map((line, i) => <span key={i} className="block">{line}</span>) },
+  {
+    key: "change",
+    header: "Change",
+    className: "max-w-md break-all font-mono text-xs text-ink-soft",
+    cell: (e) =>
+      change(e).map((line, i) => (
+        <span key={i} className="block">
+          {line}
+        </span>
+      )),
+  },
 ];
 
 export default async function AuditPage({ searchParams }: { searchParams: Search }) {
   const actor = requireUser(await getActor());
   if (!can(actor.role, "audit.view")) redirect("/");
-  const raw = Object.fromEntries(Object.entries(await searchParams).filter(([k, v]) => typeof v === "string" && ["entityType", "entityId", "actorId", "action", "beforeId"].includes(k))) as Record<string, string>;
+  const raw = Object.fromEntries(
+    Object.entries(await searchParams).filter(([k, v]) => typeof v === "string" && ["entityType", "entityId", "actorId", "action", "beforeId"].includes(k)),
+  ) as Record<string, string>;
   const parsed = auditQuerySchema.safeParse(raw);
   const query = parsed.success ? parsed.data : {};
   const [events, facets] = await Promise.all([listAudit(actor, { ...auditFilterOf(query), limit: PAGE }), auditFacets(actor)]);
@@ -90,14 +112,21 @@ export default async function AuditPage({ searchParams }: { searchParams: Search
   const label = "space-y-1 text-sm text-ink-soft";
   return (
     <>
-      <PageHeader title="Audit trail" lead={`Who did what to which record in ${actor.teamName}, newest first. Every change is written here in the same transaction as the change itself.`} />
+      <PageHeader
+        title="Audit trail"
+        lead={`Who did what to which record in ${actor.teamName}, newest first. Every change is written here in the same transaction as the change itself.`}
+      />
       <Card className="mb-4">
         <form method="get" action="/audit" className="grid items-end gap-3 sm:grid-cols-2 lg:grid-cols-[1fr_8rem_1fr_1fr_auto]" aria-label="Filter the audit trail">
           <label className={label}>
             <span className="font-medium">Record type</span>
             <select name="entityType" defaultValue={raw.entityType ?? ""} className={inputClass} aria-label="Record type">
               <option value="">Any record</option>
-              {facets.entityTypes.map((t) => <option key={t} value={t}>{t}</option>)}
+              {facets.entityTypes.map((t) => (
+                <option key={t} value={t}>
+                  {t}
+                </option>
+              ))}
             </select>
           </label>
           <label className={label}>
@@ -108,22 +137,38 @@ export default async function AuditPage({ searchParams }: { searchParams: Search
             <span className="font-medium">Actor</span>
             <select name="actorId" defaultValue={raw.actorId ?? ""} className={inputClass} aria-label="Actor">
               <option value="">Anyone</option>
-              {facets.actors.map((a) => <option key={a.id} value={a.id}>{a.name}</option>)}
+              {facets.actors.map((a) => (
+                <option key={a.id} value={a.id}>
+                  {a.name}
+                </option>
+              ))}
             </select>
           </label>
           <label className={label}>
             <span className="font-medium">Action</span>
             <select name="action" defaultValue={raw.action ?? ""} className={inputClass} aria-label="Action">
               <option value="">Any action</option>
-              {facets.actions.map((a) => <option key={a} value={a}>{a}</option>)}
+              {facets.actions.map((a) => (
+                <option key={a} value={a}>
+                  {a}
+                </option>
+              ))}
             </select>
           </label>
           <div className="flex gap-2">
-            <button type="submit" className={buttonClass("primary")}>Filter</button>
-            <Link href="/audit" className={buttonClass("ghost")}>Clear</Link>
+            <button type="submit" className={buttonClass("primary")}>
+              Filter
+            </button>
+            <Link href="/audit" className={buttonClass("ghost")}>
+              Clear
+            </Link>
           </div>
         </form>
-        {!parsed.success && <p role="alert" className="mt-2 text-sm text-flag-700">{parsed.error.issues[0]?.message ?? "Those filters are not valid."} Showing everything.</p>}
+        {!parsed.success && (
+          <p role="alert" className="mt-2 text-sm text-flag-700">
+            {parsed.error.issues[0]?.message ?? "Those filters are not valid."} Showing everything.
+          </p>
+        )}
       </Card>
       <Card title={`Events (${events.length}${older ? "+" : ""})`}>
         {events.length === 0 ? (

@@ -41,10 +41,22 @@ export default async function LibraryPage({ searchParams }: { searchParams: Sear
         lead="Heat-capacity models per species and phase. Published reference sets are read-only; team models are drafted, proposed and approved by a second steward."
         action={
           <div className="flex flex-wrap gap-2">
-            {can(actor.role, "models.draft") && <Link href="/library/new" className={buttonClass("primary")}>New model</Link>}
-            {can(actor.role, "datasets.upload") && <Link href="/library/upload" className={buttonClass("secondary")}>Fit measured data</Link>}
-            <Link href="/library/datasets" className={buttonClass("secondary")}>Datasets</Link>
-            <Link href="/library/transfer" className={buttonClass("secondary")}>Import / export</Link>
+            {can(actor.role, "models.draft") && (
+              <Link href="/library/new" className={buttonClass("primary")}>
+                New model
+              </Link>
+            )}
+            {can(actor.role, "datasets.upload") && (
+              <Link href="/library/upload" className={buttonClass("secondary")}>
+                Fit measured data
+              </Link>
+            )}
+            <Link href="/library/datasets" className={buttonClass("secondary")}>
+              Datasets
+            </Link>
+            <Link href="/library/transfer" className={buttonClass("secondary")}>
+              Import / export
+            </Link>
           </div>
         }
       />
@@ -55,40 +67,54 @@ export default async function LibraryPage({ searchParams }: { searchParams: Sear
             <input name="q" defaultValue={query.q} placeholder="CH4, water, Shomate…" className={inputClass} />
           </label>
           <CollapsibleFilters active={[query.phase, query.form, query.status !== "current", query.scope !== "all"].filter(Boolean).length}>
-          <label className="space-y-1 text-sm font-medium text-ink-soft">
-            <span>Phase</span>
-            <select name="phase" defaultValue={query.phase} className={inputClass}>
-              <option value="">Any</option>
-              <option value="g">Gas</option>
-              <option value="l">Liquid</option>
-              <option value="cr">Solid</option>
-            </select>
-          </label>
-          <label className="space-y-1 text-sm font-medium text-ink-soft">
-            <span>Cp form</span>
-            <select name="form" defaultValue={query.form} className={inputClass}>
-              <option value="">Any</option>
-              {CP_FORMS.map((f) => <option key={f} value={f}>{f}</option>)}
-            </select>
-          </label>
-          <label className="space-y-1 text-sm font-medium text-ink-soft">
-            <span>Status</span>
-            <select name="status" defaultValue={query.status} className={inputClass}>
-              {STATUS_OPTIONS.map(([v, l]) => <option key={v} value={v}>{l}</option>)}
-            </select>
-          </label>
-          <label className="space-y-1 text-sm font-medium text-ink-soft">
-            <span>Source</span>
-            <select name="scope" defaultValue={query.scope} className={inputClass}>
-              <option value="all">Reference and team</option>
-              <option value="reference">Reference only</option>
-              <option value="team">{actor.teamName} only</option>
-            </select>
-          </label>
+            <label className="space-y-1 text-sm font-medium text-ink-soft">
+              <span>Phase</span>
+              <select name="phase" defaultValue={query.phase} className={inputClass}>
+                <option value="">Any</option>
+                <option value="g">Gas</option>
+                <option value="l">Liquid</option>
+                <option value="cr">Solid</option>
+              </select>
+            </label>
+            <label className="space-y-1 text-sm font-medium text-ink-soft">
+              <span>Cp form</span>
+              <select name="form" defaultValue={query.form} className={inputClass}>
+                <option value="">Any</option>
+                {CP_FORMS.map((f) => (
+                  <option key={f} value={f}>
+                    {f}
+                  </option>
+                ))}
+              </select>
+            </label>
+            <label className="space-y-1 text-sm font-medium text-ink-soft">
+              <span>Status</span>
+              <select name="status" defaultValue={query.status} className={inputClass}>
+                {STATUS_OPTIONS.map(([v, l]) => (
+                  <option key={v} value={v}>
+                    {l}
+                  </option>
+                ))}
+              </select>
+            </label>
+            <label className="space-y-1 text-sm font-medium text-ink-soft">
+              <span>Source</span>
+              <select name="scope" defaultValue={query.scope} className={inputClass}>
+                <option value="all">Reference and team</option>
+                <option value="reference">Reference only</option>
+                <option value="team">{actor.teamName} only</option>
+              </select>
+            </label>
           </CollapsibleFilters>
-          <button type="submit" className={buttonClass("primary")}>Search</button>
+          <button type="submit" className={buttonClass("primary")}>
+            Search
+          </button>
         </form>
-        {!parsed.success && <p role="alert" className="mt-2 text-sm text-flag-700">Some filters were not understood and were reset.</p>}
+        {!parsed.success && (
+          <p role="alert" className="mt-2 text-sm text-flag-700">
+            Some filters were not understood and were reset.
+          </p>
+        )}
       </Card>
 
       <div className="mt-6" data-testid="library-results">
@@ -97,7 +123,17 @@ export default async function LibraryPage({ searchParams }: { searchParams: Sear
             <div className="py-8 text-center">
               <p className="text-sm font-medium text-ink">{filtered ? "No models match these filters." : "The library is empty."}</p>
               <p className="mt-1 text-sm text-ink-muted">
-                {filtered ? <>Try another formula, or <Link className="text-frost-700 underline" href="/library">clear the filters</Link>.</> : "Seed the reference library or import a library file."}
+                {filtered ? (
+                  <>
+                    Try another formula, or{" "}
+                    <Link className="text-frost-700 underline" href="/library">
+                      clear the filters
+                    </Link>
+                    .
+                  </>
+                ) : (
+                  "Seed the reference library or import a library file."
+                )}
               </p>
             </div>
           </Card>
@@ -118,7 +154,18 @@ export default async function LibraryPage({ searchParams }: { searchParams: Sear
                     </p>
                     <p className="mt-0.5 text-xs text-ink-muted">
                       {m.species.displayName} · {FAMILY_LABELS[m.family] ?? m.family}
-                      {m.shown && <> · {m.shown.phases.join(", ")} · {m.shown.forms.join(", ")}{m.shown.rangeK && <> · {m.shown.rangeK[0]}–{m.shown.rangeK[1]} K</>}</>}
+                      {m.shown && (
+                        <>
+                          {" "}
+                          · {m.shown.phases.join(", ")} · {m.shown.forms.join(", ")}
+                          {m.shown.rangeK && (
+                            <>
+                              {" "}
+                              · {m.shown.rangeK[0]}–{m.shown.rangeK[1]} K
+                            </>
+                          )}
+                        </>
+                      )}
                     </p>
                   </div>
                   <div className="flex shrink-0 flex-wrap items-center gap-2 text-xs">
@@ -130,7 +177,11 @@ export default async function LibraryPage({ searchParams }: { searchParams: Sear
                     ) : (
                       <span className="text-ink-muted">no versions</span>
                     )}
-                    {m.openCount > 0 && m.shown?.status === "approved" && <span className="text-ember-700">{m.openCount} open draft{m.openCount === 1 ? "" : "s"}</span>}
+                    {m.openCount > 0 && m.shown?.status === "approved" && (
+                      <span className="text-ember-700">
+                        {m.openCount} open draft{m.openCount === 1 ? "" : "s"}
+                      </span>
+                    )}
                   </div>
                 </li>
               ))}

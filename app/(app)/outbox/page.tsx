@@ -13,7 +13,9 @@ function Body({ text }: { text: string }) {
     <pre className="whitespace-pre-wrap break-words font-sans text-sm text-ink-soft">
       {parts.map((p, i) =>
         /^https?:\/\//.test(p) ? (
-          <a key={i} href={p} className="text-frost-600 underline">{p}</a>
+          <a key={i} href={p} className="text-frost-600 underline">
+            {p}
+          </a>
         ) : (
           <span key={i}>{p}</span>
         ),
@@ -66,7 +68,9 @@ export default async function OutboxPage() {
                     To {m.to.join(", ")} · <time dateTime={m.receivedAt}>{m.receivedAt.replace("T", " ").slice(0, 19)} UTC</time>
                   </p>
                 </header>
-                <div className="px-4 py-3"><Body text={m.text} /></div>
+                <div className="px-4 py-3">
+                  <Body text={m.text} />
+                </div>
               </article>
             </li>
           ))}

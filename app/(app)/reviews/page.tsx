@@ -19,7 +19,9 @@ export default async function ReviewsPage() {
     <>
       <PageHeader
         title="Reviews"
-        lead={reviewer ? "Submitted cases waiting for a decision. Your own cases go to another reviewer." : "Your role does not decide cases; this is where yours wait for a reviewer."}
+        lead={
+          reviewer ? "Submitted cases waiting for a decision. Your own cases go to another reviewer." : "Your role does not decide cases; this is where yours wait for a reviewer."
+        }
       />
       <div className="grid gap-4 lg:grid-cols-3">
         <Card title={reviewer ? `Waiting for review (${queue.length})` : `Your cases waiting (${waitingMine.length})`} className="lg:col-span-2">

@@ -29,17 +29,27 @@ export default async function TeamPage() {
   const [members, invitations] = await Promise.all([listMembers(actor), manage ? listInvitations(actor) : Promise.resolve([])]);
   return (
     <>
-      <PageHeader title={actor.teamName} lead={manage ? "Members, roles and invitations. Every change is written to the audit trail." : "The people in your team and their roles."} />
+      <PageHeader
+        title={actor.teamName}
+        lead={manage ? "Members, roles and invitations. Every change is written to the audit trail." : "The people in your team and their roles."}
+      />
       <div className="space-y-6">
         <Card title={`Members (${members.length})`}>
           <ul className="divide-y divide-ink-line">
             {members.map((m) => (
               <li key={m.id} className="flex flex-wrap items-center justify-between gap-3 py-3" data-testid="member-row">
                 <div>
-                  <p className="text-sm font-medium">{m.name}{m.userId === actor.userId && <span className="text-ink-muted"> (you)</span>}</p>
+                  <p className="text-sm font-medium">
+                    {m.name}
+                    {m.userId === actor.userId && <span className="text-ink-muted"> (you)</span>}
+                  </p>
                   <p className="text-xs text-ink-muted">{m.email}</p>
                 </div>
-                {manage ? <MemberControls membershipId={m.id} role={m.role} name={m.name} changeRole={changeRoleAction} removeMember={removeMemberAction} /> : <Badge>{ROLE_LABELS[m.role]}</Badge>}
+                {manage ? (
+                  <MemberControls membershipId={m.id} role={m.role} name={m.name} changeRole={changeRoleAction} removeMember={removeMemberAction} />
+                ) : (
+                  <Badge>{ROLE_LABELS[m.role]}</Badge>
+                )}
               </li>
             ))}
           </ul>
@@ -47,9 +57,7 @@ export default async function TeamPage() {
         {manage && (
           <Card title="Invite someone">
             <InviteForm demo={!isProduction} invite={inviteAction} />
-            {invitations.length > 0 && (
-              <DataTable className="mt-6" caption="Invitations" columns={INVITATION_COLUMNS} rows={invitations} rowKey={(i) => i.id} />
-            )}
+            {invitations.length > 0 && <DataTable className="mt-6" caption="Invitations" columns={INVITATION_COLUMNS} rows={invitations} rowKey={(i) => i.id} />}
           </Card>
         )}
       </div>

@@ -104,7 +104,11 @@ export function presentSummary(row: Case, authorName: string, latestRevision: nu
   };
 }
 
-export function presentSnapshotSummary(s: Pick<CaseSnapshot, "id" | "revision" | "hash" | "engineVersion" | "createdAt" | "createdById">, review: Review | undefined, names: Names): SnapshotSummaryDto {
+export function presentSnapshotSummary(
+  s: Pick<CaseSnapshot, "id" | "revision" | "hash" | "engineVersion" | "createdAt" | "createdById">,
+  review: Review | undefined,
+  names: Names,
+): SnapshotSummaryDto {
   return {
     revision: s.revision,
     hash: s.hash,
@@ -120,7 +124,14 @@ export function presentComment(c: Comment, authorName: string, revision: number 
 }
 
 /** What the case page needs beside the row, loaded by the caller. */
-export type CaseParts = { authorName: string; latestRevision: number | null; pins: PinnedVersion[]; snapshots: SnapshotSummaryDto[]; newerVersions: NewerVersionDto[]; comments: CommentDto[] };
+export type CaseParts = {
+  authorName: string;
+  latestRevision: number | null;
+  pins: PinnedVersion[];
+  snapshots: SnapshotSummaryDto[];
+  newerVersions: NewerVersionDto[];
+  comments: CommentDto[];
+};
 
 /** The case as its page shows it; what the actor may do follows the permission table and the four-eyes rule. */
 export function presentCase(me: Actor, row: Case, parts: CaseParts): CaseDto {

@@ -79,7 +79,13 @@ async function snapshotSummaries(caseId: number): Promise<SnapshotSummaryDto[]> 
   });
   const reviews = await Review.findAll({ where: { caseId } });
   const names = await namesOf([...snaps.map((s) => s.createdById), ...reviews.map((r) => r.reviewerId)]);
-  return snaps.map((s) => presentSnapshotSummary(s, reviews.find((r) => r.snapshotId === s.id), names));
+  return snaps.map((s) =>
+    presentSnapshotSummary(
+      s,
+      reviews.find((r) => r.snapshotId === s.id),
+      names,
+    ),
+  );
 }
 
 async function commentsOf(caseId: number): Promise<CommentDto[]> {
@@ -114,7 +120,15 @@ export async function requestFor(teamId: number, inputs: CaseInputs, pins: reado
   const eq = inputs.equilibrium;
   if (eq?.gas !== "peng-robinson") return buildRequest(inputs, pins);
   const pinned = new Set(pins.map((p) => p.key));
-  return buildRequest(inputs, pins, await inertCriticalConstants(teamId, Object.keys(eq.feed).filter((k) => !pinned.has(k)), transaction));
+  return buildRequest(
+    inputs,
+    pins,
+    await inertCriticalConstants(
+      teamId,
+      Object.keys(eq.feed).filter((k) => !pinned.has(k)),
+      transaction,
+    ),
+  );
 }
 
 async function snapshotOf(caseId: number, revision: number): Promise<CaseSnapshot> {
@@ -131,7 +145,14 @@ export async function listCases(actor: Actor | null, filter: { status?: CaseStat
   if (filter.status) where.status = filter.status;
   if (filter.mine) where.authorId = me.userId;
   if (filter.excludeMine) where.authorId = { [Op.ne]: me.userId };
-  const rows = await models().Case.findAll({ where, order: [["updatedAt", "DESC"], ["id", "DESC"]], limit: filter.limit ?? 500 });
+  const rows = await models().Case.findAll({
+    where,
+    order: [
+      ["updatedAt", "DESC"],
+      ["id", "DESC"],
+    ],
+    limit: filter.limit ?? 500,
+  });
   return summaries(rows);
 }
 
@@ -181,7 +202,12 @@ export async function getResults(actor: Actor | null, caseId: number, revision?:
 
 export async function exportCsv(actor: Actor | null, caseId: number, revision?: number, unit: DisplayUnit = "K"): Promise<{ filename: string; csv: string }> {
   const results = await getResults(actor, caseId, revision);
-  const slug = results.title.toLowerCase().replace(/[^a-z0-9]+/g, "-").replace(/^-|-$/g, "").slice(0, 60) || "case";
+  const slug =
+    results.title
+      .toLowerCase()
+      .replace(/[^a-z0-9]+/g, "-")
+      .replace(/^-|-$/g, "")
+      .slice(0, 60) || "case";
   const suffix = (results.revision ? `-r${results.revision}` : "-draft") + (unit === "K" ? "" : `-${unit}`);
   return { filename: `heatpath-case-${caseId}-${slug}${suffix}.csv`, csv: resultCsv(results.result, unit) };
 }

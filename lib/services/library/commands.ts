@@ -10,7 +10,16 @@ import { db, models } from "@/lib/db";
 import { AppError, conflict, notFound } from "@/lib/errors";
 import { parseFormula, speciesProperties, type SpeciesInput } from "@/lib/thermo";
 import { describeData } from "@/lib/thermo/curve";
-import { createModelSchema, editVersionSchema, exportFileSchema, versionInputSchema, type CreateModelInput, type CreateSpeciesInput, type EditVersionInput, type VersionInput } from "@/lib/validation/library";
+import {
+  createModelSchema,
+  editVersionSchema,
+  exportFileSchema,
+  versionInputSchema,
+  type CreateModelInput,
+  type CreateSpeciesInput,
+  type EditVersionInput,
+  type VersionInput,
+} from "@/lib/validation/library";
 import type { ModelVersion } from "@/models";
 import { recordAudit } from "../audit";
 import { queueImpactJob } from "../impact";
@@ -128,7 +137,15 @@ export async function proposeVersion(actor: Actor | null, id: number): Promise<V
     version.proposedAt = new Date();
     version.lockVersion += 1;
     await version.save({ transaction });
-    await recordAudit(transaction, { action: "model-version.proposed", entityType: "model-version", entityId: id, teamId: me.teamId, actorId: me.userId, before: { status: "draft" }, after: { status: "proposed" } });
+    await recordAudit(transaction, {
+      action: "model-version.proposed",
+      entityType: "model-version",
+      entityId: id,
+      teamId: me.teamId,
+      actorId: me.userId,
+      before: { status: "draft" },
+      after: { status: "proposed" },
+    });
     await addContributor(transaction, id, me.userId, "proposer");
     const dto = await presentVersion(version, transaction);
     await notifyProposed(transaction, me, dto);
@@ -162,7 +179,15 @@ export async function approveVersion(actor: Actor | null, id: number, note?: str
     for (const old of previous) {
       // The only change an approved row may take (the database trigger allows exactly this).
       await ModelVersion.update({ status: "superseded" }, { where: { id: old.id, status: "approved" }, transaction });
-      await recordAudit(transaction, { action: "model-version.superseded", entityType: "model-version", entityId: old.id, teamId: me.teamId, actorId: me.userId, before: { status: "approved" }, after: { status: "superseded", byVersionId: version.id } });
+      await recordAudit(transaction, {
+        action: "model-version.superseded",
+        entityType: "model-version",
+        entityId: old.id,
+        teamId: me.teamId,
+        actorId: me.userId,
+        before: { status: "approved" },
+        after: { status: "superseded", byVersionId: version.id },
+      });
     }
     version.status = "approved";
     version.decidedById = me.userId;
@@ -170,7 +195,15 @@ export async function approveVersion(actor: Actor | null, id: number, note?: str
     version.decisionReason = note?.trim() || null;
     version.lockVersion += 1;
     await version.save({ transaction });
-    await recordAudit(transaction, { action: "model-version.approved", entityType: "model-version", entityId: id, teamId: me.teamId, actorId: me.userId, before: { status: "proposed" }, after: { status: "approved", supersededIds: previous.map((p) => p.id), note: version.decisionReason } });
+    await recordAudit(transaction, {
+      action: "model-version.approved",
+      entityType: "model-version",
+      entityId: id,
+      teamId: me.teamId,
+      actorId: me.userId,
+      before: { status: "proposed" },
+      after: { status: "approved", supersededIds: previous.map((p) => p.id), note: version.decisionReason },
+    });
     const dto = await presentVersion(version, transaction);
     await notifyDecided(transaction, me, dto);
     // Re-run the impact on the approved version; when done, the authors of affected cases get one mail each.
@@ -189,7 +222,15 @@ export async function rejectVersion(actor: Actor | null, id: number, reason: str
     version.decisionReason = reason;
     version.lockVersion += 1;
     await version.save({ transaction });
-    await recordAudit(transaction, { action: "model-version.rejected", entityType: "model-version", entityId: id, teamId: me.teamId, actorId: me.userId, before: { status: "proposed" }, after: { status: "rejected", reason } });
+    await recordAudit(transaction, {
+      action: "model-version.rejected",
+      entityType: "model-version",
+      entityId: id,
+      teamId: me.teamId,
+      actorId: me.userId,
+      before: { status: "proposed" },
+      after: { status: "rejected", reason },
+    });
     const dto = await presentVersion(version, transaction);
     await notifyDecided(transaction, me, dto);
     return dto;
@@ -244,7 +285,10 @@ export async function importLibrary(actor: Actor | null, raw: unknown): Promise<
         throw new AppError(422, "invalid-import", `models.${i}.species.formula: ${(e as Error).message}`);
       }
       const species = await findOrCreateSpecies(me, entry.species, transaction);
-      let model = await CpModel.findOne({ where: { teamId: me.teamId, speciesId: species.id, name: entry.name, family: entry.family, variant: entry.variant ?? null }, transaction });
+      let model = await CpModel.findOne({
+        where: { teamId: me.teamId, speciesId: species.id, name: entry.name, family: entry.family, variant: entry.variant ?? null },
+        transaction,
+      });
       const created = !model;
       model ??= await createTeamModel(me, { speciesId: species.id, name: entry.name, family: entry.family, variant: entry.variant ?? null }, transaction);
       const ids: number[] = [];
@@ -252,7 +296,12 @@ export async function importLibrary(actor: Actor | null, raw: unknown): Promise<
         const version = await insertDraft(
           me,
           model,
-          { data: v.data as SpeciesInput, citation: v.citation, uncertainty: v.uncertainty ?? null, changeNote: v.changeNote ?? `Imported (was version ${v.versionNumber}, ${v.status}).` },
+          {
+            data: v.data as SpeciesInput,
+            citation: v.citation,
+            uncertainty: v.uncertainty ?? null,
+            changeNote: v.changeNote ?? `Imported (was version ${v.versionNumber}, ${v.status}).`,
+          },
           transaction,
           "model-version.imported",
           { importedVersionNumber: v.versionNumber, importedStatus: v.status },

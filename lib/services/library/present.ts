@@ -74,7 +74,15 @@ export type Contributor = { userId: number; roles: ContributorRole[] };
 const scopeOf = (teamId: number | null): Scope => (teamId === null ? "reference" : "team");
 
 export function speciesDto(s: Species): SpeciesDto {
-  return { id: s.id, formula: s.formula, displayName: s.displayName, elements: s.elements, molarMassGPerMol: s.molarMassGPerMol, scope: scopeOf(s.teamId), phasePoints: phasePointsOf(s) ?? null };
+  return {
+    id: s.id,
+    formula: s.formula,
+    displayName: s.displayName,
+    elements: s.elements,
+    molarMassGPerMol: s.molarMassGPerMol,
+    scope: scopeOf(s.teamId),
+    phasePoints: phasePointsOf(s) ?? null,
+  };
 }
 
 export function modelSummary(m: CpModel): ModelSummaryDto {

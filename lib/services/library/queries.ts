@@ -8,7 +8,18 @@ import type { SpeciesInput } from "@/lib/thermo";
 import { computeCurve, describeData, type Curve } from "@/lib/thermo/curve";
 import { EXPORT_FORMAT, EXPORT_FORMAT_VERSION, type ExportFile, type ListModelsQuery, type PreviewInput } from "@/lib/validation/library";
 import type { ModelVersion } from "@/models";
-import { modelSummary, speciesDto, versionSummary, type ModelDetailDto, type ModelRowDto, type Page, type SpeciesDetailDto, type SpeciesDto, type VersionAuditDto, type VersionDto } from "./present";
+import {
+  modelSummary,
+  speciesDto,
+  versionSummary,
+  type ModelDetailDto,
+  type ModelRowDto,
+  type Page,
+  type SpeciesDetailDto,
+  type SpeciesDto,
+  type VersionAuditDto,
+  type VersionDto,
+} from "./present";
 import { loadModel, loadVersion, presentVersion, requireVisible, userNames, visible } from "./rows";
 
 // ------------------------------------------------------------------ species
@@ -19,10 +30,16 @@ export async function listSpecies(actor: Actor | null, query: { q?: string; page
   const q = (query.q ?? "").trim();
   const page = query.page ?? 1;
   const pageSize = query.pageSize ?? 50;
-  const where: WhereOptions = q
-    ? { [Op.and]: [visible(me), { [Op.or]: [{ formula: containsText(q) }, { displayName: containsText(q) }] }] }
-    : visible(me);
-  const { rows, count } = await Species.findAndCountAll({ where, order: [["formula", "ASC"], ["id", "ASC"]], limit: pageSize, offset: (page - 1) * pageSize });
+  const where: WhereOptions = q ? { [Op.and]: [visible(me), { [Op.or]: [{ formula: containsText(q) }, { displayName: containsText(q) }] }] } : visible(me);
+  const { rows, count } = await Species.findAndCountAll({
+    where,
+    order: [
+      ["formula", "ASC"],
+      ["id", "ASC"],
+    ],
+    limit: pageSize,
+    offset: (page - 1) * pageSize,
+  });
   return { items: rows.map(speciesDto), page, pageSize, total: count, pages: Math.max(1, Math.ceil(count / pageSize)) };
 }
 
@@ -32,7 +49,13 @@ export async function getSpecies(actor: Actor | null, id: number): Promise<Speci
   const species = await Species.findByPk(id);
   if (!species) throw notFound("Species");
   requireVisible(me, species.teamId, "Species");
-  const cpModels = await CpModel.findAll({ where: { [Op.and]: [{ speciesId: id }, visible(me)] }, order: [["teamId", "ASC"], ["id", "ASC"]] });
+  const cpModels = await CpModel.findAll({
+    where: { [Op.and]: [{ speciesId: id }, visible(me)] },
+    order: [
+      ["teamId", "ASC"],
+      ["id", "ASC"],
+    ],
+  });
   const versions = await ModelVersion.findAll({ where: { modelId: cpModels.map((m) => m.id) }, order: [["versionNumber", "DESC"]] });
   const names = await userNames(versions.map((v) => v.authorId));
   return {
@@ -60,9 +83,7 @@ export async function listModels(actor: Actor | null, query: ListModelsQuery): P
   const speciesHits = q
     ? await Species.findAll({ where: { [Op.and]: [visible(me), { [Op.or]: [{ formula: containsText(q) }, { displayName: containsText(q) }] }] }, attributes: ["id"] })
     : [];
-  const where: WhereOptions = q
-    ? { [Op.and]: [scopeWhere, { [Op.or]: [{ name: containsText(q) }, { speciesId: speciesHits.map((s) => s.id) }] }] }
-    : scopeWhere;
+  const where: WhereOptions = q ? { [Op.and]: [scopeWhere, { [Op.or]: [{ name: containsText(q) }, { speciesId: speciesHits.map((s) => s.id) }] }] } : scopeWhere;
   const cpModels = await CpModel.findAll({ where, include: [{ model: Species, as: "species" }] });
   const versions = await ModelVersion.findAll({ where: { modelId: cpModels.map((m) => m.id) }, order: [["versionNumber", "DESC"]] });
   const byModel = new Map<number, ModelVersion[]>();
@@ -124,7 +145,14 @@ export async function versionAudit(actor: Actor | null, id: number): Promise<Ver
   await loadVersion(me, id);
   const rows = await models().AuditEvent.findAll({ where: { entityType: "model-version", entityId: String(id) }, order: [["id", "ASC"]] });
   const names = await userNames(rows.map((r) => r.actorId));
-  return rows.map((r) => ({ id: r.id, action: r.action, actorName: r.actorId != null ? (names.get(r.actorId) ?? null) : null, at: r.createdAt.toISOString(), before: r.before, after: r.after }));
+  return rows.map((r) => ({
+    id: r.id,
+    action: r.action,
+    actorName: r.actorId != null ? (names.get(r.actorId) ?? null) : null,
+    at: r.createdAt.toISOString(),
+    before: r.before,
+    after: r.after,
+  }));
 }
 
 // ------------------------------------------------------------------ curves (lib/thermo/curve.ts; its refusals answer 422)
@@ -167,7 +195,14 @@ export async function exportLibrary(actor: Actor | null, query: { models: number
       name: m.name,
       family: m.family,
       variant: m.variant ?? null,
-      versions: list.map((v) => ({ versionNumber: v.versionNumber, status: v.status, data: v.data as ExportFile["models"][number]["versions"][number]["data"], citation: v.citation, uncertainty: v.uncertainty, changeNote: v.changeNote })),
+      versions: list.map((v) => ({
+        versionNumber: v.versionNumber,
+        status: v.status,
+        data: v.data as ExportFile["models"][number]["versions"][number]["data"],
+        citation: v.citation,
+        uncertainty: v.uncertainty,
+        changeNote: v.changeNote,
+      })),
     });
   }
   if (!out.length) throw new AppError(404, "nothing-to-export", "No versions to export: choose models with an approved version, or export all versions.");

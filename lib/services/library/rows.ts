@@ -98,11 +98,22 @@ export async function findOrCreateSpecies(me: Actor, input: CreateSpeciesInput, 
     { teamId: me.teamId, formula: input.formula, displayName: input.displayName, elements: parsed.elements, molarMassGPerMol: parsed.molarMassGPerMol, identifiers: null },
     { transaction },
   );
-  await recordAudit(transaction, { action: "species.created", entityType: "species", entityId: species.id, teamId: me.teamId, actorId: me.userId, after: { formula: species.formula, displayName: species.displayName } });
+  await recordAudit(transaction, {
+    action: "species.created",
+    entityType: "species",
+    entityId: species.id,
+    teamId: me.teamId,
+    actorId: me.userId,
+    after: { formula: species.formula, displayName: species.displayName },
+  });
   return species;
 }
 
-export async function createTeamModel(me: Actor, input: { speciesId?: number; species?: CreateSpeciesInput; name: string; family: string; variant?: string | null; copiedFromId?: number | null }, transaction: Transaction): Promise<CpModel> {
+export async function createTeamModel(
+  me: Actor,
+  input: { speciesId?: number; species?: CreateSpeciesInput; name: string; family: string; variant?: string | null; copiedFromId?: number | null },
+  transaction: Transaction,
+): Promise<CpModel> {
   const { CpModel, Species } = models();
   let species: Species | null;
   if (input.speciesId !== undefined) {
@@ -113,11 +124,26 @@ export async function createTeamModel(me: Actor, input: { speciesId?: number; sp
     species = await findOrCreateSpecies(me, input.species!, transaction);
   }
   const model = await CpModel.create(
-    { speciesId: species.id, teamId: me.teamId, name: input.name, family: input.family, variant: input.variant ?? null, copiedFromId: input.copiedFromId ?? null, createdById: me.userId },
+    {
+      speciesId: species.id,
+      teamId: me.teamId,
+      name: input.name,
+      family: input.family,
+      variant: input.variant ?? null,
+      copiedFromId: input.copiedFromId ?? null,
+      createdById: me.userId,
+    },
     { transaction },
   );
   model.species = species;
-  await recordAudit(transaction, { action: "cp-model.created", entityType: "cp-model", entityId: model.id, teamId: me.teamId, actorId: me.userId, after: { name: model.name, family: model.family, speciesId: species.id, copiedFromId: model.copiedFromId } });
+  await recordAudit(transaction, {
+    action: "cp-model.created",
+    entityType: "cp-model",
+    entityId: model.id,
+    teamId: me.teamId,
+    actorId: me.userId,
+    after: { name: model.name, family: model.family, speciesId: species.id, copiedFromId: model.copiedFromId },
+  });
   return model;
 }
 
@@ -129,7 +155,14 @@ async function nextVersionNumber(modelId: number, transaction: Transaction): Pro
 export type DraftFields = { data: SpeciesInput; citation: string; uncertainty?: VersionUncertainty | null; changeNote?: string | null; datasetId?: number | null };
 
 /** Insert a draft and its audit event; the caller holds the transaction and has checked the actor. */
-export async function insertDraft(me: Actor, model: CpModel, fields: DraftFields, transaction: Transaction, action = "model-version.created", extra?: Record<string, unknown>): Promise<ModelVersion> {
+export async function insertDraft(
+  me: Actor,
+  model: CpModel,
+  fields: DraftFields,
+  transaction: Transaction,
+  action = "model-version.created",
+  extra?: Record<string, unknown>,
+): Promise<ModelVersion> {
   const version = await models().ModelVersion.create(
     {
       modelId: model.id,

@@ -34,7 +34,14 @@ const teamReads: Expect = { ...allowAll(200), other: 404 };
 const authorOnly: Expect = { anonymous: 401, engineer: 200, steward: 403, reviewer: 403, admin: 403, other: 404 };
 
 export const ROWS: Row[] = [
-  { name: "equilibrium sources", file: "equilibrium/sources", method: "POST", handler: sources.POST as Handler, prepare: async () => ({ body: sourcesBody }), expect: allowAll(200) },
+  {
+    name: "equilibrium sources",
+    file: "equilibrium/sources",
+    method: "POST",
+    handler: sources.POST as Handler,
+    prepare: async () => ({ body: sourcesBody }),
+    expect: allowAll(200),
+  },
   {
     name: "equilibrium preview",
     file: "equilibrium/preview",

@@ -89,7 +89,15 @@ export const ROWS: Row[] = [
   { name: "audit", file: "audit", method: "GET", handler: audit.GET as Handler, expect: { anonymous: 401, engineer: 403, steward: 200, reviewer: 200, admin: 200, other: 200 } },
   { name: "outbox (own mail, or the team's for admins)", file: "outbox", method: "GET", handler: outbox.GET as Handler, expect: allowAll(200) },
   { name: "evaluate", file: "evaluate", method: "POST", handler: evaluateRoute.POST as Handler, prepare: async () => ({ body: evaluateBody }), expect: allowAll(200) },
-  { name: "evaluate (columns)", file: "evaluate", method: "POST", query: "format=columns", handler: evaluateRoute.POST as Handler, prepare: async () => ({ body: evaluateBody }), expect: allowAll(200) },
+  {
+    name: "evaluate (columns)",
+    file: "evaluate",
+    method: "POST",
+    query: "format=columns",
+    handler: evaluateRoute.POST as Handler,
+    prepare: async () => ({ body: evaluateBody }),
+    expect: allowAll(200),
+  },
   // Public doors: the same answer whoever asks.
   { name: "health", file: "health", method: "GET", handler: health.GET as Handler, expect: everyoneGets(200) },
   { name: "health (deep: database and mail queue)", file: "health", method: "GET", query: "deep=1", handler: health.GET as Handler, expect: everyoneGets(200) },

@@ -35,20 +35,43 @@ const drafting = (status: number, other = status): Expect => ({ anonymous: 401, 
 const stewards = (status: number, other = 404): Expect => ({ anonymous: 401, engineer: 403, steward: status, reviewer: 403, admin: status, other });
 
 // Constant Cp of a solid with an anchor: numbers invented for the test.
-const solidData = { segments: [{ phase: "cr", form: "constant" as const, tminK: 250, tmaxK: 900, coeffs: { cpJ: 120 } }], reference: { tK: 298.15, phase: "cr", hkJ: -1000, sJ: 80 } };
+const solidData = {
+  segments: [{ phase: "cr", form: "constant" as const, tminK: 250, tmaxK: 900, coeffs: { cpJ: 120 } }],
+  reference: { tK: 298.15, phase: "cr", hkJ: -1000, sJ: 80 },
+};
 
 let n = 0;
 async function larkspurModel() {
   const sam = await actorOf("steward");
   const s = await models().Species.findOne({ where: { teamId: sam.teamId, formula: "NiAl2O4" } });
-  return models().CpModel.create({ speciesId: s!.id, teamId: sam.teamId, name: `Matrix model ${++n}`, family: "custom", variant: null, copiedFromId: null, createdById: sam.userId });
+  return models().CpModel.create({
+    speciesId: s!.id,
+    teamId: sam.teamId,
+    name: `Matrix model ${++n}`,
+    family: "custom",
+    variant: null,
+    copiedFromId: null,
+    createdById: sam.userId,
+  });
 }
 async function larkspurVersion(status: VersionStatus, author: "steward" | "engineer" = "steward"): Promise<string> {
   const who = await actorOf(author);
   const model = await larkspurModel();
   const v = await models().ModelVersion.create({
-    modelId: model.id, teamId: who.teamId, versionNumber: 1, status, data: solidData, citation: "Matrix test (invented)", uncertainty: null, changeNote: null,
-    decisionReason: null, datasetId: null, authorId: who.userId, decidedById: null, proposedAt: status === "proposed" ? new Date() : null, decidedAt: null,
+    modelId: model.id,
+    teamId: who.teamId,
+    versionNumber: 1,
+    status,
+    data: solidData,
+    citation: "Matrix test (invented)",
+    uncertainty: null,
+    changeNote: null,
+    decisionReason: null,
+    datasetId: null,
+    authorId: who.userId,
+    decidedById: null,
+    proposedAt: status === "proposed" ? new Date() : null,
+    decidedAt: null,
   });
   return String(v.id);
 }
@@ -97,18 +120,41 @@ const mkFit = { form: "maier-kelley", phase: "cr", reference: { tK: 298.15, hkJ:
 
 export const ROWS: Row[] = [
   { name: "species list", file: "species", method: "GET", handler: species.GET as Handler, expect: allowAll(200) },
-  { name: "species create", file: "species", method: "POST", handler: species.POST as Handler, prepare: async () => ({ body: { formula: `C${++n}H${2 * n + 2}`, displayName: `Alkane ${n}` } }), expect: drafting(201) },
-  { name: "species page", file: "species/[id]", method: "GET", handler: speciesOne.GET as Handler, prepare: async () => ({ params: { id: await larkspurSpecies() } }), expect: teamRead() },
+  {
+    name: "species create",
+    file: "species",
+    method: "POST",
+    handler: species.POST as Handler,
+    prepare: async () => ({ body: { formula: `C${++n}H${2 * n + 2}`, displayName: `Alkane ${n}` } }),
+    expect: drafting(201),
+  },
+  {
+    name: "species page",
+    file: "species/[id]",
+    method: "GET",
+    handler: speciesOne.GET as Handler,
+    prepare: async () => ({ params: { id: await larkspurSpecies() } }),
+    expect: teamRead(),
+  },
   { name: "models list", file: "models", method: "GET", handler: cpModels.GET as Handler, expect: allowAll(200) },
   {
     name: "model create",
     file: "models",
     method: "POST",
     handler: cpModels.POST as Handler,
-    prepare: async () => ({ body: { species: { formula: "Al2O3", displayName: "Alumina" }, name: `Alumina ${++n}`, version: { data: solidData, citation: "Matrix test (invented)" } } }),
+    prepare: async () => ({
+      body: { species: { formula: "Al2O3", displayName: "Alumina" }, name: `Alumina ${++n}`, version: { data: solidData, citation: "Matrix test (invented)" } },
+    }),
     expect: drafting(201),
   },
-  { name: "model page", file: "models/[id]", method: "GET", handler: cpModel.GET as Handler, prepare: async () => ({ params: { id: String((await larkspurModel()).id) } }), expect: teamRead() },
+  {
+    name: "model page",
+    file: "models/[id]",
+    method: "GET",
+    handler: cpModel.GET as Handler,
+    prepare: async () => ({ params: { id: String((await larkspurModel()).id) } }),
+    expect: teamRead(),
+  },
   {
     name: "new draft from a version",
     file: "models/[id]/versions",
@@ -121,7 +167,14 @@ export const ROWS: Row[] = [
     },
     expect: drafting(201, 404),
   },
-  { name: "version page", file: "versions/[id]", method: "GET", handler: version.GET as Handler, prepare: async () => ({ params: { id: await larkspurVersion("draft") } }), expect: teamRead() },
+  {
+    name: "version page",
+    file: "versions/[id]",
+    method: "GET",
+    handler: version.GET as Handler,
+    prepare: async () => ({ params: { id: await larkspurVersion("draft") } }),
+    expect: teamRead(),
+  },
   {
     name: "edit draft",
     file: "versions/[id]",
@@ -131,10 +184,31 @@ export const ROWS: Row[] = [
     // Sam wrote it; Erin may edit only her own drafts.
     expect: stewards(200),
   },
-  { name: "propose", file: "versions/[id]/propose", method: "POST", handler: propose.POST as Handler, prepare: async () => ({ params: { id: await larkspurVersion("draft") } }), expect: stewards(200) },
+  {
+    name: "propose",
+    file: "versions/[id]/propose",
+    method: "POST",
+    handler: propose.POST as Handler,
+    prepare: async () => ({ params: { id: await larkspurVersion("draft") } }),
+    expect: stewards(200),
+  },
   // Sam wrote them: he or another steward (or an admin) takes them back; Erin may only take back her own.
-  { name: "withdraw", file: "versions/[id]/withdraw", method: "POST", handler: withdraw.POST as Handler, prepare: async () => ({ params: { id: await larkspurVersion("proposed") } }), expect: stewards(200) },
-  { name: "version delete", file: "versions/[id]", method: "DELETE", handler: version.DELETE as Handler, prepare: async () => ({ params: { id: await larkspurVersion("draft") } }), expect: stewards(200) },
+  {
+    name: "withdraw",
+    file: "versions/[id]/withdraw",
+    method: "POST",
+    handler: withdraw.POST as Handler,
+    prepare: async () => ({ params: { id: await larkspurVersion("proposed") } }),
+    expect: stewards(200),
+  },
+  {
+    name: "version delete",
+    file: "versions/[id]",
+    method: "DELETE",
+    handler: version.DELETE as Handler,
+    prepare: async () => ({ params: { id: await larkspurVersion("draft") } }),
+    expect: stewards(200),
+  },
   {
     name: "approve",
     file: "versions/[id]/approve",
@@ -156,14 +230,56 @@ export const ROWS: Row[] = [
     author: { who: "steward", prepare: async () => ({ params: { id: await larkspurVersion("proposed", "steward") }, body: { reason: "Range too short." } }), expect: 403 },
     contributors: contributorRows({ reason: "Range too short." }),
   },
-  { name: "copy reference", file: "versions/[id]/copy", method: "POST", handler: copy.POST as Handler, prepare: async () => ({ params: { id: await referenceVersion() } }), expect: stewards(201, 201) },
-  { name: "version curve", file: "versions/[id]/curve", method: "GET", handler: curve.GET as Handler, prepare: async () => ({ params: { id: await larkspurVersion("draft") } }), expect: teamRead() },
-  { name: "version audit", file: "versions/[id]/audit", method: "GET", handler: audit.GET as Handler, prepare: async () => ({ params: { id: await larkspurVersion("draft") } }), expect: teamRead() },
+  {
+    name: "copy reference",
+    file: "versions/[id]/copy",
+    method: "POST",
+    handler: copy.POST as Handler,
+    prepare: async () => ({ params: { id: await referenceVersion() } }),
+    expect: stewards(201, 201),
+  },
+  {
+    name: "version curve",
+    file: "versions/[id]/curve",
+    method: "GET",
+    handler: curve.GET as Handler,
+    prepare: async () => ({ params: { id: await larkspurVersion("draft") } }),
+    expect: teamRead(),
+  },
+  {
+    name: "version audit",
+    file: "versions/[id]/audit",
+    method: "GET",
+    handler: audit.GET as Handler,
+    prepare: async () => ({ params: { id: await larkspurVersion("draft") } }),
+    expect: teamRead(),
+  },
   { name: "preview", file: "preview", method: "POST", handler: preview.POST as Handler, prepare: async () => ({ body: { data: solidData, points: 20 } }), expect: allowAll(200) },
   { name: "datasets list", file: "datasets", method: "GET", handler: datasets.GET as Handler, expect: allowAll(200) },
-  { name: "dataset upload", file: "datasets", method: "POST", handler: datasets.POST as Handler, prepare: async () => ({ body: { name: `Run ${++n}`, text: csv } }), expect: drafting(201) },
-  { name: "dataset page", file: "datasets/[id]", method: "GET", handler: dataset.GET as Handler, prepare: async () => ({ params: { id: await larkspurDataset() } }), expect: teamRead() },
-  { name: "fit", file: "datasets/[id]/fit", method: "POST", handler: fit.POST as Handler, prepare: async () => ({ params: { id: await larkspurDataset() }, body: mkFit }), expect: stewards(200) },
+  {
+    name: "dataset upload",
+    file: "datasets",
+    method: "POST",
+    handler: datasets.POST as Handler,
+    prepare: async () => ({ body: { name: `Run ${++n}`, text: csv } }),
+    expect: drafting(201),
+  },
+  {
+    name: "dataset page",
+    file: "datasets/[id]",
+    method: "GET",
+    handler: dataset.GET as Handler,
+    prepare: async () => ({ params: { id: await larkspurDataset() } }),
+    expect: teamRead(),
+  },
+  {
+    name: "fit",
+    file: "datasets/[id]/fit",
+    method: "POST",
+    handler: fit.POST as Handler,
+    prepare: async () => ({ params: { id: await larkspurDataset() }, body: mkFit }),
+    expect: stewards(200),
+  },
   {
     name: "save fit as draft",
     file: "datasets/[id]/versions",
@@ -182,7 +298,14 @@ export const ROWS: Row[] = [
       body: {
         format: "heatpath.cp-library",
         formatVersion: 1,
-        models: [{ species: { formula: "SiO2", displayName: "Silica" }, name: `Silica ${++n}`, family: "custom", versions: [{ versionNumber: 1, status: "approved", data: solidData, citation: "Matrix test (invented)" }] }],
+        models: [
+          {
+            species: { formula: "SiO2", displayName: "Silica" },
+            name: `Silica ${++n}`,
+            family: "custom",
+            versions: [{ versionNumber: 1, status: "approved", data: solidData, citation: "Matrix test (invented)" }],
+          },
+        ],
       },
     }),
     expect: stewards(201, 201),

@@ -38,7 +38,11 @@ export default async function CasePage({ params, searchParams }: Props) {
     <>
       <PageHeader
         title={c.title}
-        lead={<span className="text-base text-ink-soft" data-testid="case-reaction">{c.reaction}</span>}
+        lead={
+          <span className="text-base text-ink-soft" data-testid="case-reaction">
+            {c.reaction}
+          </span>
+        }
         action={
           <div className="flex flex-wrap items-start gap-2">
             {c.can.edit && (
@@ -59,7 +63,11 @@ export default async function CasePage({ params, searchParams }: Props) {
           </span>
         )}
         <span data-testid="case-author">· Author: {c.authorName}</span>
-        {latest && <span>· {c.snapshots.length} revision{c.snapshots.length === 1 ? "" : "s"}</span>}
+        {latest && (
+          <span>
+            · {c.snapshots.length} revision{c.snapshots.length === 1 ? "" : "s"}
+          </span>
+        )}
         {c.can.review && latest && (
           <a href="#review" className="no-print font-medium text-frost-700 underline">
             Your decision is asked: review panel below the results
@@ -74,8 +82,7 @@ export default async function CasePage({ params, searchParams }: Props) {
       )}
       {c.newerVersions.length > 0 && (
         <div role="status" className="mb-4 rounded-md border border-frost-100 bg-frost-50 px-4 py-3 text-sm text-frost-700" data-testid="newer-versions">
-          <strong>Newer approved model versions exist</strong> for{" "}
-          {c.newerVersions.map((n) => `${n.key} (${n.modelName}: v${n.pinnedNumber} → v${n.newerNumber})`).join(", ")}.{" "}
+          <strong>Newer approved model versions exist</strong> for {c.newerVersions.map((n) => `${n.key} (${n.modelName}: v${n.pinnedNumber} → v${n.newerNumber})`).join(", ")}.{" "}
           {c.can.rerun ? "Re-run the case on them to make a new revision." : c.status === "submitted" ? "The author can re-run once the review is decided." : ""}
         </div>
       )}
@@ -89,30 +96,34 @@ export default async function CasePage({ params, searchParams }: Props) {
 
       {chosen && chosen !== latest?.revision && (
         <p className="mb-3 rounded-md bg-paper-deep px-3 py-2 text-sm" data-testid="old-revision">
-          Showing revision {chosen}, an earlier snapshot. <Link className="underline" href={`/cases/${c.id}`}>Back to the current one</Link>.
+          Showing revision {chosen}, an earlier snapshot.{" "}
+          <Link className="underline" href={`/cases/${c.id}`}>
+            Back to the current one
+          </Link>
+          .
         </p>
       )}
       <DisplayUnitProvider initialUnit={enteredUnit(c.inputs.temperatures)}>
-      <ResultsView caseId={c.id} revision={chosen} stamp={c.lockVersion} initialUnit={enteredUnit(c.inputs.temperatures)} />
+        <ResultsView caseId={c.id} revision={chosen} stamp={c.lockVersion} initialUnit={enteredUnit(c.inputs.temperatures)} />
 
-      {c.can.review && latest && (
-        <div id="review" className="mt-6 scroll-mt-4">
-          <Card title={`Review revision ${latest.revision}`} className="border-frost-500/40">
-            <ReviewPanel caseId={c.id} revision={latest.revision} title={c.title} authorName={c.authorName} />
-          </Card>
+        {c.can.review && latest && (
+          <div id="review" className="mt-6 scroll-mt-4">
+            <Card title={`Review revision ${latest.revision}`} className="border-frost-500/40">
+              <ReviewPanel caseId={c.id} revision={latest.revision} title={c.title} authorName={c.authorName} />
+            </Card>
+          </div>
+        )}
+        <div className="mt-6">
+          <EquilibriumPanel
+            caseId={c.id}
+            revision={chosen}
+            canEdit={c.can.edit}
+            lockVersion={c.lockVersion}
+            initial={c.inputs.equilibrium ?? null}
+            caseKeys={c.inputs.terms.map(termKey)}
+            reactantKeys={c.inputs.terms.filter((t) => t.coefficient < 0).map(termKey)}
+          />
         </div>
-      )}
-      <div className="mt-6">
-        <EquilibriumPanel
-          caseId={c.id}
-          revision={chosen}
-          canEdit={c.can.edit}
-          lockVersion={c.lockVersion}
-          initial={c.inputs.equilibrium ?? null}
-          caseKeys={c.inputs.terms.map(termKey)}
-          reactantKeys={c.inputs.terms.filter((t) => t.coefficient < 0).map(termKey)}
-        />
-      </div>
       </DisplayUnitProvider>
 
       <div className="mt-6 grid gap-4 lg:grid-cols-2">

@@ -16,8 +16,15 @@ export default async function NewModelPage() {
   const [species, phases] = await Promise.all([listSpecies(actor, { pageSize: 100 }), phasesBySpecies(actor)]);
   return (
     <>
-      <p className="mb-2 text-sm"><Link href="/library" className="text-frost-700 hover:underline">← Library</Link></p>
-      <PageHeader title="New team model" lead="Type or paste the coefficients of each segment; the curve on the right follows as you type. The draft is saved to your team and can then be proposed for approval." />
+      <p className="mb-2 text-sm">
+        <Link href="/library" className="text-frost-700 hover:underline">
+          ← Library
+        </Link>
+      </p>
+      <PageHeader
+        title="New team model"
+        lead="Type or paste the coefficients of each segment; the curve on the right follows as you type. The draft is saved to your team and can then be proposed for approval."
+      />
       <VersionEditor species={species.items.map((s) => ({ id: s.id, formula: s.formula, displayName: s.displayName, phases: phases[s.id] ?? [] }))} />
     </>
   );

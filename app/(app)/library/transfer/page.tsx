@@ -30,21 +30,34 @@ export default async function TransferPage() {
   const actor = requireUser(await getActor());
   return (
     <>
-      <p className="mb-2 text-sm"><Link href="/library" className="text-frost-700 hover:underline">← Library</Link></p>
+      <p className="mb-2 text-sm">
+        <Link href="/library" className="text-frost-700 hover:underline">
+          ← Library
+        </Link>
+      </p>
       <PageHeader title="Import and export" lead="Model sets travel between teams and scripts in Heatpath's own JSON format, with their citations." />
       <div className="grid gap-6 lg:grid-cols-2">
         <Card title="Export">
           <p className="text-sm text-ink-soft">Every model visible to {actor.teamName} that has an approved version, with that version; or every version of every visible model.</p>
           <div className="mt-3 flex flex-wrap gap-2">
-            <a className={buttonClass("primary")} href="/api/v1/library/export">Export approved versions</a>
-            <a className={buttonClass("secondary")} href="/api/v1/library/export?versions=all">Export every version</a>
+            <a className={buttonClass("primary")} href="/api/v1/library/export">
+              Export approved versions
+            </a>
+            <a className={buttonClass("secondary")} href="/api/v1/library/export?versions=all">
+              Export every version
+            </a>
           </div>
-          <p className="mt-3 text-xs text-ink-muted">One model: use “Export this model” on any version page, or <code>/api/v1/library/export?models=ID1,ID2</code>.</p>
+          <p className="mt-3 text-xs text-ink-muted">
+            One model: use “Export this model” on any version page, or <code>/api/v1/library/export?models=ID1,ID2</code>.
+          </p>
         </Card>
         <Card title="Import">
           {can(actor.role, "models.edit") ? (
             <>
-              <p className="mb-3 text-sm text-ink-soft">Every version in the file becomes a <strong>draft</strong> of a team model (matched by species, name, family and variant, else created); nothing is approved by importing. A file with any error is refused whole.</p>
+              <p className="mb-3 text-sm text-ink-soft">
+                Every version in the file becomes a <strong>draft</strong> of a team model (matched by species, name, family and variant, else created); nothing is approved by
+                importing. A file with any error is refused whole.
+              </p>
               <ImportForm />
             </>
           ) : (
@@ -54,7 +67,9 @@ export default async function TransferPage() {
       </div>
       <Card title="The format" className="mt-6">
         <pre className="overflow-x-auto rounded-md bg-paper-deep p-3 text-xs leading-relaxed">{SAMPLE}</pre>
-        <p className="mt-2 text-xs text-ink-muted"><code>data</code> is the engine&apos;s species entry (segments per phase, optional transitions, anchor and standard pressure), exactly as the evaluate API takes it.</p>
+        <p className="mt-2 text-xs text-ink-muted">
+          <code>data</code> is the engine&apos;s species entry (segments per phase, optional transitions, anchor and standard pressure), exactly as the evaluate API takes it.
+        </p>
       </Card>
     </>
   );

@@ -19,7 +19,11 @@ export default async function UploadPage() {
   const ordered = [...team, ...species.items.filter((s) => s.scope === "reference")];
   return (
     <>
-      <p className="mb-2 text-sm"><Link href="/library" className="text-frost-700 hover:underline">← Library</Link></p>
+      <p className="mb-2 text-sm">
+        <Link href="/library" className="text-frost-700 hover:underline">
+          ← Library
+        </Link>
+      </p>
       <PageHeader
         title="Fit measured data"
         lead={

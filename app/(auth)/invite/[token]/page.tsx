@@ -21,8 +21,14 @@ export default async function InvitePage({ params }: { params: Promise<{ token: 
     return (
       <>
         <h1 className="mb-2 text-lg font-semibold">Invitation</h1>
-        <p role="alert" className="text-sm text-flag-700">{problem}</p>
-        <p className="mt-4 text-sm"><Link className="text-frost-600 underline" href="/sign-in">Go to sign-in</Link></p>
+        <p role="alert" className="text-sm text-flag-700">
+          {problem}
+        </p>
+        <p className="mt-4 text-sm">
+          <Link className="text-frost-600 underline" href="/sign-in">
+            Go to sign-in
+          </Link>
+        </p>
       </>
     );
   }

@@ -31,7 +31,11 @@ export default async function DiffPage({ params, searchParams }: Props) {
       <PageHeader
         title={`Compare snapshots: ${c.title}`}
         lead={diff ? `Revision ${diff.from.revision} against revision ${diff.to.revision}. Old snapshots are never rewritten.` : "This case needs two snapshots to compare."}
-        action={<Link className="text-sm underline" href={`/cases/${id}`}>Back to the case</Link>}
+        action={
+          <Link className="text-sm underline" href={`/cases/${id}`}>
+            Back to the case
+          </Link>
+        }
       />
       {diff && (
         <div className="space-y-4" data-testid="diff">
@@ -43,7 +47,9 @@ export default async function DiffPage({ params, searchParams }: Props) {
                 </p>
                 <code className="block break-all text-xs">{s.hash}</code>
                 <p className="mt-1 text-sm">
-                  {s.decision ? `${s.decision.decision === "approved" ? "Approved" : "Returned"} by ${s.decision.reviewerName}${s.decision.reason ? `: ${s.decision.reason}` : ""}` : "Awaiting decision"}
+                  {s.decision
+                    ? `${s.decision.decision === "approved" ? "Approved" : "Returned"} by ${s.decision.reviewerName}${s.decision.reason ? `: ${s.decision.reason}` : ""}`
+                    : "Awaiting decision"}
                 </p>
               </Card>
             ))}
@@ -81,19 +87,26 @@ export default async function DiffPage({ params, searchParams }: Props) {
               <div data-testid="diff-equilibrium" data-status={diff.equilibrium.status}>
                 {diff.equilibrium.status === "lost" && (
                   <p role="alert" className="rounded-md border border-flag-600/30 bg-flag-50 px-3 py-2 text-sm font-medium text-flag-700">
-                    Revision {diff.to.revision} has no equilibrium results: revision {diff.from.revision} had them (key {diff.equilibrium.key[0]}, {diff.equilibrium.pressureBar[0]} bar). The feed was removed or not carried over.
+                    Revision {diff.to.revision} has no equilibrium results: revision {diff.from.revision} had them (key {diff.equilibrium.key[0]}, {diff.equilibrium.pressureBar[0]}{" "}
+                    bar). The feed was removed or not carried over.
                   </p>
                 )}
                 {diff.equilibrium.status === "added" && (
-                  <p className="text-sm">Revision {diff.to.revision} adds equilibrium results (key {diff.equilibrium.key[1]}, {diff.equilibrium.pressureBar[1]} bar); revision {diff.from.revision} had none.</p>
+                  <p className="text-sm">
+                    Revision {diff.to.revision} adds equilibrium results (key {diff.equilibrium.key[1]}, {diff.equilibrium.pressureBar[1]} bar); revision {diff.from.revision} had
+                    none.
+                  </p>
                 )}
                 {diff.equilibrium.status === "unchanged" && <p className="text-sm text-ink-muted">The same equilibrium results at every temperature both share.</p>}
                 {diff.equilibrium.status === "changed" && (
                   <>
                     <p className="text-sm font-medium text-ember-700">
-                      The equilibrium results changed: largest change in the conversion of {diff.equilibrium.key[1]} {fixed(diff.equilibrium.maxAbsConversion * 100, 3)} percentage points, in a mole fraction {fixed(diff.equilibrium.maxAbsMoleFraction, 5)}, over {diff.equilibrium.common} shared temperatures.
+                      The equilibrium results changed: largest change in the conversion of {diff.equilibrium.key[1]} {fixed(diff.equilibrium.maxAbsConversion * 100, 3)} percentage
+                      points, in a mole fraction {fixed(diff.equilibrium.maxAbsMoleFraction, 5)}, over {diff.equilibrium.common} shared temperatures.
                       {diff.equilibrium.key[0] !== diff.equilibrium.key[1] ? ` Key species ${diff.equilibrium.key[0]} → ${diff.equilibrium.key[1]}.` : ""}
-                      {diff.equilibrium.pressureBar[0] !== diff.equilibrium.pressureBar[1] ? ` Pressure ${diff.equilibrium.pressureBar[0]} → ${diff.equilibrium.pressureBar[1]} bar.` : ""}
+                      {diff.equilibrium.pressureBar[0] !== diff.equilibrium.pressureBar[1]
+                        ? ` Pressure ${diff.equilibrium.pressureBar[0]} → ${diff.equilibrium.pressureBar[1]} bar.`
+                        : ""}
                     </p>
                     {diff.equilibrium.rows.length > 0 && (
                       <DataTable
@@ -115,24 +128,40 @@ export default async function DiffPage({ params, searchParams }: Props) {
           )}
           <Card title="Results">
             <dl className="grid gap-3 text-sm sm:grid-cols-2">
-              <div><dt className="text-xs text-ink-muted">Sign case</dt><dd>{diff.signCase[0]} → {diff.signCase[1]}</dd></div>
+              <div>
+                <dt className="text-xs text-ink-muted">Sign case</dt>
+                <dd>
+                  {diff.signCase[0]} → {diff.signCase[1]}
+                </dd>
+              </div>
               <div>
                 <dt className="text-xs text-ink-muted">Crossovers</dt>
                 <dd>
-                  naive {kelvin(diff.crossover.naiveK[0])} → {kelvin(diff.crossover.naiveK[1])}; corrected {diff.crossover.correctedK[0].map(kelvin).join(", ") || "none"} → {diff.crossover.correctedK[1].map(kelvin).join(", ") || "none"}
+                  naive {kelvin(diff.crossover.naiveK[0])} → {kelvin(diff.crossover.naiveK[1])}; corrected {diff.crossover.correctedK[0].map(kelvin).join(", ") || "none"} →{" "}
+                  {diff.crossover.correctedK[1].map(kelvin).join(", ") || "none"}
                 </dd>
               </div>
               <div>
                 <dt className="text-xs text-ink-muted">At the {diff.points.common} temperatures both share</dt>
-                <dd>largest change in ΔrG {fixed(diff.points.maxAbsDGkJ, 4)} kJ/mol, in log10 K {fixed(diff.points.maxAbsLog10K, 5)}</dd>
+                <dd>
+                  largest change in ΔrG {fixed(diff.points.maxAbsDGkJ, 4)} kJ/mol, in log10 K {fixed(diff.points.maxAbsLog10K, 5)}
+                </dd>
               </div>
               <div>
                 <dt className="text-xs text-ink-muted">Warnings</dt>
                 <dd>
                   {diff.warnings.added.length === 0 && diff.warnings.removed.length === 0 ? "unchanged" : null}
-                  {diff.warnings.added.map((w) => <span key={w} className="block text-flag-700" data-testid="warning-added">+ new: {w}</span>)}
+                  {diff.warnings.added.map((w) => (
+                    <span key={w} className="block text-flag-700" data-testid="warning-added">
+                      + new: {w}
+                    </span>
+                  ))}
                   {/* A warning that went away is news, not a verdict: the cause may have left with an input. */}
-                  {diff.warnings.removed.map((w) => <span key={w} className="block text-ink-soft" data-testid="warning-removed">− no longer raised: {w}</span>)}
+                  {diff.warnings.removed.map((w) => (
+                    <span key={w} className="block text-ink-soft" data-testid="warning-removed">
+                      − no longer raised: {w}
+                    </span>
+                  ))}
                 </dd>
               </div>
             </dl>

@@ -18,10 +18,28 @@ export default async function EditCasePage({ params }: { params: Promise<{ id: s
   const known = new Set(options.map((o) => o.versionId));
   const kept = c.pins
     .filter((p) => !known.has(p.versionId))
-    .map((p) => ({ versionId: p.versionId, formula: p.formula, speciesName: p.speciesName, modelName: p.modelName, versionNumber: p.versionNumber, status: p.status, phases: p.phase ? [p.phase] : [], tminK: NaN, tmaxK: NaN, warning: p.status === "approved" ? null : `This version is ${p.status}.` }));
+    .map((p) => ({
+      versionId: p.versionId,
+      formula: p.formula,
+      speciesName: p.speciesName,
+      modelName: p.modelName,
+      versionNumber: p.versionNumber,
+      status: p.status,
+      phases: p.phase ? [p.phase] : [],
+      tminK: NaN,
+      tmaxK: NaN,
+      warning: p.status === "approved" ? null : `This version is ${p.status}.`,
+    }));
   return (
     <>
-      <PageHeader title={`Edit: ${c.title}`} lead={c.status === "returned" ? "Revise the case, then resubmit it: the returned snapshot stays readable." : "Changes are saved to the draft; nothing is frozen until you submit."} />
+      <PageHeader
+        title={`Edit: ${c.title}`}
+        lead={
+          c.status === "returned"
+            ? "Revise the case, then resubmit it: the returned snapshot stays readable."
+            : "Changes are saved to the draft; nothing is frozen until you submit."
+        }
+      />
       <CaseBuilder options={[...options, ...kept]} initial={{ id: c.id, lockVersion: c.lockVersion, title: c.title, notes: c.notes, inputs: c.inputs }} />
     </>
   );

@@ -82,7 +82,10 @@ export default async function ReportPage({ params, searchParams }: Props) {
             <p>
               Revision {data.revision}, frozen {data.frozenAt?.slice(0, 16).replace("T", " ")} UTC, case status {data.status}.
               <br />
-              SHA-256 of the canonical JSON (RFC 8785): <code className="break-all" data-testid="report-hash">{data.hash}</code>
+              SHA-256 of the canonical JSON (RFC 8785):{" "}
+              <code className="break-all" data-testid="report-hash">
+                {data.hash}
+              </code>
             </p>
           ) : (
             <p className="font-semibold text-flag-700">Live draft evaluation: not frozen, not reviewed. Submit the case to freeze a snapshot.</p>
@@ -91,7 +94,9 @@ export default async function ReportPage({ params, searchParams }: Props) {
         </div>
         <div>
           <h2 className="mb-1 text-sm font-semibold">Inputs</h2>
-          <p>Temperatures: {temperaturesText(data.inputs.temperatures)} ({pts.length.toLocaleString("en")} points)</p>
+          <p>
+            Temperatures: {temperaturesText(data.inputs.temperatures)} ({pts.length.toLocaleString("en")} points)
+          </p>
           <p>Reference temperature: {formatQuantity(data.inputs.referenceK)}</p>
           <p>
             Tolerance: {data.inputs.toleranceKJ} kJ/mol on ΔrG{data.inputs.toleranceKFactor ? `, factor ${data.inputs.toleranceKFactor} on K` : ""}
@@ -132,7 +137,8 @@ export default async function ReportPage({ params, searchParams }: Props) {
         <h2 className="mb-2 text-sm font-semibold">Summary</h2>
         <ResultSummary result={r} unit={unit} />
         <p className="mt-2 text-xs">
-          Largest naive − corrected difference: <strong>{fixed(worst?.diffKJ, 3)} kJ/mol</strong> at {formatTemperature(worst?.tK, unit)}; {beyond} of {pts.length} points beyond tolerance.
+          Largest naive − corrected difference: <strong>{fixed(worst?.diffKJ, 3)} kJ/mol</strong> at {formatTemperature(worst?.tK, unit)}; {beyond} of {pts.length} points beyond
+          tolerance.
         </p>
       </section>
 
@@ -141,7 +147,9 @@ export default async function ReportPage({ params, searchParams }: Props) {
       </section>
 
       <section className="break-inside-avoid">
-        <h2 className="mb-1 text-sm font-semibold">Table summary{rows.length < pts.length ? ` (every ${stride}th point and the last; the CSV export has all ${pts.length})` : ""}</h2>
+        <h2 className="mb-1 text-sm font-semibold">
+          Table summary{rows.length < pts.length ? ` (every ${stride}th point and the last; the CSV export has all ${pts.length})` : ""}
+        </h2>
         <DataTable
           look="numbers"
           testId="report-table"

@@ -17,7 +17,13 @@ import { approveVersionAction, rejectVersionAction } from "./actions";
 
 type Props = { params: Promise<{ id: string }> };
 
-const ROLE_WORDS: Record<string, string> = { author: "author", editor: "edited", proposer: "proposed", source: "worked on the draft it started from", uploader: "uploaded the measured data it was fitted to" };
+const ROLE_WORDS: Record<string, string> = {
+  author: "author",
+  editor: "edited",
+  proposer: "proposed",
+  source: "worked on the draft it started from",
+  uploader: "uploaded the measured data it was fitted to",
+};
 
 const ACTION_WORDS: Record<string, string> = {
   "model-version.created": "created the draft",
@@ -38,7 +44,9 @@ function coeffText(coeffs: unknown): string {
     const o = coeffs as Record<string, unknown>;
     if (Array.isArray(o.terms)) return (o.terms as { k: number; c: number }[]).map((t) => `${t.c}·T^${t.k}`).join(" + ");
     if (Array.isArray(o.points)) return `${(o.points as unknown[]).length} tabulated points`;
-    return Object.entries(o).map(([k, v]) => `${k} = ${v}`).join(", ");
+    return Object.entries(o)
+      .map(([k, v]) => `${k} = ${v}`)
+      .join(", ");
   }
   return String(coeffs);
 }
@@ -65,14 +73,23 @@ export default async function VersionPage({ params }: Props) {
   };
   return (
     <>
-      <p className="mb-2 text-sm"><Link href={`/library/species/${v.species.id}?v=${v.id}`} className="text-frost-700 hover:underline">← {v.species.formula} · {v.species.displayName}</Link></p>
+      <p className="mb-2 text-sm">
+        <Link href={`/library/species/${v.species.id}?v=${v.id}`} className="text-frost-700 hover:underline">
+          ← {v.species.formula} · {v.species.displayName}
+        </Link>
+      </p>
       <PageHeader
         title={`${v.model.name}, version ${v.versionNumber}`}
-        lead={<span className="flex flex-wrap items-center gap-2"><StatusBadge status={v.status} /> <ScopeBadge scope={v.scope} /> {FAMILY_LABELS[v.model.family] ?? v.model.family}</span>}
+        lead={
+          <span className="flex flex-wrap items-center gap-2">
+            <StatusBadge status={v.status} /> <ScopeBadge scope={v.scope} /> {FAMILY_LABELS[v.model.family] ?? v.model.family}
+          </span>
+        }
       />
       {v.status !== "approved" && v.status !== "superseded" && (
         <p className="mb-4 rounded-md border border-ember-100 bg-ember-50 px-3 py-2 text-sm text-ember-700" data-testid="not-approved-note">
-          This version is {v.status === "draft" ? "a draft" : v.status}: it is not part of the approved library{v.status === "proposed" ? " until a steward who neither changed nor proposed it approves it" : ""}.
+          This version is {v.status === "draft" ? "a draft" : v.status}: it is not part of the approved library
+          {v.status === "proposed" ? " until a steward who neither changed nor proposed it approves it" : ""}.
         </p>
       )}
       {v.status === "rejected" && v.decisionReason && (
@@ -83,7 +100,13 @@ export default async function VersionPage({ params }: Props) {
       <div className="grid gap-6 lg:grid-cols-[1fr_22rem]">
         <div className="space-y-6">
           <Card title="Curves">
-            {curve instanceof Error ? <p role="alert" className="text-sm text-flag-700">{curve.message}</p> : <PropertyCharts a={curve} labelA={`v${v.versionNumber}`} />}
+            {curve instanceof Error ? (
+              <p role="alert" className="text-sm text-flag-700">
+                {curve.message}
+              </p>
+            ) : (
+              <PropertyCharts a={curve} labelA={`v${v.versionNumber}`} />
+            )}
             <Caution className="mt-4" />
           </Card>
           {team && v.status !== "rejected" && (
@@ -107,33 +130,81 @@ export default async function VersionPage({ params }: Props) {
                 rowKey={(_, i) => i}
               />
             </div>
-            {v.data.transitions?.length ? <p className="mt-3 text-sm">Transitions: {v.data.transitions.map((t) => `${t.from} → ${t.to} at ${t.tK} K, ΔH ${t.dHkJ} kJ/mol`).join("; ")}</p> : null}
-            {v.data.reference && <p className="mt-2 text-sm">Anchor: {phaseLabel(v.data.reference.phase)} at {String(v.data.reference.tK)} K, H = {String(v.data.reference.hkJ)} kJ/mol, S = {String(v.data.reference.sJ)} J/(mol·K)</p>}
-            <p className="mt-2 text-xs text-ink-muted">Standard pressure of the source: {(v.data.standardPressurePa ?? 100000).toLocaleString("en")} Pa{v.data.standardPressurePa === 101325 ? " (converted to 1 bar for gases)" : ""}.</p>
+            {v.data.transitions?.length ? (
+              <p className="mt-3 text-sm">Transitions: {v.data.transitions.map((t) => `${t.from} → ${t.to} at ${t.tK} K, ΔH ${t.dHkJ} kJ/mol`).join("; ")}</p>
+            ) : null}
+            {v.data.reference && (
+              <p className="mt-2 text-sm">
+                Anchor: {phaseLabel(v.data.reference.phase)} at {String(v.data.reference.tK)} K, H = {String(v.data.reference.hkJ)} kJ/mol, S = {String(v.data.reference.sJ)}{" "}
+                J/(mol·K)
+              </p>
+            )}
+            <p className="mt-2 text-xs text-ink-muted">
+              Standard pressure of the source: {(v.data.standardPressurePa ?? 100000).toLocaleString("en")} Pa
+              {v.data.standardPressurePa === 101325 ? " (converted to 1 bar for gases)" : ""}.
+            </p>
           </Card>
         </div>
         <div className="space-y-6">
           <Card title="Workflow">
-            <VersionActions versionId={v.id} modelId={v.modelId} allowed={allowed} label={`${v.model.name}, version ${v.versionNumber}`} speciesHref={`/library/species/${v.species.id}`} decisions={{ approve: approveVersionAction, reject: rejectVersionAction }} />
+            <VersionActions
+              versionId={v.id}
+              modelId={v.modelId}
+              allowed={allowed}
+              label={`${v.model.name}, version ${v.versionNumber}`}
+              speciesHref={`/library/species/${v.species.id}`}
+              decisions={{ approve: approveVersionAction, reject: rejectVersionAction }}
+            />
             <dl className="mt-4 space-y-1 text-sm">
-              <div className="flex justify-between gap-2"><dt className="text-ink-muted">Author</dt><dd>{v.authorName ?? (v.scope === "reference" ? "Published source" : "—")}</dd></div>
+              <div className="flex justify-between gap-2">
+                <dt className="text-ink-muted">Author</dt>
+                <dd>{v.authorName ?? (v.scope === "reference" ? "Published source" : "—")}</dd>
+              </div>
               {v.contributors.length > 0 && (
                 <div className="flex justify-between gap-2" data-testid="contributors">
                   <dt className="text-ink-muted">Contributors</dt>
                   <dd className="text-right">{v.contributors.map((c) => `${c.name} (${c.roles.map((r) => ROLE_WORDS[r] ?? r).join(", ")})`).join("; ")}</dd>
                 </div>
               )}
-              {v.decidedByName && <div className="flex justify-between gap-2"><dt className="text-ink-muted">Decided by</dt><dd>{v.decidedByName}</dd></div>}
-              <div className="flex justify-between gap-2"><dt className="text-ink-muted">Updated</dt><dd className="tabular">{v.updatedAt.slice(0, 16).replace("T", " ")}</dd></div>
-              {v.datasetId && <div className="flex justify-between gap-2"><dt className="text-ink-muted">Fitted to</dt><dd><Link className="text-frost-700 hover:underline" href={`/library/datasets/${v.datasetId}`}>dataset #{v.datasetId}</Link></dd></div>}
+              {v.decidedByName && (
+                <div className="flex justify-between gap-2">
+                  <dt className="text-ink-muted">Decided by</dt>
+                  <dd>{v.decidedByName}</dd>
+                </div>
+              )}
+              <div className="flex justify-between gap-2">
+                <dt className="text-ink-muted">Updated</dt>
+                <dd className="tabular">{v.updatedAt.slice(0, 16).replace("T", " ")}</dd>
+              </div>
+              {v.datasetId && (
+                <div className="flex justify-between gap-2">
+                  <dt className="text-ink-muted">Fitted to</dt>
+                  <dd>
+                    <Link className="text-frost-700 hover:underline" href={`/library/datasets/${v.datasetId}`}>
+                      dataset #{v.datasetId}
+                    </Link>
+                  </dd>
+                </div>
+              )}
             </dl>
-            <a className="mt-3 inline-block text-sm text-frost-700 hover:underline" href={`/api/v1/library/export?models=${v.modelId}&versions=all`}>Export this model (JSON)</a>
+            <a className="mt-3 inline-block text-sm text-frost-700 hover:underline" href={`/api/v1/library/export?models=${v.modelId}&versions=all`}>
+              Export this model (JSON)
+            </a>
           </Card>
           <Card title="Source">
-            <p className="text-sm" data-testid="citation">{v.citation}</p>
+            <p className="text-sm" data-testid="citation">
+              {v.citation}
+            </p>
             {v.uncertainty && (
               <p className="mt-2 text-xs text-ink-muted">
-                Uncertainty: {[v.uncertainty.cpRelative != null && `Cp ±${(v.uncertainty.cpRelative * 100).toPrecision(2)} %`, v.uncertainty.dfHkJ != null && `ΔfH° ±${v.uncertainty.dfHkJ} kJ/mol`, v.uncertainty.sJ != null && `S° ±${v.uncertainty.sJ} J/(mol·K)`].filter(Boolean).join(", ")}
+                Uncertainty:{" "}
+                {[
+                  v.uncertainty.cpRelative != null && `Cp ±${(v.uncertainty.cpRelative * 100).toPrecision(2)} %`,
+                  v.uncertainty.dfHkJ != null && `ΔfH° ±${v.uncertainty.dfHkJ} kJ/mol`,
+                  v.uncertainty.sJ != null && `S° ±${v.uncertainty.sJ} J/(mol·K)`,
+                ]
+                  .filter(Boolean)
+                  .join(", ")}
               </p>
             )}
             {v.changeNote && <p className="mt-2 text-sm text-ink-soft">{v.changeNote}</p>}
@@ -143,7 +214,9 @@ export default async function VersionPage({ params }: Props) {
               {audit.map((e) => (
                 <li key={e.id}>
                   <span className="font-medium">{e.actorName ?? "Heatpath"}</span> {ACTION_WORDS[e.action] ?? e.action}
-                  {e.action === "model-version.rejected" && typeof e.after === "object" && e.after && "reason" in e.after ? <>: “{String((e.after as { reason: string }).reason)}”</> : null}
+                  {e.action === "model-version.rejected" && typeof e.after === "object" && e.after && "reason" in e.after ? (
+                    <>: “{String((e.after as { reason: string }).reason)}”</>
+                  ) : null}
                   <span className="block text-xs text-ink-muted tabular">{e.at.slice(0, 16).replace("T", " ")} UTC</span>
                 </li>
               ))}

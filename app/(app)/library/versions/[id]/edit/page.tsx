@@ -18,8 +18,15 @@ export default async function EditVersionPage({ params }: { params: Promise<{ id
   if (!mayEdit) redirect(`/library/versions/${id}`);
   return (
     <>
-      <p className="mb-2 text-sm"><Link href={`/library/versions/${id}`} className="text-frost-700 hover:underline">← Back to the version</Link></p>
-      <PageHeader title={`Edit ${v.model.name}, version ${v.versionNumber}`} lead="Changes are saved to this draft only. If a colleague saved it after you opened it, you will see their version before anything is overwritten." />
+      <p className="mb-2 text-sm">
+        <Link href={`/library/versions/${id}`} className="text-frost-700 hover:underline">
+          ← Back to the version
+        </Link>
+      </p>
+      <PageHeader
+        title={`Edit ${v.model.name}, version ${v.versionNumber}`}
+        lead="Changes are saved to this draft only. If a colleague saved it after you opened it, you will see their version before anything is overwritten."
+      />
       <VersionEditor existing={{ id: v.id, lockVersion: v.lockVersion, data: v.data, citation: v.citation, changeNote: v.changeNote }} />
     </>
   );
