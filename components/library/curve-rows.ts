@@ -146,8 +146,3 @@ export function curveMarks(a: CurveLike, b?: CurveLike, colors: { a: string; b: 
   flush();
   return out;
 }
-
-/** Validity edges of each phase's chain inside the plotted span (kept for the editor's preview). */
-export function validityMarks(c: CurveLike, color: string): MarkX[] {
-  return curveMarks(c, undefined, { a: color, b: color });
-}

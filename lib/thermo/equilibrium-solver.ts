@@ -9,7 +9,7 @@
 import { gasTotal, hessian, sensitivityOf, solveDense } from "./equilibrium-linear";
 import { brent } from "./roots";
 
-export { checkIndependent, solveDense } from "./equilibrium-linear";
+export { checkIndependent } from "./equilibrium-linear";
 
 /** One temperature's problem. Species are indexed 0..S−1, reactions 0..R−1. */
 export interface EquilibriumProblem {

@@ -28,7 +28,7 @@ import { buildSpeciesModel, type EngineWarning } from "./species-model";
 import { speciesRows, type SpeciesRow } from "./species";
 import { parseUncertainty } from "./uncertainty";
 
-export { SIGN_CASES, UNCERTAINTY_BASIS, type EvaluatePoint, type EvaluateResult, type SignCaseCode, type UncertaintySummary } from "./evaluate-types";
+export { type EvaluatePoint, type EvaluateResult } from "./evaluate-types";
 
 const LN10 = Math.LN10;
 const R = GAS_CONSTANT;

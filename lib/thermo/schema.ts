@@ -239,7 +239,6 @@ export const evaluateRequestSchema = strict({
 
 export type EvaluateRequest = z.input<typeof evaluateRequestSchema>;
 export type SpeciesInput = z.input<typeof speciesSchema>;
-export type EquilibriumRequest = z.input<typeof evaluateRequestSchema>["equilibrium"];
 export type SegmentInput = z.input<typeof segmentSchema>;
 export type ParsedSpecies = z.output<typeof speciesSchema>;
 export type ParsedSegment = z.output<typeof segmentSchema>;

@@ -13,23 +13,10 @@ import { buildSpeciesModel, type EngineWarning } from "./species-model";
 import { termOnGrid, type TermGrid } from "./term";
 import { termWarnings } from "./term-warnings";
 
-export { EngineRefusal } from "./errors";
 export { fmt } from "./format";
-export { chainAt, chainOnGrid, covers, type Chain } from "./chain";
-export {
-  buildSpeciesModel,
-  JUMP_H_KJ,
-  JUMP_S_J,
-  MISMATCH_H_KJ,
-  MISMATCH_S_J,
-  MISMATCH_T_K,
-  type BuildOptions,
-  type EngineWarning,
-  type SegmentJump,
-  type SpeciesModel,
-} from "./species-model";
-export { termAt, termChains, termOnGrid, type TermGrid } from "./term";
-export { checkFiniteGrid, termWarnings } from "./term-warnings";
+
+export { buildSpeciesModel, type EngineWarning, type SpeciesModel } from "./species-model";
+export { termAt, termOnGrid, type TermGrid } from "./term";
 
 export interface SpeciesRow {
   tK: number;

@@ -6,4 +6,4 @@
  */
 export { diffSnapshots, exportCsv, getCase, getResults, getSnapshot, listCases, listComments, listSnapshots } from "./queries";
 export { addComment, createCase, rerunWithNewerVersions, submitCase, updateCase } from "./commands";
-export type { CaseDto, CaseSummaryDto, CommentDto, PinDto, ResultsDto, SnapshotDiffDto, SnapshotDto, SnapshotSummaryDto } from "./present";
+export type { CaseDto, CaseSummaryDto, PinDto, ResultsDto } from "./present";
