@@ -5,7 +5,7 @@
  * nothing new; every number is the very same double as in the row format.
  */
 import type { EvaluatePoint, EvaluateResult } from "@/lib/thermo/evaluate";
-import { toColumnar, type ColumnarResult, type PointColumns, type ResultFormat } from "@/lib/thermo/columns";
+import { pointKeys, toColumnar, type ColumnarResult, type PointColumns, type ResultFormat } from "@/lib/thermo/columns";
 import { sampleIndices } from "./downsample";
 
 export type ResultsQuery = { format?: ResultFormat; points?: number; offset?: number; limit?: number };
@@ -24,21 +24,6 @@ export type ResultsView = Omit<ColumnarResult, "columns"> & { columns?: Partial<
 
 /** The point fields the case page draws: the extremes of each survive the sampling. */
 export const CHARTED_KEYS = ["dGkJ", "naiveDGkJ", "diffKJ", "log10K", "naiveLog10K", "lnK", "naiveLnK", "dHkJ", "dSJ", "exceedsTolerance", "sigmaDGkJ"] as const;
-
-/** Every field any point carries, in the points' field order (as `pointsToColumns` orders its columns). */
-function pointKeys(points: readonly EvaluatePoint[]): (keyof EvaluatePoint)[] {
-  const keys: (keyof EvaluatePoint)[] = [];
-  const seen = new Set<string>();
-  for (const p of points) {
-    for (const k of Object.keys(p) as (keyof EvaluatePoint)[]) {
-      if (!seen.has(k)) {
-        seen.add(k);
-        keys.push(k);
-      }
-    }
-  }
-  return keys;
-}
 
 /** The columns of the points at `indices` (a missing optional field is null, as in `pointsToColumns`). */
 function columnsAt(points: readonly EvaluatePoint[], keys: readonly (keyof EvaluatePoint)[], indices: readonly number[]): Partial<PointColumns> {

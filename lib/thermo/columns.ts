@@ -14,12 +14,8 @@ export type ColumnarResult = Omit<EvaluateResult, "points"> & { columns: Partial
 export const resultFormatSchema = z.enum(["rows", "columns"]);
 export type ResultFormat = z.infer<typeof resultFormatSchema>;
 
-/**
- * One array per field that any point carries, in the points' field order. An
- * optional field a point lacks (the uncertainty fields when no species has an
- * uncertainty) is `null` at that index, so every column has `points.length` entries.
- */
-export function pointsToColumns(points: readonly EvaluatePoint[]): Partial<PointColumns> {
+/** Every field any point carries, in the points' field order (the order of the columns). */
+export function pointKeys(points: readonly EvaluatePoint[]): (keyof EvaluatePoint)[] {
   const keys: (keyof EvaluatePoint)[] = [];
   const seen = new Set<string>();
   for (const p of points) {
@@ -30,6 +26,16 @@ export function pointsToColumns(points: readonly EvaluatePoint[]): Partial<Point
       }
     }
   }
+  return keys;
+}
+
+/**
+ * One array per field that any point carries, in the points' field order. An
+ * optional field a point lacks (the uncertainty fields when no species has an
+ * uncertainty) is `null` at that index, so every column has `points.length` entries.
+ */
+export function pointsToColumns(points: readonly EvaluatePoint[]): Partial<PointColumns> {
+  const keys = pointKeys(points);
   const columns: Record<string, unknown[]> = {};
   for (const k of keys) {
     const column = new Array<unknown>(points.length);
