@@ -1,11 +1,12 @@
 import "server-only";
-import { requirePermission, requireSameTeam, type Actor } from "@/lib/auth/guards";
+import { requirePermission, type Actor } from "@/lib/auth/guards";
 import { can } from "@/lib/auth/permissions";
-import { db, models } from "@/lib/db";
-import { AppError, notFound } from "@/lib/errors";
+import { db } from "@/lib/db";
+import { AppError } from "@/lib/errors";
 import type { SpeciesPatchInput } from "@/lib/validation/species-critical";
 import type { Species, SpeciesCritical } from "@/models/species";
 import { recordAudit } from "./audit";
+import { loadSpecies } from "./library/rows";
 
 /**
  * Critical constants (Tc, Pc, acentric factor, with their source) of a species, read by the
@@ -32,20 +33,15 @@ function dto(me: Actor, s: Species): SpeciesCriticalDto {
 /** The constants of a visible species (reference or the actor's team); another team's is 404. */
 export async function getSpeciesCritical(actor: Actor | null, id: number): Promise<SpeciesCriticalDto> {
   const me = requirePermission(actor, "library.view");
-  const s = await models().Species.findByPk(id);
-  if (!s) throw notFound("Species");
-  if (s.teamId !== null) requireSameTeam(me, s.teamId, "Species");
-  return dto(me, s);
+  return dto(me, await loadSpecies(me, id));
 }
 
 /** Set (or, with `critical: null`, remove) a team species' constants, with an audit event. */
 export async function setSpeciesCritical(actor: Actor | null, id: number, input: SpeciesPatchInput): Promise<SpeciesCriticalDto> {
   const me = requirePermission(actor, "models.edit");
   return db().transaction(async (transaction) => {
-    const s = await models().Species.findByPk(id, { transaction });
-    if (!s) throw notFound("Species");
+    const s = await loadSpecies(me, id, transaction);
     if (s.teamId === null) throw new AppError(403, "read-only", READ_ONLY);
-    requireSameTeam(me, s.teamId, "Species");
     const before = s.critical ?? null;
     const after = input.critical ? { tcK: input.critical.tcK, pcBar: input.critical.pcBar, omega: input.critical.omega, citation: input.critical.citation } : null;
     await s.update({ critical: after }, { transaction });

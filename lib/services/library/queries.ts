@@ -20,7 +20,7 @@ import {
   type VersionAuditDto,
   type VersionDto,
 } from "./present";
-import { loadModel, loadVersion, presentVersion, requireVisible, userNames, visible } from "./rows";
+import { loadModel, loadSpecies, loadVersion, presentVersion, requireVisible, userNames, visible } from "./rows";
 
 // ------------------------------------------------------------------ species
 
@@ -45,10 +45,8 @@ export async function listSpecies(actor: Actor | null, query: { q?: string; page
 
 export async function getSpecies(actor: Actor | null, id: number): Promise<SpeciesDetailDto> {
   const me = requirePermission(actor, "library.view");
-  const { Species, CpModel, ModelVersion } = models();
-  const species = await Species.findByPk(id);
-  if (!species) throw notFound("Species");
-  requireVisible(me, species.teamId, "Species");
+  const { CpModel, ModelVersion } = models();
+  const species = await loadSpecies(me, id);
   const cpModels = await CpModel.findAll({
     where: { [Op.and]: [{ speciesId: id }, visible(me)] },
     order: [

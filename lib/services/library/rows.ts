@@ -66,6 +66,14 @@ export async function presentVersion(v: ModelVersion, transaction?: Transaction)
 
 // ------------------------------------------------------------------ loaders
 
+/** A species of the reference library or the actor's team; 404 when missing or another team's. */
+export async function loadSpecies(me: Actor, id: number, transaction?: Transaction): Promise<Species> {
+  const species = await models().Species.findByPk(id, { transaction });
+  if (!species) throw notFound("Species");
+  requireVisible(me, species.teamId, "Species");
+  return species;
+}
+
 /** A model with its species; 404 when missing or another team's. */
 export async function loadModel(me: Actor, id: number, transaction?: Transaction): Promise<CpModel> {
   const { CpModel, Species } = models();
